@@ -1,0 +1,3 @@
+//! Converter designs: a specification in, a report out.
+
+pub mod forward;

@@ -1,0 +1,134 @@
+//! Engineering notation at the edges: "200k" → 200 000, "4.7u" → 4.7e-6,
+//! and back again for display. The engine itself works in plain SI values;
+//! front ends call these to read what a user typed and to show results.
+
+/// SI prefixes accepted on input, with their power of ten. "u" and "µ"
+/// (and the Greek "μ") are both micro; "M" is mega, "m" is milli.
+const PREFIXES: [(&str, i32); 11] = [
+    ("p", -12),
+    ("n", -9),
+    ("u", -6),
+    ("µ", -6),
+    ("μ", -6),
+    ("m", -3),
+    ("k", 3),
+    ("K", 3),
+    ("M", 6),
+    ("G", 9),
+    ("T", 12),
+];
+
+/// Why a text is not a number.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum ParseError {
+    Empty,
+    NotANumber(String),
+}
+
+impl std::fmt::Display for ParseError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            ParseError::Empty => f.write_str("enter a value"),
+            ParseError::NotANumber(s) => {
+                write!(f, "\"{s}\" is not a number (examples: 200k, 4.7u, 1.5m, 2e5)")
+            }
+        }
+    }
+}
+
+/// Parses a number with an optional SI prefix and an optional unit symbol
+/// after it: "200k", "200 kHz", "4.7u", "1.5e-3", "0,5" (comma decimal).
+/// `unit` is the unit symbol that may follow (e.g. "Hz"); it is stripped.
+pub fn parse(text: &str, unit: &str) -> Result<f64, ParseError> {
+    let mut s = text.trim().replace(',', ".");
+    if s.is_empty() {
+        return Err(ParseError::Empty);
+    }
+    if !unit.is_empty() {
+        if let Some(stripped) = s.strip_suffix(unit) {
+            s = stripped.trim_end().to_string();
+        }
+    }
+    let bad = || ParseError::NotANumber(text.trim().to_string());
+    let mut scale = 0;
+    for (p, exp) in PREFIXES {
+        if let Some(stripped) = s.strip_suffix(p) {
+            // "1e" or "5 m" forms: the remainder must itself be a plain number.
+            if stripped.trim_end().parse::<f64>().is_ok() {
+                s = stripped.trim_end().to_string();
+                scale = exp;
+            }
+            break;
+        }
+    }
+    let v: f64 = s.parse().map_err(|_| bad())?;
+    if !v.is_finite() {
+        return Err(bad());
+    }
+    Ok(v * 10f64.powi(scale))
+}
+
+/// Formats `v` with an SI prefix and `digits` significant figures, e.g.
+/// `format(200e3, "Hz", 3)` → "200 kHz", `format(0.0123, "W", 3)` → "12.3 mW".
+pub fn format(v: f64, unit: &str, digits: usize) -> String {
+    if !v.is_finite() {
+        return "—".to_string();
+    }
+    if v == 0.0 {
+        return format!("0 {unit}").trim_end().to_string();
+    }
+    let exp3 = ((v.abs().log10() / 3.0).floor() as i32).clamp(-4, 4);
+    let prefix = match exp3 {
+        -4 => "p",
+        -3 => "n",
+        -2 => "µ",
+        -1 => "m",
+        0 => "",
+        1 => "k",
+        2 => "M",
+        3 => "G",
+        _ => "T",
+    };
+    let m = v / 10f64.powi(3 * exp3);
+    let int_digits = if m.abs() >= 100.0 { 3 } else if m.abs() >= 10.0 { 2 } else { 1 };
+    let decimals = digits.saturating_sub(int_digits);
+    format!("{m:.decimals$} {prefix}{unit}").trim_end().to_string()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn parses_prefixes_and_units() {
+        assert_eq!(parse("200k", "Hz"), Ok(200e3));
+        assert_eq!(parse("200 kHz", "Hz"), Ok(200e3));
+        assert!((parse("4.7u", "H").unwrap() - 4.7e-6).abs() < 1e-20);
+        assert!((parse("1.5m", "").unwrap() - 1.5e-3).abs() < 1e-18);
+        assert_eq!(parse("2e5", "Hz"), Ok(2e5));
+        assert_eq!(parse(" 48 ", "V"), Ok(48.0));
+        assert_eq!(parse("48V", "V"), Ok(48.0));
+        assert_eq!(parse("0,45", ""), Ok(0.45));
+        assert_eq!(parse("1M", "Hz"), Ok(1e6));
+        assert_eq!(parse("-3", "V"), Ok(-3.0));
+    }
+
+    #[test]
+    fn rejects_garbage() {
+        assert_eq!(parse("", "V"), Err(ParseError::Empty));
+        assert!(parse("abc", "V").is_err());
+        assert!(parse("1.2.3", "V").is_err());
+        assert!(parse("inf", "V").is_err());
+        assert!(parse("NaN", "V").is_err());
+        assert!(parse("k", "V").is_err());
+    }
+
+    #[test]
+    fn formats_with_prefix() {
+        assert_eq!(format(200e3, "Hz", 3), "200 kHz");
+        assert_eq!(format(0.0123, "W", 3), "12.3 mW");
+        assert_eq!(format(1.5, "W", 3), "1.50 W");
+        assert_eq!(format(0.0, "W", 3), "0 W");
+        assert_eq!(format(f64::NAN, "W", 3), "—");
+    }
+}
