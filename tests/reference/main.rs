@@ -2,4 +2,8 @@
 //! Each check names its source beside it.
 
 mod conductors;
+mod cores;
+mod materials;
+mod topologies;
 mod transformer;
+mod windings;

@@ -27,6 +27,7 @@ fn seed(
         ve: ae_mm2 * le_mm * 1e-9,
         amin: amin_mm2 * 1e-6,
         window_area: wa_mm2 * 1e-6,
+        window_height: (breadth_mm + 1.6) * 1e-3,
         winding_breadth: breadth_mm * 1e-3,
         winding_height: height_mm * 1e-3,
         turn_length_inner: mlt0_mm * 1e-3,

@@ -26,6 +26,9 @@ pub struct Core {
     pub amin: f64,
     /// Core window area Wa (one side, the space the winding can fill), m².
     pub window_area: f64,
+    /// Window height G along the centre leg (the core's, not the bobbin's), m:
+    /// McLyman's G in the fringing-flux factor.
+    pub window_height: f64,
     /// Bobbin winding breadth (along the centre leg), m.
     pub winding_breadth: f64,
     /// Bobbin winding height (radial build available), m.

@@ -1,0 +1,1 @@
+//! Reference checks: cores (see each test for its source).

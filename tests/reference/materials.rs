@@ -1,0 +1,1 @@
+//! Reference checks: materials (see each test for its source).

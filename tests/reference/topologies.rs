@@ -1,0 +1,1 @@
+//! Reference checks: topologies (see each test for its source).

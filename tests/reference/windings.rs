@@ -1,0 +1,1 @@
+//! Reference checks: windings (see each test for its source).
