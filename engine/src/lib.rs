@@ -11,16 +11,20 @@
 //! * [`core`]: core sets, their effective parameters and the library.
 //! * [`material`]: ferrite grades and their loss coefficients.
 //! * [`loss`]: core-loss density (Steinmetz family).
+//! * [`gap`]: gapped-core inductance and saturation.
 //! * [`winding`]: conductors and copper resistance.
+//! * [`topology`]: converter waveforms and stresses.
 //! * [`design`]: converter designs, a spec in and a report out.
 //! * [`notation`]: engineering notation ("200k") for front ends.
 
 pub mod core;
 pub mod design;
 pub mod error;
+pub mod gap;
 pub mod loss;
 pub mod material;
 pub mod notation;
+pub mod topology;
 pub mod waveform;
 pub mod winding;
 

@@ -1,0 +1,1 @@
+//! Gapped cores: inductance, fringing, gap for a target inductance, saturation check.

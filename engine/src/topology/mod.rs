@@ -1,0 +1,1 @@
+//! Converter topologies: waveforms and stresses of forward, flyback and push-pull.
