@@ -66,7 +66,7 @@ fn parse_spec(texts: &[String; 11], core: &str, material: &str) -> Result<Forwar
             Err(e) => errs.push((d.key, e.to_string())),
         }
     }
-    let mut awg = |i: usize, errs: &mut FieldErrors| -> i32 {
+    let awg = |i: usize, errs: &mut FieldErrors| -> i32 {
         let v = vals[i];
         if v.fract() != 0.0 && !errs.iter().any(|e| e.0 == NUMS[i].key) {
             errs.push((NUMS[i].key, "a wire gauge is a whole number".into()));
@@ -192,6 +192,16 @@ fn row(id: &'static str, label: &'static str, v: f64, unit: &'static str, digits
     }
 }
 
+/// A ratio shown in per cent; `data-si` keeps the plain ratio.
+fn pct(id: &'static str, label: &'static str, v: f64) -> impl IntoView {
+    view! {
+        <tr>
+            <th scope="row">{label}</th>
+            <td data-testid=id data-si=format!("{v:e}")>{format!("{:.1} %", v * 100.0)}</td>
+        </tr>
+    }
+}
+
 fn count(id: &'static str, label: &'static str, n: u32) -> impl IntoView {
     view! {
         <tr>
@@ -237,8 +247,8 @@ fn Results(report: Memo<Result<ForwardReport, Problem>>) -> impl IntoView {
                     {count("np", "Np (primary turns)", r.primary_turns)}
                     {count("ns", "Ns (secondary turns)", r.secondary_turns)}
                     {row("ratio", "Turns ratio Np/Ns", r.turns_ratio, "", 4)}
-                    {row("duty-min", "Duty at Vin min", r.duty_at_vin_min, "", 3)}
-                    {row("duty-max", "Duty at Vin max", r.duty_at_vin_max, "", 3)}
+                    {pct("duty-min", "Duty at Vin min", r.duty_at_vin_min)}
+                    {pct("duty-max", "Duty at Vin max", r.duty_at_vin_max)}
                     {row("delta-b", "ΔB (= Bpk, unipolar)", r.delta_b, "T", 3)}
                     {row("bsat", "Bsat at temperature", r.b_sat, "T", 3)}
                     {row("pv", "Core loss density", r.core_loss_density, "W/m³", 3)}
@@ -249,7 +259,7 @@ fn Results(report: Memo<Result<ForwardReport, Problem>>) -> impl IntoView {
                     {row("rs", "Secondary Rdc", r.secondary_rdc, "Ω", 3)}
                     {row("cu-loss", "Copper loss (DC)", r.copper_loss, "W", 3)}
                     {row("total-loss", "Total loss", r.total_loss, "W", 3)}
-                    {row("fill", "Window fill (copper)", r.window_fill * 100.0, "%", 3)}
+                    {pct("fill", "Window fill (copper)", r.window_fill)}
                 </tbody>
             </table>
             <p class="core-note" data-testid="core-params">

@@ -15,14 +15,16 @@ pub fn flux(canvas: &HtmlCanvasElement, at_min: &Pwl, at_max: &Pwl, b_sat: f64) 
     let mut chart = ChartBuilder::on(&root)
         .margin(10)
         .x_label_area_size(34)
-        .y_label_area_size(48)
+        .y_label_area_size(56)
         .build_cartesian_2d(0.0..t_us, 0.0..b_top)
         .map_err(|e| e.to_string())?;
     chart
         .configure_mesh()
         .x_desc("t (µs)")
         .y_desc("B (mT)")
-        .light_line_style(RGBColor(235, 235, 235))
+        .light_line_style(RGBColor(240, 240, 240))
+        .x_label_formatter(&|v| format!("{v:.1}"))
+        .y_label_formatter(&|v| format!("{v:.0}"))
         .label_style(("sans-serif", 13))
         .draw()
         .map_err(|e| e.to_string())?;

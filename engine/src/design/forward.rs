@@ -19,7 +19,7 @@
 use crate::core::{library as cores, Core};
 use crate::error::{in_range, positive, Error, Result};
 use crate::loss;
-use crate::material::{library as materials, Material};
+use crate::material::library as materials;
 use crate::waveform::Pwl;
 use crate::winding::wire;
 use serde::{Deserialize, Serialize};
