@@ -14,6 +14,7 @@
 //! * [`gap`]: gapped-core inductance and saturation.
 //! * [`winding`]: conductors and copper resistance.
 //! * [`topology`]: converter waveforms and stresses.
+//! * [`thermal`]: temperature rise and thermal equilibrium.
 //! * [`design`]: converter designs, a spec in and a report out.
 //! * [`notation`]: engineering notation ("200k") for front ends.
 
@@ -24,6 +25,7 @@ pub mod gap;
 pub mod loss;
 pub mod material;
 pub mod notation;
+pub mod thermal;
 pub mod topology;
 pub mod waveform;
 pub mod winding;
