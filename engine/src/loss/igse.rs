@@ -193,20 +193,22 @@ impl IgseCoefficients {
     /// temperature of the coefficients: ki·ΔB^(β−α)·(1/T)·Σ|ΔBj/Δtj|^α·Δtj.
     pub fn pv(&self, b_t: &Pwl) -> Result<f64> {
         let s = self.scan(b_t)?;
-        Ok(self.pv_of_scan(&s, b_t.period))
+        let pv = self.pv_of_scan(&s, b_t.period);
+        if pv.is_finite() {
+            Ok(pv)
+        } else {
+            Err(Error::input("b_t.points", "the core loss is too large to evaluate: check the units (T, s)"))
+        }
     }
 
     /// The loss density from a [`FluxScan`] of a waveform of `period` s.
+    /// May overflow to infinity for absurd inputs: check the result (as
+    /// [`Self::pv`] and [`crate::loss::core_loss_with`] do).
     pub fn pv_of_scan(&self, s: &FluxScan, period: f64) -> f64 {
         if s.delta_b <= 0.0 || s.slope_sum <= 0.0 {
             return 0.0;
         }
-        let pv = self.ki * s.delta_b.powf(self.beta - self.alpha) * s.slope_sum / period;
-        if pv.is_finite() {
-            pv
-        } else {
-            f64::MAX
-        }
+        self.ki * s.delta_b.powf(self.beta - self.alpha) * s.slope_sum / period
     }
 
     /// The dimensionless shape factor S = Σ |ΔBj/ΔB|^α·(Δtj/T)^(1−α), so
@@ -370,9 +372,9 @@ mod tests {
     /// Triangle closed form, and two physical checks independent of the
     /// code: at α = 1 (pure hysteresis) the loss per cycle depends only on
     /// ΔB, so a triangle equals a sine of the same swing; at α = β = 2
-    /// (classical eddy loss ∝ mean (dB/dt)², common practice) a symmetric
-    /// triangle has 8/π² of the sine's loss: (4·f·ΔB)²/(2π²f²ΔB²/2)... i.e.
-    /// 16/(2π²).
+    /// (classical eddy loss ∝ mean of (dB/dt)², common practice) a
+    /// symmetric triangle of swing 2B̂ has slope 4f·B̂, the sine's mean
+    /// square slope is (2πf·B̂)²/2, so the ratio is 16/(2π²) = 8/π².
     #[test]
     fn triangle_closed_form_and_physical_limits() {
         let s = st(10.0, 1.4, 2.7);

@@ -151,7 +151,7 @@ pub struct CoreLoss {
 /// Core loss of the flux density `b_t` (T, one period) in a core of
 /// effective volume `ve` (m³) at `temp_c` °C: iGSE density times the
 /// temperature factor times Ve. Checks the material; builds the iGSE
-/// coefficients (about a microsecond): for sweeps use [`core_loss_with`].
+/// coefficients (a few microseconds): for sweeps use [`core_loss_with`].
 pub fn core_loss(material: &Material, b_t: &Pwl, temp_c: f64, ve: f64) -> Result<CoreLoss> {
     material.validate()?;
     let c = IgseCoefficients::from_material(material)?;
