@@ -290,6 +290,7 @@ mod tests {
     /// factorials and Γ(1/2) = √π before use).
     fn gamma(x: f64) -> f64 {
         const G: f64 = 7.0;
+        #[allow(clippy::excessive_precision)]
         const C: [f64; 9] = [
             0.999_999_999_999_809_93,
             676.520_368_121_885_1,

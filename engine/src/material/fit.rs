@@ -192,7 +192,7 @@ pub fn fit(points: &[LossPoint]) -> Result<LossFit> {
             }
         };
         let (qa, qb, qc) = (coef[0], coef[1], coef[2]);
-        if !(qa > 0.0) {
+        if qa.is_nan() || qa <= 0.0 {
             return Err(Error::input(
                 "points",
                 "the loss does not have a minimum over temperature (the fitted parabola opens downwards); the quadratic temperature factor does not describe these points",

@@ -20,7 +20,7 @@ pub(crate) fn solve(mut a: Vec<f64>, mut b: Vec<f64>, n: usize, p: usize) -> Lsq
     for j in 0..p {
         // Householder vector v for column j below the diagonal.
         let norm: f64 = (j..n).map(|i| a[i * p + j].powi(2)).sum::<f64>().sqrt();
-        if !(norm > 1e-10 * col_norm[j]) || col_norm[j] == 0.0 {
+        if norm.is_nan() || norm <= 1e-10 * col_norm[j] || col_norm[j] == 0.0 {
             return Lsq::Singular;
         }
         let x0 = a[j * p + j];

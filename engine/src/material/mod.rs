@@ -255,7 +255,8 @@ mod tests {
     fn validate_names_the_field() {
         let good = library::find("MnZn-P200").unwrap();
         assert!(good.validate().is_ok());
-        let cases: Vec<(&str, Box<dyn Fn(&mut Material)>)> = vec![
+        type Edit = Box<dyn Fn(&mut Material)>;
+        let cases: Vec<(&str, Edit)> = vec![
             ("material.name", Box::new(|m| m.name = " ".into())),
             ("material.mu_i", Box::new(|m| m.mu_i = 0.5)),
             ("material.bsat_25", Box::new(|m| m.bsat_25 = f64::NAN)),
