@@ -1,12 +1,35 @@
 //! Ferrite materials: permeability, saturation, Steinmetz coefficients and
 //! the temperature factor of loss.
+//!
+//! A [`Material`] is what the engine needs to know about a ferrite grade:
+//!
+//! * the initial relative permeability μi (gapped-inductance model, [`crate::gap`]);
+//! * the saturation flux density at 25 °C and 100 °C, linearly interpolated
+//!   by [`Material::bsat_at`], and the Curie temperature;
+//! * the loss model: Steinmetz coefficients k, α, β for a sinusoid at the
+//!   reference temperature (with the f and B ranges they hold over), and a
+//!   quadratic temperature factor (see [`TempFactor`]). [`crate::loss`] turns
+//!   these into the loss of any piecewise-linear B(t) with the iGSE;
+//! * resistivity and density (information for the report: core mass,
+//!   whether a bare core may touch a winding).
+//!
+//! The built-in grades ([`library`]) are generic, with names of our own;
+//! every value is typical, from memory; use your supplier's data. A user
+//! may define a material (e.g. in a design file) and check it with
+//! [`Material::validate`], or fit the loss coefficients from measured
+//! points with [`fit`].
 
+pub mod fit;
 pub mod library;
+mod lsq;
 
+use crate::error::{Error, Result};
 use serde::{Deserialize, Serialize};
 
 /// Steinmetz coefficients for Pv = k·f^α·B^β (Pv in W/m³, f in Hz, B peak
-/// in T), with the ranges they were fitted over (Steinmetz 1892 form).
+/// in T, sinusoidal flux, at the reference temperature of the material's
+/// [`TempFactor`]), with the ranges they were fitted over (Steinmetz 1892
+/// form, generalised to a frequency exponent as is usual for ferrites).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Steinmetz {
     pub k: f64,
@@ -19,7 +42,16 @@ pub struct Steinmetz {
 }
 
 /// Normalised quadratic temperature factor of loss:
-/// Pv(T) = Pv(T_ref)·(ct2·T² − ct1·T + ct0), T in °C, equal to 1 at T_ref.
+///
+/// Pv(T) = Pv(T_ref)·(ct2·T² − ct1·T + ct0), T in °C.
+///
+/// The convention (common practice for ferrite loss fits, no single
+/// source): the parabola has its minimum at the reference temperature
+/// T_ref = ct1/(2·ct2), where the factor is exactly 1, so k is the loss
+/// coefficient at the loss minimum (for power grades near 80–100 °C, the
+/// temperature they are designed to run at). Equivalently
+/// factor(T) = 1 + ct2·(T − T_ref)², built by [`TempFactor::with_minimum`].
+/// A flat factor (ct2 = ct1 = 0, ct0 = 1) means no temperature dependence.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct TempFactor {
     pub ct2: f64,
@@ -32,6 +64,73 @@ impl TempFactor {
     /// fitted parabola far outside its range cannot give negative loss.
     pub fn at(&self, t_c: f64) -> f64 {
         (self.ct2 * t_c * t_c - self.ct1 * t_c + self.ct0).max(0.05)
+    }
+
+    /// The factor 1 + c·(T − t_ref)²: minimum 1 at `t_ref` °C, curvature
+    /// `c` per °C². Expanding gives ct2 = c, ct1 = 2·c·t_ref,
+    /// ct0 = 1 + c·t_ref².
+    pub fn with_minimum(t_ref: f64, c: f64) -> TempFactor {
+        TempFactor { ct2: c, ct1: 2.0 * c * t_ref, ct0: 1.0 + c * t_ref * t_ref }
+    }
+
+    /// No temperature dependence: factor 1 everywhere.
+    pub fn flat() -> TempFactor {
+        TempFactor { ct2: 0.0, ct1: 0.0, ct0: 1.0 }
+    }
+
+    /// The reference temperature, °C: where the parabola has its minimum
+    /// (ct1/(2·ct2)); `None` for a flat factor (any temperature is the
+    /// reference) or a parabola without a minimum.
+    pub fn reference_temperature(&self) -> Option<f64> {
+        if self.ct2 > 0.0 && self.ct2.is_finite() {
+            Some(self.ct1 / (2.0 * self.ct2))
+        } else {
+            None
+        }
+    }
+
+    /// Checks the factor: finite, a parabola opening upwards (or flat), and
+    /// normalised (its minimum within 1 % of 1). `field` prefixes the keys.
+    pub fn validate(&self, field: &str) -> Result<()> {
+        for (name, v) in [("ct2", self.ct2), ("ct1", self.ct1), ("ct0", self.ct0)] {
+            if !v.is_finite() {
+                return Err(Error::input(&format!("{field}.{name}"), "must be a finite number"));
+            }
+        }
+        if self.ct2 < 0.0 {
+            return Err(Error::input(
+                &format!("{field}.ct2"),
+                "must not be negative: the factor is a parabola with a minimum (ct2·T² − ct1·T + ct0)",
+            ));
+        }
+        let min_value = if self.ct2 == 0.0 {
+            if self.ct1 != 0.0 {
+                return Err(Error::input(
+                    &format!("{field}.ct1"),
+                    "a factor with ct2 = 0 must have ct1 = 0 (a straight line has no minimum to normalise at)",
+                ));
+            }
+            self.ct0
+        } else {
+            self.ct0 - self.ct1 * self.ct1 / (4.0 * self.ct2)
+        };
+        if (min_value - 1.0).abs() > 0.01 {
+            return Err(Error::input(
+                &format!("{field}.ct0"),
+                format!(
+                    "the factor must be 1 at its minimum (got {min_value:.4}); set ct0 = 1 + ct1²/(4·ct2) and scale k instead"
+                ),
+            ));
+        }
+        if let Some(t) = self.reference_temperature() {
+            if !(-60.0..=250.0).contains(&t) {
+                return Err(Error::input(
+                    &format!("{field}.ct1"),
+                    format!("the loss minimum ct1/(2·ct2) = {t:.0} °C lies outside −60…250 °C"),
+                ));
+            }
+        }
+        Ok(())
     }
 }
 
@@ -49,6 +148,11 @@ pub struct Material {
     pub curie_c: f64,
     pub steinmetz: Steinmetz,
     pub temp_factor: TempFactor,
+    /// Bulk DC resistivity, Ω·m (information: the Steinmetz fit already
+    /// contains the eddy-current loss).
+    pub resistivity: f64,
+    /// Density, kg/m³ (core mass ≈ density·Ve).
+    pub density: f64,
     /// Where the numbers come from.
     pub provenance: String,
 }
@@ -60,5 +164,126 @@ impl Material {
     pub fn bsat_at(&self, t_c: f64) -> f64 {
         let s = (t_c - 25.0) / 75.0;
         (self.bsat_25 + s * (self.bsat_100 - self.bsat_25)).max(0.0)
+    }
+
+    /// The temperature where the loss is least (the reference temperature
+    /// of k), °C; `None` for a flat temperature factor.
+    pub fn reference_temperature(&self) -> Option<f64> {
+        self.temp_factor.reference_temperature()
+    }
+
+    /// Checks a (user-defined) material. Each error names the field as
+    /// `material.<field>` (`material.steinmetz.alpha`, ...). The bounds are
+    /// wide plausibility limits for soft magnetic materials, not a claim
+    /// about any grade (common practice, no source).
+    pub fn validate(&self) -> Result<()> {
+        let f = |name: &str| format!("material.{name}");
+        if self.name.trim().is_empty() {
+            return Err(Error::input("material.name", "give the material a name"));
+        }
+        check_range(&f("mu_i"), self.mu_i, 1.0, 1.0e6, "(relative permeability)")?;
+        check_range(&f("bsat_25"), self.bsat_25, 0.01, 2.5, "T")?;
+        check_range(&f("bsat_100"), self.bsat_100, 0.0, 2.5, "T")?;
+        if self.bsat_100 > 0.0 {
+            check_range(
+                &f("curie_c"),
+                self.curie_c,
+                100.0,
+                1000.0,
+                "°C (a material with Bsat > 0 at 100 °C has its Curie point above 100 °C)",
+            )?;
+        } else {
+            check_range(&f("curie_c"), self.curie_c, 25.0, 1000.0, "°C")?;
+        }
+        let s = &self.steinmetz;
+        let p = |name: &str| format!("material.steinmetz.{name}");
+        crate::error::positive(&p("k"), s.k, "W/m³ at 1 Hz and 1 T")?;
+        check_range(&p("alpha"), s.alpha, 0.9, 3.5, "(frequency exponent; 1 is pure hysteresis)")?;
+        check_range(&p("beta"), s.beta, 1.0, 4.0, "(flux exponent)")?;
+        crate::error::positive(&p("f_min"), s.f_min, "Hz")?;
+        crate::error::positive(&p("f_max"), s.f_max, "Hz")?;
+        if s.f_max <= s.f_min {
+            return Err(Error::input(&p("f_max"), "must be above f_min"));
+        }
+        crate::error::non_negative(&p("b_min"), s.b_min, "T")?;
+        check_range(&p("b_max"), s.b_max, 1e-4, 2.5, "T")?;
+        if s.b_max <= s.b_min {
+            return Err(Error::input(&p("b_max"), "must be above b_min"));
+        }
+        self.temp_factor.validate("material.temp_factor")?;
+        crate::error::positive(&f("resistivity"), self.resistivity, "Ω·m")?;
+        check_range(&f("density"), self.density, 1000.0, 20000.0, "kg/m³")?;
+        Ok(())
+    }
+}
+
+fn check_range(field: &str, v: f64, lo: f64, hi: f64, unit: &str) -> Result<f64> {
+    crate::error::in_range(field, v, lo, hi, unit)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn with_minimum_expands_the_square() {
+        // 1 + c(T − T0)² = cT² − 2cT0·T + (1 + cT0²): algebra, no source.
+        let t = TempFactor::with_minimum(90.0, 1.5e-4);
+        for temp in [-20.0, 25.0, 90.0, 140.0] {
+            let direct = 1.0 + 1.5e-4 * (temp - 90.0) * (temp - 90.0);
+            assert!((t.at(temp) - direct).abs() < 1e-12);
+        }
+        assert!((t.reference_temperature().unwrap() - 90.0).abs() < 1e-12);
+        assert!(t.validate("tf").is_ok());
+        assert!(TempFactor::flat().validate("tf").is_ok());
+        assert_eq!(TempFactor::flat().reference_temperature(), None);
+    }
+
+    #[test]
+    fn temp_factor_rejects_unnormalised_and_inverted() {
+        let e = TempFactor { ct2: 1e-4, ct1: 2e-2, ct0: 3.0 }.validate("m.tf").unwrap_err();
+        assert_eq!(e.field(), Some("m.tf.ct0"));
+        let e = TempFactor { ct2: -1e-4, ct1: 0.0, ct0: 1.0 }.validate("m.tf").unwrap_err();
+        assert_eq!(e.field(), Some("m.tf.ct2"));
+        let e = TempFactor { ct2: 0.0, ct1: 0.01, ct0: 1.0 }.validate("m.tf").unwrap_err();
+        assert_eq!(e.field(), Some("m.tf.ct1"));
+        let e = TempFactor { ct2: f64::NAN, ct1: 0.0, ct0: 1.0 }.validate("m.tf").unwrap_err();
+        assert_eq!(e.field(), Some("m.tf.ct2"));
+    }
+
+    #[test]
+    fn validate_names_the_field() {
+        let good = library::find("MnZn-P200").unwrap();
+        assert!(good.validate().is_ok());
+        type Edit = Box<dyn Fn(&mut Material)>;
+        let cases: Vec<(&str, Edit)> = vec![
+            ("material.name", Box::new(|m| m.name = " ".into())),
+            ("material.mu_i", Box::new(|m| m.mu_i = 0.5)),
+            ("material.bsat_25", Box::new(|m| m.bsat_25 = f64::NAN)),
+            ("material.curie_c", Box::new(|m| m.curie_c = 90.0)),
+            ("material.steinmetz.k", Box::new(|m| m.steinmetz.k = 0.0)),
+            ("material.steinmetz.alpha", Box::new(|m| m.steinmetz.alpha = 5.0)),
+            ("material.steinmetz.beta", Box::new(|m| m.steinmetz.beta = 0.2)),
+            ("material.steinmetz.f_max", Box::new(|m| m.steinmetz.f_max = m.steinmetz.f_min)),
+            ("material.steinmetz.b_max", Box::new(|m| m.steinmetz.b_max = 0.0)),
+            ("material.temp_factor.ct0", Box::new(|m| m.temp_factor.ct0 += 1.0)),
+            ("material.resistivity", Box::new(|m| m.resistivity = -1.0)),
+            ("material.density", Box::new(|m| m.density = 10.0)),
+        ];
+        for (field, edit) in cases {
+            let mut m = good.clone();
+            edit(&mut m);
+            let e = m.validate().unwrap_err();
+            assert_eq!(e.field(), Some(field), "{e}");
+            assert!(!e.message().is_empty());
+        }
+    }
+
+    #[test]
+    fn bsat_interpolates_linearly() {
+        let m = library::find("MnZn-P200").unwrap();
+        assert!((m.bsat_at(25.0) - m.bsat_25).abs() < 1e-12);
+        assert!((m.bsat_at(100.0) - m.bsat_100).abs() < 1e-12);
+        assert!((m.bsat_at(62.5) - 0.5 * (m.bsat_25 + m.bsat_100)).abs() < 1e-12);
     }
 }
