@@ -44,7 +44,7 @@ fn time<R>(name: &str, mut f: impl FnMut() -> R) {
 }
 
 fn main() {
-    let m = library::find("MnZn-P200").unwrap();
+    let m = library::find("MnZn-200k").unwrap();
     let c = IgseCoefficients::from_material(&m).unwrap();
     let f = 100e3;
     let t = 1.0 / f;

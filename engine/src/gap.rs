@@ -483,7 +483,7 @@ mod tests {
         // continuous gives B0 = μ0·N·I/(lg + le/μr); with fringing the core
         // carries F times that flux (N·Φ = L′·I).
         let c = core();
-        let m = library::find("MnZn-P200").unwrap();
+        let m = library::find("MnZn-200k").unwrap();
         let (n, lg, i) = (25.0, 0.8e-3, 3.0);
         let r = evaluate(&c, &m, n, lg, GapPlacement::CentreLeg, i, 100.0, 0.2).unwrap();
         let b0 = MU_0 * n * i / (lg + c.le / m.mu_i);

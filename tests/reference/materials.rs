@@ -53,10 +53,10 @@ fn cos_integral_against_scipy_gamma() {
 #[test]
 fn ki_against_scipy_quad() {
     for (name, ki_scipy) in [
-        ("MnZn-P200", 0.6367959498433341),
-        ("MnZn-P500", 0.00522859801577472),
-        ("MnZn-P1M", 5.731591682507563e-05),
-        ("NiZn-N5", 0.013639843460216107),
+        ("MnZn-200k", 0.6367959498433341),
+        ("MnZn-500k", 0.00522859801577472),
+        ("MnZn-1M", 5.731591682507563e-05),
+        ("NiZn-5M", 0.013639843460216107),
     ] {
         let m = library::find(name).unwrap();
         let ki = loss::ki(&m.steinmetz).unwrap();
@@ -94,7 +94,7 @@ fn igse_of_sinusoid_equals_steinmetz_for_every_grade() {
 /// (Venkatachalam et al. 2002, from memory), ki from the scipy table.
 #[test]
 fn igse_triangle_equals_closed_form() {
-    let m = library::find("MnZn-P500").unwrap();
+    let m = library::find("MnZn-500k").unwrap();
     let (a, b) = (m.steinmetz.alpha, m.steinmetz.beta);
     let ki = 0.00522859801577472; // scipy, above
     let c = IgseCoefficients::from_material(&m).unwrap();
@@ -137,7 +137,7 @@ fn fit_recovers_generating_coefficients() {
     assert!((r.temp_factor.ct1 / want.ct1 - 1.0).abs() < 1e-6);
     assert!((r.temp_factor.ct0 / want.ct0 - 1.0).abs() < 1e-6);
     assert!(r.max_error_pct < 1e-6);
-    let m = r.apply_to(&library::find("MnZn-P500").unwrap()).unwrap();
+    let m = r.apply_to(&library::find("MnZn-500k").unwrap()).unwrap();
     assert_eq!(m.temp_factor, r.temp_factor);
 }
 
@@ -198,7 +198,7 @@ fn fringing_and_gap_solve_against_scipy() {
 #[test]
 fn energy_and_peak_flux() {
     let c = test_core();
-    let m = library::find("MnZn-B50").unwrap();
+    let m = library::find("MnZn-hiBsat").unwrap();
     let (n, lg, i) = (30.0, 0.6e-3, 2.5);
     let r = gap::evaluate(&c, &m, n, lg, GapPlacement::CentreLeg, i, 100.0, 0.15).unwrap();
     let f = 1.0 + lg / c.ae.sqrt() * (2.0 * c.window_height / lg).ln();

@@ -68,7 +68,7 @@ impl ForwardSpec {
             duty_max: 0.45,
             b_max: 0.15,
             core: "ETD 29".into(),
-            material: "MnZn-P200".into(),
+            material: "MnZn-200k".into(),
             awg_primary: 22,
             awg_secondary: 18,
             temperature: 100.0,

@@ -240,7 +240,7 @@ mod tests {
 
     #[test]
     fn watts_and_temperature_factor() {
-        let m = library::find("MnZn-P200").unwrap();
+        let m = library::find("MnZn-200k").unwrap();
         let w = triangle(100e3, -0.1, 0.1, 0.5);
         let ve = 5.0e-6;
         let c = IgseCoefficients::from_material(&m).unwrap();
@@ -260,7 +260,7 @@ mod tests {
 
     #[test]
     fn warnings_are_returned() {
-        let m = library::find("MnZn-P200").unwrap();
+        let m = library::find("MnZn-200k").unwrap();
         let has = |r: &CoreLoss, pred: fn(&LossWarning) -> bool| r.warnings.iter().any(pred);
         // 1 MHz: outside 20–300 kHz.
         let r = core_loss(&m, &triangle(1e6, -0.05, 0.05, 0.5), 100.0, 1e-6).unwrap();

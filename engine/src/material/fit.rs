@@ -302,7 +302,7 @@ mod tests {
         assert!((r.temp_factor.ct0 / want.ct0 - 1.0).abs() < 1e-6);
         assert!(r.max_error_pct < 1e-6 && r.rms_error_pct <= r.max_error_pct);
         assert_eq!((s.f_min, s.f_max, s.b_min, s.b_max), (50e3, 200e3, 0.05, 0.2));
-        let m = r.apply_to(&super::super::library::find("MnZn-P200").unwrap()).unwrap();
+        let m = r.apply_to(&super::super::library::find("MnZn-200k").unwrap()).unwrap();
         assert_eq!(m.steinmetz.alpha, s.alpha);
     }
 

@@ -22,7 +22,7 @@ const PROVENANCE: &str = "typical, from memory; use your supplier's data";
 pub fn materials() -> Vec<Material> {
     vec![
         Material {
-            name: "MnZn-P200".into(),
+            name: "MnZn-200k".into(),
             description: "MnZn power ferrite for 25–200 kHz, loss minimum near 100 °C".into(),
             mu_i: 2300.0,
             bsat_25: 0.49,
@@ -37,7 +37,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "MnZn-P200W".into(),
+            name: "MnZn-200k-flat".into(),
             description: "MnZn power ferrite for 25–200 kHz with a flat loss curve from about 25 to 120 °C".into(),
             mu_i: 2400.0,
             bsat_25: 0.50,
@@ -51,7 +51,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "MnZn-P500".into(),
+            name: "MnZn-500k".into(),
             description: "MnZn power ferrite for 200–500 kHz, loss minimum near 90 °C".into(),
             mu_i: 1500.0,
             bsat_25: 0.48,
@@ -65,7 +65,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "MnZn-P1M".into(),
+            name: "MnZn-1M".into(),
             description: "MnZn power ferrite for 0.5–1 MHz, low flux swings, loss minimum near 80 °C".into(),
             mu_i: 900.0,
             bsat_25: 0.45,
@@ -79,7 +79,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "MnZn-H10".into(),
+            name: "MnZn-hiperm".into(),
             description: "High-permeability MnZn ferrite (μi ≈ 10 000) for common-mode chokes and signal transformers, 10–100 kHz; low Curie point".into(),
             mu_i: 10000.0,
             bsat_25: 0.43,
@@ -93,7 +93,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "MnZn-B50".into(),
+            name: "MnZn-hiBsat".into(),
             description: "High-saturation MnZn power ferrite for chokes and hot transformers, 25–200 kHz, loss minimum near 100 °C".into(),
             mu_i: 2000.0,
             bsat_25: 0.53,
@@ -107,7 +107,7 @@ pub fn materials() -> Vec<Material> {
             provenance: PROVENANCE.into(),
         },
         Material {
-            name: "NiZn-N5".into(),
+            name: "NiZn-5M".into(),
             description: "NiZn ferrite for 1–10 MHz (μi ≈ 125), very high resistivity, small flux swings".into(),
             mu_i: 125.0,
             bsat_25: 0.35,
@@ -161,7 +161,7 @@ mod tests {
         }
         let e = find("no-such").unwrap_err();
         assert_eq!(e.field(), Some("material"));
-        assert!(e.message().contains("MnZn-P200"));
+        assert!(e.message().contains("MnZn-200k"));
     }
 
     /// The anchor losses in the comments above (the k values were derived
@@ -169,13 +169,13 @@ mod tests {
     #[test]
     fn anchor_losses_match_the_comments() {
         let anchors = [
-            ("MnZn-P200", 100e3, 0.1, 79e3),
-            ("MnZn-P200W", 100e3, 0.1, 100e3),
-            ("MnZn-P500", 300e3, 0.05, 100e3),
-            ("MnZn-P1M", 1e6, 0.03, 250e3),
-            ("MnZn-H10", 25e3, 0.1, 150e3),
-            ("MnZn-B50", 100e3, 0.1, 100e3),
-            ("NiZn-N5", 5e6, 0.01, 300e3),
+            ("MnZn-200k", 100e3, 0.1, 79e3),
+            ("MnZn-200k-flat", 100e3, 0.1, 100e3),
+            ("MnZn-500k", 300e3, 0.05, 100e3),
+            ("MnZn-1M", 1e6, 0.03, 250e3),
+            ("MnZn-hiperm", 25e3, 0.1, 150e3),
+            ("MnZn-hiBsat", 100e3, 0.1, 100e3),
+            ("NiZn-5M", 5e6, 0.01, 300e3),
         ];
         for (name, f, b, pv) in anchors {
             let s = find(name).unwrap().steinmetz;

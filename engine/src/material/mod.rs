@@ -253,7 +253,7 @@ mod tests {
 
     #[test]
     fn validate_names_the_field() {
-        let good = library::find("MnZn-P200").unwrap();
+        let good = library::find("MnZn-200k").unwrap();
         assert!(good.validate().is_ok());
         type Edit = Box<dyn Fn(&mut Material)>;
         let cases: Vec<(&str, Edit)> = vec![
@@ -281,7 +281,7 @@ mod tests {
 
     #[test]
     fn bsat_interpolates_linearly() {
-        let m = library::find("MnZn-P200").unwrap();
+        let m = library::find("MnZn-200k").unwrap();
         assert!((m.bsat_at(25.0) - m.bsat_25).abs() < 1e-12);
         assert!((m.bsat_at(100.0) - m.bsat_100).abs() < 1e-12);
         assert!((m.bsat_at(62.5) - 0.5 * (m.bsat_25 + m.bsat_100)).abs() < 1e-12);
