@@ -15,6 +15,8 @@
 //!   secondary carries Iout for the on-time, I_s,rms = Iout·√D; the
 //!   primary carries Iout·Ns/Np, I_p,rms = Iout·(Ns/Np)·√D. Worst copper
 //!   loss is at Vin min (largest D).
+//! * Core loss: iGSE (Venkatachalam et al. 2002) on the B(t) above, at the
+//!   worse of the two line corners, times the material's temperature factor.
 
 use crate::core::{library as cores, Core};
 use crate::error::{in_range, positive, Error, Result};
@@ -186,9 +188,24 @@ pub fn design(spec: &ForwardSpec) -> Result<ForwardReport> {
     let b_peak = delta_b;
     let b_sat = material.bsat_at(temp);
 
-    // Steinmetz with the peak of the swing's AC part, ΔB/2 (sinusoid assumption, first cut).
-    let pv = loss::steinmetz(&material.steinmetz, f, delta_b / 2.0)? * material.temp_factor.at(temp);
-    let core_loss = pv * core.ve;
+    let mut warnings: Vec<String> = Vec::new();
+    let flux = |d: f64| -> Result<Pwl> {
+        let t = 1.0 / f;
+        Pwl::from_segments(0.0, &[(d * t, delta_b), (d * t, 0.0), ((1.0 - 2.0 * d) * t, 0.0)])
+    };
+    let flux_at_vin_min = flux(d_hi)?;
+    let flux_at_vin_max = flux(d_lo)?;
+
+    // iGSE on the real B(t) (Venkatachalam et al. 2002); the larger of the
+    // two line corners (Vin max has the faster edges).
+    let loss_min = loss::core_loss(&material, &flux_at_vin_min, temp, core.ve)?;
+    let loss_max = loss::core_loss(&material, &flux_at_vin_max, temp, core.ve)?;
+    let worst_loss = if loss_max.watts >= loss_min.watts { loss_max } else { loss_min };
+    let pv = worst_loss.pv;
+    let core_loss = worst_loss.watts;
+    for w in &worst_loss.warnings {
+        warnings.push(w.message());
+    }
 
     let i_s = iout * d_hi.sqrt();
     let i_p = iout / n * d_hi.sqrt();
@@ -202,7 +219,6 @@ pub fn design(spec: &ForwardSpec) -> Result<ForwardReport> {
     let copper = p_cu_p + p_cu_s;
     let fill = (np as f64 * a_p + ns as f64 * a_s) / core.window_area;
 
-    let mut warnings = Vec::new();
     if b_peak > b_sat {
         warnings.push(format!(
             "Bpk {:.0} mT exceeds Bsat {:.0} mT at {temp} °C: the core saturates",
@@ -210,25 +226,9 @@ pub fn design(spec: &ForwardSpec) -> Result<ForwardReport> {
             b_sat * 1e3
         ));
     }
-    let st = &material.steinmetz;
-    if f < st.f_min || f > st.f_max {
-        warnings.push(format!(
-            "{:.0} kHz is outside the material's fitted range ({:.0}–{:.0} kHz): core loss is extrapolated",
-            f / 1e3,
-            st.f_min / 1e3,
-            st.f_max / 1e3
-        ));
-    }
     if fill > 0.4 {
         warnings.push(format!("copper fills {:.0} % of the window; above about 40 % a bobbin winding rarely fits", fill * 100.0));
     }
-
-    let flux = |d: f64| -> Result<Pwl> {
-        let t = 1.0 / f;
-        Pwl::from_segments(0.0, &[(d * t, delta_b), (d * t, 0.0), ((1.0 - 2.0 * d) * t, 0.0)])
-    };
-    let flux_at_vin_min = flux(d_hi)?;
-    let flux_at_vin_max = flux(d_lo)?;
 
     let output_power = vout * iout;
     Ok(ForwardReport {
