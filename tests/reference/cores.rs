@@ -482,3 +482,31 @@ fn core_json_round_trip() {
         assert!(rel(x, y) < 1e-12);
     }
 }
+
+/// The bobbin rule (common practice, no source: flanges 0.055 × window
+/// height, wall 0.15 × window width, clamped) against a typical ETD 34
+/// bobbin, breadth ≈ 20.9 mm and height ≈ 6.3 mm (from memory, 10 %); and
+/// the mass at 4800 kg/m³ against a typical ETD 34 set of ≈ 40 g (from
+/// memory, 15 %).
+#[test]
+fn etd34_bobbin_and_mass_near_typical() {
+    let c = library::find("ETD 34").unwrap();
+    assert!(
+        rel(c.winding_breadth * 1e3, 20.9) < 0.10,
+        "{}",
+        c.winding_breadth
+    );
+    assert!(
+        rel(c.winding_height * 1e3, 6.3) < 0.10,
+        "{}",
+        c.winding_height
+    );
+    assert!(rel(c.mass * 1e3, 40.0) < 0.15, "{}", c.mass);
+    // MLT grows by 2π per metre of build (core::Core::turn_length_at).
+    assert!(
+        rel(
+            c.turn_length_at(1e-3) - c.turn_length_at(0.0),
+            2.0 * PI * 1e-3
+        ) < 1e-12
+    );
+}

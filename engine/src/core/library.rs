@@ -351,8 +351,7 @@ pub fn families() -> Vec<&'static str> {
 /// The built-in cores of one family (case and spaces ignored), smallest
 /// first as in the table. Unknown family: an error naming `family`.
 pub fn by_family(family: &str) -> Result<Vec<Core>> {
-    let key = normalise(family);
-    if !FAMILIES.iter().any(|f| normalise(f) == key) {
+    if !FAMILIES.iter().any(|f| same_key(f, family)) {
         return Err(Error::unknown(
             "family",
             format!("no family \"{family}\"; known: {}", FAMILIES.join(", ")),
@@ -360,7 +359,7 @@ pub fn by_family(family: &str) -> Result<Vec<Core>> {
     }
     Ok(all()
         .iter()
-        .filter(|c| normalise(&c.family) == key)
+        .filter(|c| same_key(&c.family, family))
         .cloned()
         .collect())
 }
@@ -368,17 +367,37 @@ pub fn by_family(family: &str) -> Result<Vec<Core>> {
 /// Looks a core up by designation (spaces and case ignored; the EF aliases
 /// accepted).
 pub fn find(designation: &str) -> Result<Core> {
-    let mut key = normalise(designation);
-    if let Some((_, to)) = ALIASES.iter().find(|(from, _)| normalise(from) == key) {
-        key = normalise(to);
-    }
+    let key = ALIASES
+        .iter()
+        .find(|(from, _)| same_key(from, designation))
+        .map_or(designation, |(_, to)| to);
     all()
         .iter()
-        .find(|c| normalise(&c.designation) == key)
+        .find(|c| same_key(&c.designation, key))
         .cloned()
         .ok_or_else(|| Error::unknown("core", format!("no core \"{designation}\" in the library")))
 }
 
+/// `normalise(a) == normalise(b)`, without allocating.
+fn same_key(a: &str, b: &str) -> bool {
+    let mut x = a
+        .chars()
+        .filter(|c| !c.is_whitespace())
+        .flat_map(char::to_uppercase);
+    let mut y = b
+        .chars()
+        .filter(|c| !c.is_whitespace())
+        .flat_map(char::to_uppercase);
+    loop {
+        match (x.next(), y.next()) {
+            (None, None) => return true,
+            (p, q) if p == q => {}
+            _ => return false,
+        }
+    }
+}
+
+#[cfg(test)]
 fn normalise(s: &str) -> String {
     s.chars()
         .filter(|c| !c.is_whitespace())

@@ -56,7 +56,8 @@ pub struct Core {
     pub surface_area: f64,
     /// Where the numbers come from.
     pub provenance: String,
-    /// Volume of ferrite in the set, m³ (not Ve: the physical volume).
+    /// Volume of ferrite in the set, m³ (the physical volume, not Ve).
+    /// Zero when read from an older file that lacks it.
     #[serde(default)]
     pub volume: f64,
     /// Mass of the set, kg (volume × a typical density unless given).
@@ -99,7 +100,8 @@ pub struct Effective {
     pub turn_length_inner: f64,
     /// Outer surface of the set, m².
     pub surface_area: f64,
-    /// Mass, kg; if absent, Ve × [`FERRITE_DENSITY`].
+    /// Mass, kg; if absent, Ve × [`FERRITE_DENSITY`]. The core's physical
+    /// `volume` is then taken as mass / [`FERRITE_DENSITY`].
     #[serde(default)]
     pub mass: Option<f64>,
 }

@@ -384,7 +384,13 @@ fn bobbin(hw: f64, ww: f64) -> (f64, f64, f64) {
 
 /// Named-field check helpers: errors say `shape.<field>`.
 fn pos(field: &str, v: f64) -> Result<f64> {
-    positive(&format!("shape.{field}"), v, "m")
+    // Check first: the field name is only formatted on error (no allocation
+    // on the good path).
+    if v.is_finite() && v > 0.0 {
+        Ok(v)
+    } else {
+        positive(&format!("shape.{field}"), v, "m")
+    }
 }
 
 fn less(small: (&str, f64), big: (&str, f64), what: &str) -> Result<()> {
