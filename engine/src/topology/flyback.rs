@@ -44,14 +44,30 @@ pub(crate) fn state(vin: f64, vor: f64, lp: f64, p_in: f64, f: f64) -> State {
     let ic = p_in / (vin * d_ccm);
     let half = 0.5 * di;
     if ic >= half * (1.0 - 1e-9) {
-        let mode = if (ic - half).abs() <= 1e-9 * ic { Mode::Boundary } else { Mode::Ccm };
+        let mode = if (ic - half).abs() <= 1e-9 * ic {
+            Mode::Boundary
+        } else {
+            Mode::Ccm
+        };
         let i_min = (ic - half).max(0.0);
-        return State { mode, d: d_ccm, d2: 1.0 - d_ccm, i_min, i_pk: ic + half };
+        return State {
+            mode,
+            d: d_ccm,
+            d2: 1.0 - d_ccm,
+            i_min,
+            i_pk: ic + half,
+        };
     }
     let i_pk = (2.0 * p_in / (lp * f)).sqrt();
     let d = lp * i_pk * f / vin;
     let d2 = (lp * i_pk * f / vor).min(1.0 - d);
-    State { mode: Mode::Dcm, d, d2, i_min: 0.0, i_pk }
+    State {
+        mode: Mode::Dcm,
+        d,
+        d2,
+        i_min: 0.0,
+        i_pk,
+    }
 }
 
 pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
@@ -84,22 +100,51 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let flux_k = lp / (np * ctx.ae);
     let flux = Pwl::new(t, im_pts.iter().map(|&(x, i)| (x, i * flux_k)).collect())?;
 
-    let primary_i = Pwl::new(t, vec![(0.0, s.i_min), (t_on, s.i_pk), (t_on, 0.0), (t, 0.0)])?;
+    let primary_i = Pwl::new(
+        t,
+        vec![(0.0, s.i_min), (t_on, s.i_pk), (t_on, 0.0), (t, 0.0)],
+    )?;
     // Primary induced voltage: +Vin on, −Vor demagnetising, 0 idle (DCM).
     let vp = match s.mode {
-        Mode::Dcm => vec![(0.0, vin), (t_on, vin), (t_on, -vor), (t_on + t_off, -vor), (t_on + t_off, 0.0), (t, 0.0)],
+        Mode::Dcm => vec![
+            (0.0, vin),
+            (t_on, vin),
+            (t_on, -vor),
+            (t_on + t_off, -vor),
+            (t_on + t_off, 0.0),
+            (t, 0.0),
+        ],
         Mode::Ccm | Mode::Boundary => vec![(0.0, vin), (t_on, vin), (t_on, -vor), (t, -vor)],
     };
     let vp = Pwl::new(t, vp)?;
 
-    let v_rect: Vec<f64> = ctx.turns.secondaries.iter().map(|&n| vor * n as f64 / np).collect();
+    let v_rect: Vec<f64> = ctx
+        .turns
+        .secondaries
+        .iter()
+        .map(|&n| vor * n as f64 / np)
+        .collect();
     let output_v = output_voltages(ctx, &v_rect, &mut warnings);
-    let p_sec: f64 = spec.outputs.iter().zip(&v_rect).map(|(o, v)| v * o.current).sum();
+    let p_sec: f64 = spec
+        .outputs
+        .iter()
+        .zip(&v_rect)
+        .map(|(o, v)| v * o.current)
+        .sum();
 
     let mut windings = Vec::with_capacity(1 + spec.outputs.len());
-    windings.push(WindingWave::new("primary".into(), ctx.turns.primary, primary_i.clone(), vp.clone()));
+    windings.push(WindingWave::new(
+        "primary".into(),
+        ctx.turns.primary,
+        primary_i.clone(),
+        vp.clone(),
+    ));
     for (k, (o, &nk)) in spec.outputs.iter().zip(&ctx.turns.secondaries).enumerate() {
-        let a = if mean_off > 0.0 { o.current / mean_off } else { 0.0 };
+        let a = if mean_off > 0.0 {
+            o.current / mean_off
+        } else {
+            0.0
+        };
         // CCM ends at t with a·Imin (a step to zero at the period
         // boundary); DCM falls to zero at t_on + t2 and idles.
         let mut pts = vec![(0.0, 0.0), (t_on, 0.0), (t_on, a * s.i_pk)];
@@ -108,7 +153,12 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
             Mode::Ccm | Mode::Boundary => pts.push((t, a * s.i_min)),
         }
         let cur = Pwl::new(t, pts)?;
-        windings.push(WindingWave::new(format!("secondary {}", k + 1), nk, cur, vp.scaled(nk as f64 / np)));
+        windings.push(WindingWave::new(
+            format!("secondary {}", k + 1),
+            nk,
+            cur,
+            vp.scaled(nk as f64 / np),
+        ));
     }
 
     if p_sec > ctx.p_in {

@@ -68,7 +68,8 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         ));
     }
     let mut warnings = vec![
-        "switch voltage is the flat-top clamp value; the leakage-inductance spike is not modelled".to_string(),
+        "switch voltage is the flat-top clamp value; the leakage-inductance spike is not modelled"
+            .to_string(),
     ];
     if spec.duty_max > d_lim + 1e-12 {
         warnings.push(format!(
@@ -78,7 +79,10 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     }
     let mut warnings_tail = Vec::new();
     if two_switch && ctx.turns.reset.is_some() {
-        warnings_tail.push("the two-switch forward resets through its clamp diodes; turns.reset is ignored".to_string());
+        warnings_tail.push(
+            "the two-switch forward resets through its clamp diodes; turns.reset is ignored"
+                .to_string(),
+        );
     }
 
     let t_on = d * t;
@@ -87,7 +91,9 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let im = match ctx.lp {
         Some(lm) => vin * t_on / lm,
         None => {
-            warnings.push("no magnetising inductance given: the magnetising current is neglected".to_string());
+            warnings.push(
+                "no magnetising inductance given: the magnetising current is neglected".to_string(),
+            );
             0.0
         }
     };
@@ -95,15 +101,35 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     // Choke ripple, sized at Vin max.
     let d_at_max = v1 * np / (n1 * ctx.dc.max);
     let scale = ripple_scale(1.0 - d, 1.0 - d_at_max);
-    let v_rect: Vec<f64> = ctx.turns.secondaries.iter().map(|&n| d * vin * n as f64 / np).collect();
+    let v_rect: Vec<f64> = ctx
+        .turns
+        .secondaries
+        .iter()
+        .map(|&n| d * vin * n as f64 / np)
+        .collect();
     let output_v = output_voltages(ctx, &v_rect, &mut warnings);
-    let p_sec: f64 = spec.outputs.iter().zip(&v_rect).map(|(o, v)| v * o.current).sum();
+    let p_sec: f64 = spec
+        .outputs
+        .iter()
+        .zip(&v_rect)
+        .map(|(o, v)| v * o.current)
+        .sum();
     let k_p = ctx.p_in / p_sec;
 
     let mut windings = Vec::with_capacity(2 + spec.outputs.len());
     // Primary voltage: +Vin on, −Vin·Np/Nr reset, 0 after.
     let v_reset = -vin / reset_ratio;
-    let vp = Pwl::new(t, vec![(0.0, vin), (t_on, vin), (t_on, v_reset), (t_on + t_r, v_reset), (t_on + t_r, 0.0), (t, 0.0)])?;
+    let vp = Pwl::new(
+        t,
+        vec![
+            (0.0, vin),
+            (t_on, vin),
+            (t_on, v_reset),
+            (t_on + t_r, v_reset),
+            (t_on + t_r, 0.0),
+            (t, 0.0),
+        ],
+    )?;
     // Load current referred to the primary, at the start and end of the on-time.
     let (mut ip0, mut ip1) = (0.0, 0.0);
     let mut secs = Vec::with_capacity(spec.outputs.len());
@@ -113,7 +139,12 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         ip0 += k_p * nk as f64 / np * a;
         ip1 += k_p * nk as f64 / np * b;
         let cur = Pwl::new(t, vec![(0.0, a), (t_on, b), (t_on, 0.0), (t, 0.0)])?;
-        secs.push(WindingWave::new(format!("secondary {}", k + 1), nk, cur, vp.scaled(nk as f64 / np)));
+        secs.push(WindingWave::new(
+            format!("secondary {}", k + 1),
+            nk,
+            cur,
+            vp.scaled(nk as f64 / np),
+        ));
     }
     if scale > 1.0 + 1e-9 {
         warnings_tail.push(format!(
@@ -123,13 +154,40 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     }
     let ip1m = ip1 + im;
     let (primary_i, input_i) = if two_switch {
-        let p = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1m), (t_on, im), (t_on + t_r, 0.0), (t, 0.0)])?;
-        let i = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1m), (t_on, -im), (t_on + t_r, 0.0), (t, 0.0)])?;
+        let p = Pwl::new(
+            t,
+            vec![
+                (0.0, ip0),
+                (t_on, ip1m),
+                (t_on, im),
+                (t_on + t_r, 0.0),
+                (t, 0.0),
+            ],
+        )?;
+        let i = Pwl::new(
+            t,
+            vec![
+                (0.0, ip0),
+                (t_on, ip1m),
+                (t_on, -im),
+                (t_on + t_r, 0.0),
+                (t, 0.0),
+            ],
+        )?;
         (p, i)
     } else {
         let p = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1m), (t_on, 0.0), (t, 0.0)])?;
         let ir = im / reset_ratio;
-        let i = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1m), (t_on, -ir), (t_on + t_r, 0.0), (t, 0.0)])?;
+        let i = Pwl::new(
+            t,
+            vec![
+                (0.0, ip0),
+                (t_on, ip1m),
+                (t_on, -ir),
+                (t_on + t_r, 0.0),
+                (t, 0.0),
+            ],
+        )?;
         (p, i)
     };
     // Each switch carries the primary during the on-time only (the
@@ -137,14 +195,36 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let switch_i = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1m), (t_on, 0.0), (t, 0.0)])?;
     let switch_rms = switch_i.rms();
     let switch_peak = switch_i.peak_abs();
-    windings.push(WindingWave::new("primary".into(), ctx.turns.primary, primary_i, vp.clone()));
+    windings.push(WindingWave::new(
+        "primary".into(),
+        ctx.turns.primary,
+        primary_i,
+        vp.clone(),
+    ));
     windings.extend(secs);
     if !two_switch {
         let ir = im / reset_ratio;
-        let cur = Pwl::new(t, vec![(0.0, 0.0), (t_on, 0.0), (t_on, ir), (t_on + t_r, 0.0), (t, 0.0)])?;
-        windings.push(WindingWave::new("reset".into(), nr, cur, vp.scaled(reset_ratio)));
+        let cur = Pwl::new(
+            t,
+            vec![
+                (0.0, 0.0),
+                (t_on, 0.0),
+                (t_on, ir),
+                (t_on + t_r, 0.0),
+                (t, 0.0),
+            ],
+        )?;
+        windings.push(WindingWave::new(
+            "reset".into(),
+            nr,
+            cur,
+            vp.scaled(reset_ratio),
+        ));
     }
-    let flux = Pwl::new(t, vec![(0.0, 0.0), (t_on, delta_b), (t_on + t_r, 0.0), (t, 0.0)])?;
+    let flux = Pwl::new(
+        t,
+        vec![(0.0, 0.0), (t_on, delta_b), (t_on + t_r, 0.0), (t, 0.0)],
+    )?;
     warnings.extend(warnings_tail);
     Ok(OperatingPoint {
         topology: spec.topology,
@@ -158,7 +238,11 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         b_peak: delta_b,
         flux,
         volt_seconds: vin * t_on,
-        switch_voltage: if two_switch { vin } else { vin * (1.0 + 1.0 / reset_ratio) },
+        switch_voltage: if two_switch {
+            vin
+        } else {
+            vin * (1.0 + 1.0 / reset_ratio)
+        },
         switch_peak_current: switch_peak,
         switch_rms_current: switch_rms,
         magnetising_peak: im,

@@ -62,7 +62,9 @@ mod push_pull;
 pub mod sizing;
 pub mod spec;
 
-pub use spec::{Bulk, DcRange, FlybackOptions, FlybackRatio, Input, Isolation, Output, Spec, Topology};
+pub use spec::{
+    Bulk, DcRange, FlybackOptions, FlybackRatio, Input, Isolation, Output, Spec, Topology,
+};
 
 use crate::error::{in_range, positive, Error, Result};
 use crate::waveform::Pwl;
@@ -114,7 +116,15 @@ impl WindingWave {
         let rms = current.rms();
         let peak = current.peak_abs();
         let mean = current.mean();
-        WindingWave { name, turns, current, voltage, rms, peak, mean }
+        WindingWave {
+            name,
+            turns,
+            current,
+            voltage,
+            rms,
+            peak,
+            mean,
+        }
     }
 }
 
@@ -209,25 +219,41 @@ pub(crate) struct Ctx<'a> {
 
 fn check_turns(spec: &Spec, turns: &Turns) -> Result<()> {
     if turns.primary == 0 || turns.primary > MAX_TURNS {
-        return Err(Error::input("turns.primary", format!("must be 1 to {MAX_TURNS} turns")));
+        return Err(Error::input(
+            "turns.primary",
+            format!("must be 1 to {MAX_TURNS} turns"),
+        ));
     }
     if turns.secondaries.len() != spec.outputs.len() {
         return Err(Error::input(
             "turns.secondaries",
-            format!("give one turn count per output ({} outputs, {} counts)", spec.outputs.len(), turns.secondaries.len()),
+            format!(
+                "give one turn count per output ({} outputs, {} counts)",
+                spec.outputs.len(),
+                turns.secondaries.len()
+            ),
         ));
     }
     for (i, &n) in turns.secondaries.iter().enumerate() {
         if n == 0 || n > MAX_TURNS {
-            return Err(Error::input(&format!("turns.secondaries[{i}]"), format!("must be 1 to {MAX_TURNS} turns")));
+            return Err(Error::input(
+                &format!("turns.secondaries[{i}]"),
+                format!("must be 1 to {MAX_TURNS} turns"),
+            ));
         }
     }
     match (spec.topology, turns.reset) {
         (Topology::Forward, None) => {
-            return Err(Error::input("turns.reset", "the single-switch forward needs a reset winding"))
+            return Err(Error::input(
+                "turns.reset",
+                "the single-switch forward needs a reset winding",
+            ))
         }
         (Topology::Forward, Some(n)) if n == 0 || n > MAX_TURNS => {
-            return Err(Error::input("turns.reset", format!("must be 1 to {MAX_TURNS} turns")))
+            return Err(Error::input(
+                "turns.reset",
+                format!("must be 1 to {MAX_TURNS} turns"),
+            ))
         }
         _ => {}
     }
@@ -245,13 +271,24 @@ fn context<'a>(spec: &'a Spec, turns: &'a Turns, lp_h: Option<f64>, ae_m2: f64) 
             Some(in_range("lp", l, 1e-9, 100.0, "H")?)
         }
         None if spec.topology == Topology::Flyback => {
-            return Err(Error::input("lp", "the flyback needs its primary inductance Lp"))
+            return Err(Error::input(
+                "lp",
+                "the flyback needs its primary inductance Lp",
+            ))
         }
         None => None,
     };
     let dc = spec.dc_range()?;
     let p_out = spec.output_power();
-    Ok(Ctx { spec, dc, turns, lp, ae, p_in: p_out / spec.efficiency, p_out })
+    Ok(Ctx {
+        spec,
+        dc,
+        turns,
+        lp,
+        ae,
+        p_in: p_out / spec.efficiency,
+        p_out,
+    })
 }
 
 fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
@@ -270,12 +307,25 @@ fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         ));
     }
     // Nothing non-finite may leave the engine.
-    let finite = [op.duty, op.delta_b, op.b_peak, op.switch_voltage, op.switch_peak_current, op.switch_rms_current]
-        .iter()
-        .all(|v| v.is_finite())
-        && op.windings.iter().all(|w| w.rms.is_finite() && w.peak.is_finite());
+    let finite = [
+        op.duty,
+        op.delta_b,
+        op.b_peak,
+        op.switch_voltage,
+        op.switch_peak_current,
+        op.switch_rms_current,
+    ]
+    .iter()
+    .all(|v| v.is_finite())
+        && op
+            .windings
+            .iter()
+            .all(|w| w.rms.is_finite() && w.peak.is_finite());
     if !finite {
-        return Err(Error::infeasible(None, "the operating point is degenerate for these inputs"));
+        return Err(Error::infeasible(
+            None,
+            "the operating point is degenerate for these inputs",
+        ));
     }
     Ok(op)
 }
@@ -288,7 +338,13 @@ fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
 /// Errors: any bad spec field; `turns.*`; `lp`; `ae`; `vin`;
 /// `outputs[0].voltage` when these turns cannot reach the output within
 /// `duty_max` at this `vin`; `turns.reset` when the core cannot reset.
-pub fn operating_point(spec: &Spec, turns: &Turns, lp_h: Option<f64>, ae_m2: f64, vin: f64) -> Result<OperatingPoint> {
+pub fn operating_point(
+    spec: &Spec,
+    turns: &Turns,
+    lp_h: Option<f64>,
+    ae_m2: f64,
+    vin: f64,
+) -> Result<OperatingPoint> {
     let ctx = context(spec, turns, lp_h, ae_m2)?;
     at(&ctx, vin)
 }
@@ -301,22 +357,52 @@ pub fn worst_case(spec: &Spec, turns: &Turns, lp_h: Option<f64>, ae_m2: f64) -> 
     let hi = at(&ctx, ctx.dc.max)?;
     let mut worst = Vec::with_capacity(8 + 2 * lo.windings.len());
     let mut push = |q: String, a: f64, b: f64| {
-        let (value, corner, other) = if a >= b { (a, Corner::VinMin, b) } else { (b, Corner::VinMax, a) };
-        worst.push(Worst { quantity: q, value, corner, other });
+        let (value, corner, other) = if a >= b {
+            (a, Corner::VinMin, b)
+        } else {
+            (b, Corner::VinMax, a)
+        };
+        worst.push(Worst {
+            quantity: q,
+            value,
+            corner,
+            other,
+        });
     };
     push("duty".into(), lo.duty, hi.duty);
     push("b_peak".into(), lo.b_peak, hi.b_peak);
     push("delta_b".into(), lo.delta_b, hi.delta_b);
     push("volt_seconds".into(), lo.volt_seconds, hi.volt_seconds);
-    push("switch_voltage".into(), lo.switch_voltage, hi.switch_voltage);
-    push("switch_peak_current".into(), lo.switch_peak_current, hi.switch_peak_current);
-    push("switch_rms_current".into(), lo.switch_rms_current, hi.switch_rms_current);
-    push("magnetising_peak".into(), lo.magnetising_peak, hi.magnetising_peak);
+    push(
+        "switch_voltage".into(),
+        lo.switch_voltage,
+        hi.switch_voltage,
+    );
+    push(
+        "switch_peak_current".into(),
+        lo.switch_peak_current,
+        hi.switch_peak_current,
+    );
+    push(
+        "switch_rms_current".into(),
+        lo.switch_rms_current,
+        hi.switch_rms_current,
+    );
+    push(
+        "magnetising_peak".into(),
+        lo.magnetising_peak,
+        hi.magnetising_peak,
+    );
     for (a, b) in lo.windings.iter().zip(&hi.windings) {
         push(format!("{}.rms", a.name), a.rms, b.rms);
         push(format!("{}.peak", a.name), a.peak, b.peak);
     }
-    Ok(WorstCase { dc: ctx.dc, at_vin_min: lo, at_vin_max: hi, worst })
+    Ok(WorstCase {
+        dc: ctx.dc,
+        at_vin_min: lo,
+        at_vin_max: hi,
+        worst,
+    })
 }
 
 /// Per-output bookkeeping shared by the models: the actual output voltage
@@ -360,7 +446,11 @@ mod tests {
     use super::*;
 
     fn fwd_turns() -> Turns {
-        Turns { primary: 12, secondaries: vec![10], reset: Some(12) }
+        Turns {
+            primary: 12,
+            secondaries: vec![10],
+            reset: Some(12),
+        }
     }
 
     #[test]
@@ -371,7 +461,10 @@ mod tests {
         assert_eq!(wc.get("duty").unwrap().corner, Corner::VinMin);
         assert_eq!(wc.get("primary.rms").unwrap().corner, Corner::VinMin);
         assert_eq!(wc.get("switch_voltage").unwrap().corner, Corner::VinMax);
-        assert_eq!(wc.get("switch_voltage").unwrap().value, wc.at_vin_max.switch_voltage);
+        assert_eq!(
+            wc.get("switch_voltage").unwrap().value,
+            wc.at_vin_max.switch_voltage
+        );
         assert!(wc.get("nope").is_none());
     }
 
@@ -379,18 +472,71 @@ mod tests {
     fn bad_arguments_named() {
         let s = Spec::demo_forward();
         let t = fwd_turns();
-        assert_eq!(operating_point(&s, &t, None, 0.0, 48.0).unwrap_err().field(), Some("ae"));
-        assert_eq!(operating_point(&s, &t, None, f64::NAN, 48.0).unwrap_err().field(), Some("ae"));
-        assert_eq!(operating_point(&s, &t, Some(-1.0), 76e-6, 48.0).unwrap_err().field(), Some("lp"));
-        assert_eq!(operating_point(&s, &t, None, 76e-6, f64::NAN).unwrap_err().field(), Some("vin"));
-        let t0 = Turns { primary: 0, ..fwd_turns() };
-        assert_eq!(operating_point(&s, &t0, None, 76e-6, 48.0).unwrap_err().field(), Some("turns.primary"));
-        let t1 = Turns { secondaries: vec![10, 3], ..fwd_turns() };
-        assert_eq!(operating_point(&s, &t1, None, 76e-6, 48.0).unwrap_err().field(), Some("turns.secondaries"));
-        let t2 = Turns { reset: None, ..fwd_turns() };
-        assert_eq!(operating_point(&s, &t2, None, 76e-6, 48.0).unwrap_err().field(), Some("turns.reset"));
+        assert_eq!(
+            operating_point(&s, &t, None, 0.0, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("ae")
+        );
+        assert_eq!(
+            operating_point(&s, &t, None, f64::NAN, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("ae")
+        );
+        assert_eq!(
+            operating_point(&s, &t, Some(-1.0), 76e-6, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("lp")
+        );
+        assert_eq!(
+            operating_point(&s, &t, None, 76e-6, f64::NAN)
+                .unwrap_err()
+                .field(),
+            Some("vin")
+        );
+        let t0 = Turns {
+            primary: 0,
+            ..fwd_turns()
+        };
+        assert_eq!(
+            operating_point(&s, &t0, None, 76e-6, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("turns.primary")
+        );
+        let t1 = Turns {
+            secondaries: vec![10, 3],
+            ..fwd_turns()
+        };
+        assert_eq!(
+            operating_point(&s, &t1, None, 76e-6, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("turns.secondaries")
+        );
+        let t2 = Turns {
+            reset: None,
+            ..fwd_turns()
+        };
+        assert_eq!(
+            operating_point(&s, &t2, None, 76e-6, 48.0)
+                .unwrap_err()
+                .field(),
+            Some("turns.reset")
+        );
         let f = Spec::demo_flyback();
-        let tf = Turns { primary: 40, secondaries: vec![5], reset: None };
-        assert_eq!(operating_point(&f, &tf, None, 76e-6, 150.0).unwrap_err().field(), Some("lp"));
+        let tf = Turns {
+            primary: 40,
+            secondaries: vec![5],
+            reset: None,
+        };
+        assert_eq!(
+            operating_point(&f, &tf, None, 76e-6, 150.0)
+                .unwrap_err()
+                .field(),
+            Some("lp")
+        );
     }
 }

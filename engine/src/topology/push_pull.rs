@@ -50,21 +50,46 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let im = match ctx.lp {
         Some(lm) => vin * t_on / (2.0 * lm),
         None => {
-            warnings.push("no magnetising inductance given: the magnetising current is neglected".to_string());
+            warnings.push(
+                "no magnetising inductance given: the magnetising current is neglected".to_string(),
+            );
             0.0
         }
     };
     let d_at_max = v1 * np / (2.0 * n1 * ctx.dc.max);
     let off_max = 1.0 - 2.0 * d_at_max;
-    let scale = if off_max > 1e-9 { (1.0 - 2.0 * d) / off_max } else { 1.0 };
-    let v_rect: Vec<f64> = ctx.turns.secondaries.iter().map(|&n| 2.0 * d * vin * n as f64 / np).collect();
+    let scale = if off_max > 1e-9 {
+        (1.0 - 2.0 * d) / off_max
+    } else {
+        1.0
+    };
+    let v_rect: Vec<f64> = ctx
+        .turns
+        .secondaries
+        .iter()
+        .map(|&n| 2.0 * d * vin * n as f64 / np)
+        .collect();
     let output_v = output_voltages(ctx, &v_rect, &mut warnings);
-    let p_sec: f64 = spec.outputs.iter().zip(&v_rect).map(|(o, v)| v * o.current).sum();
+    let p_sec: f64 = spec
+        .outputs
+        .iter()
+        .zip(&v_rect)
+        .map(|(o, v)| v * o.current)
+        .sum();
     let k_p = ctx.p_in / p_sec;
 
     let v = Pwl::new(
         t,
-        vec![(0.0, vin), (t_on, vin), (t_on, 0.0), (h, 0.0), (h, -vin), (h + t_on, -vin), (h + t_on, 0.0), (t, 0.0)],
+        vec![
+            (0.0, vin),
+            (t_on, vin),
+            (t_on, 0.0),
+            (h, 0.0),
+            (h, -vin),
+            (h + t_on, -vin),
+            (h + t_on, 0.0),
+            (t, 0.0),
+        ],
     )?;
     let (mut ip0, mut ip1) = (-im, im);
     let mut secs = Vec::with_capacity(2 * spec.outputs.len());
@@ -76,30 +101,93 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         let va = v.scaled(nk as f64 / np);
         let ia = Pwl::new(
             t,
-            vec![(0.0, a), (t_on, b), (t_on, 0.5 * b), (h, 0.5 * a), (h, 0.0), (h + t_on, 0.0), (h + t_on, 0.5 * b), (t, 0.5 * a)],
+            vec![
+                (0.0, a),
+                (t_on, b),
+                (t_on, 0.5 * b),
+                (h, 0.5 * a),
+                (h, 0.0),
+                (h + t_on, 0.0),
+                (h + t_on, 0.5 * b),
+                (t, 0.5 * a),
+            ],
         )?;
         let ib = Pwl::new(
             t,
-            vec![(0.0, 0.0), (t_on, 0.0), (t_on, 0.5 * b), (h, 0.5 * a), (h, a), (h + t_on, b), (h + t_on, 0.5 * b), (t, 0.5 * a)],
+            vec![
+                (0.0, 0.0),
+                (t_on, 0.0),
+                (t_on, 0.5 * b),
+                (h, 0.5 * a),
+                (h, a),
+                (h + t_on, b),
+                (h + t_on, 0.5 * b),
+                (t, 0.5 * a),
+            ],
         )?;
-        secs.push(WindingWave::new(format!("secondary {} A", k + 1), nk, ia, va.clone()));
-        secs.push(WindingWave::new(format!("secondary {} B", k + 1), nk, ib, va));
+        secs.push(WindingWave::new(
+            format!("secondary {} A", k + 1),
+            nk,
+            ia,
+            va.clone(),
+        ));
+        secs.push(WindingWave::new(
+            format!("secondary {} B", k + 1),
+            nk,
+            ib,
+            va,
+        ));
     }
     let pa = Pwl::new(t, vec![(0.0, ip0), (t_on, ip1), (t_on, 0.0), (t, 0.0)])?;
-    let pb = Pwl::new(t, vec![(0.0, 0.0), (h, 0.0), (h, ip0), (h + t_on, ip1), (h + t_on, 0.0), (t, 0.0)])?;
+    let pb = Pwl::new(
+        t,
+        vec![
+            (0.0, 0.0),
+            (h, 0.0),
+            (h, ip0),
+            (h + t_on, ip1),
+            (h + t_on, 0.0),
+            (t, 0.0),
+        ],
+    )?;
     let input = Pwl::new(
         t,
-        vec![(0.0, ip0), (t_on, ip1), (t_on, 0.0), (h, 0.0), (h, ip0), (h + t_on, ip1), (h + t_on, 0.0), (t, 0.0)],
+        vec![
+            (0.0, ip0),
+            (t_on, ip1),
+            (t_on, 0.0),
+            (h, 0.0),
+            (h, ip0),
+            (h + t_on, ip1),
+            (h + t_on, 0.0),
+            (t, 0.0),
+        ],
     )?;
     let flux = Pwl::new(
         t,
-        vec![(0.0, -0.5 * delta_b), (t_on, 0.5 * delta_b), (h, 0.5 * delta_b), (h + t_on, -0.5 * delta_b), (t, -0.5 * delta_b)],
+        vec![
+            (0.0, -0.5 * delta_b),
+            (t_on, 0.5 * delta_b),
+            (h, 0.5 * delta_b),
+            (h + t_on, -0.5 * delta_b),
+            (t, -0.5 * delta_b),
+        ],
     )?;
     let switch_rms = pa.rms();
     let switch_peak = pa.peak_abs();
     let mut windings = Vec::with_capacity(2 + secs.len());
-    windings.push(WindingWave::new("primary A".into(), ctx.turns.primary, pa, v.clone()));
-    windings.push(WindingWave::new("primary B".into(), ctx.turns.primary, pb, v));
+    windings.push(WindingWave::new(
+        "primary A".into(),
+        ctx.turns.primary,
+        pa,
+        v.clone(),
+    ));
+    windings.push(WindingWave::new(
+        "primary B".into(),
+        ctx.turns.primary,
+        pb,
+        v,
+    ));
     windings.extend(secs);
     Ok(OperatingPoint {
         topology: spec.topology,

@@ -43,7 +43,13 @@ pub fn flyback_duty_ccm(vin: f64, vor: f64) -> f64 {
 /// Ic = Pin/(Vin·D), ΔIp = Vin·D/(Lp·f), so Lp = Vin²·D²/(r·f·Pin).
 /// r = 2 is the CCM/DCM boundary (Lp = Vin²D²/(2·f·Pin), which is
 /// ½·Lp·Ipk²·f = Pin at Ipk = ΔIp); r > 2 gives a DCM design.
-pub fn flyback_lp_from_ripple(vin: f64, duty: f64, p_in: f64, frequency: f64, ripple_ratio: f64) -> Result<f64> {
+pub fn flyback_lp_from_ripple(
+    vin: f64,
+    duty: f64,
+    p_in: f64,
+    frequency: f64,
+    ripple_ratio: f64,
+) -> Result<f64> {
     positive("vin", vin, "V")?;
     check_d(duty, 0.999)?;
     positive("input_power", p_in, "W")?;
@@ -103,7 +109,9 @@ pub fn turns_ratio(spec: &Spec) -> Result<f64> {
             FlybackRatio::ReflectedVoltage(vor) => Ok(vor / v1),
             FlybackRatio::TurnsRatio(n) => Ok(n),
         },
-        Topology::Forward | Topology::TwoSwitchForward => forward_turns_ratio(dc.min, v1, spec.duty_max),
+        Topology::Forward | Topology::TwoSwitchForward => {
+            forward_turns_ratio(dc.min, v1, spec.duty_max)
+        }
         Topology::PushPull => push_pull_turns_ratio(dc.min, v1, spec.duty_max),
     }
 }
@@ -116,7 +124,13 @@ pub fn flyback_lp(spec: &Spec, n: f64) -> Result<f64> {
     let dc = spec.dc_range()?;
     let vor = n * rectified(&spec.outputs[0]);
     let d = flyback_duty_ccm(dc.min, vor);
-    flyback_lp_from_ripple(dc.min, d, spec.input_power(), spec.frequency, spec.flyback.ripple_ratio)
+    flyback_lp_from_ripple(
+        dc.min,
+        d,
+        spec.input_power(),
+        spec.frequency,
+        spec.flyback.ripple_ratio,
+    )
 }
 
 /// Secondary turns for `np` primary turns and ratio `n` = Np/Ns1: the
@@ -130,13 +144,20 @@ pub fn secondary_turns(spec: &Spec, np: u32, n: f64) -> Result<Vec<u32>> {
     }
     let n1 = (np as f64 / n * (1.0 - 1e-12)).ceil().max(1.0);
     if n1 > MAX_TURNS as f64 {
-        return Err(Error::infeasible(Some("turns.secondaries[0]"), format!("{n1:.0} turns is too many")));
+        return Err(Error::infeasible(
+            Some("turns.secondaries[0]"),
+            format!("{n1:.0} turns is too many"),
+        ));
     }
     let v1 = rectified(&spec.outputs[0]);
     Ok(spec
         .outputs
         .iter()
-        .map(|o| (n1 * rectified(o) / v1).round().clamp(1.0, MAX_TURNS as f64) as u32)
+        .map(|o| {
+            (n1 * rectified(o) / v1)
+                .round()
+                .clamp(1.0, MAX_TURNS as f64) as u32
+        })
         .collect())
 }
 
@@ -152,10 +173,18 @@ pub fn primary_volt_seconds(spec: &Spec, n: f64, lp: Option<f64>, vin: f64) -> R
     positive("turns_ratio", n, "")?;
     positive("vin", vin, "V")?;
     let t = 1.0 / positive("frequency", spec.frequency, "Hz")?;
-    let v1 = rectified(spec.outputs.first().ok_or_else(|| Error::input("outputs", "give at least one output"))?);
+    let v1 = rectified(
+        spec.outputs
+            .first()
+            .ok_or_else(|| Error::input("outputs", "give at least one output"))?,
+    );
     Ok(match spec.topology {
         Topology::Flyback => {
-            let lp = positive("lp", lp.ok_or_else(|| Error::input("lp", "the flyback needs Lp"))?, "H")?;
+            let lp = positive(
+                "lp",
+                lp.ok_or_else(|| Error::input("lp", "the flyback needs Lp"))?,
+                "H",
+            )?;
             let s = flyback::state(vin, n * v1, lp, spec.input_power(), spec.frequency);
             vin * s.d * t
         }
@@ -181,8 +210,18 @@ pub fn volt_seconds(spec: &Spec, n: f64, lp: Option<f64>) -> Result<VoltSeconds>
     let dc = spec.dc_range()?;
     let a = primary_volt_seconds(spec, n, lp, dc.min)?;
     let b = primary_volt_seconds(spec, n, lp, dc.max)?;
-    let (worst, corner) = if a >= b { (a, Corner::VinMin) } else { (b, Corner::VinMax) };
-    Ok(VoltSeconds { dc, at_vin_min: a, at_vin_max: b, worst, corner })
+    let (worst, corner) = if a >= b {
+        (a, Corner::VinMin)
+    } else {
+        (b, Corner::VinMax)
+    };
+    Ok(VoltSeconds {
+        dc,
+        at_vin_min: a,
+        at_vin_max: b,
+        worst,
+        corner,
+    })
 }
 
 /// Fewest primary turns keeping the swing within `delta_b` (T, peak to
@@ -209,7 +248,11 @@ pub fn flyback_peak_current(spec: &Spec, n: f64, lp: f64, vin: f64) -> Result<f6
     positive("turns_ratio", n, "")?;
     positive("lp", lp, "H")?;
     positive("vin", vin, "V")?;
-    let v1 = rectified(spec.outputs.first().ok_or_else(|| Error::input("outputs", "give at least one output"))?);
+    let v1 = rectified(
+        spec.outputs
+            .first()
+            .ok_or_else(|| Error::input("outputs", "give at least one output"))?,
+    );
     let f = positive("frequency", spec.frequency, "Hz")?;
     Ok(flyback::state(vin, n * v1, lp, spec.input_power(), f).i_pk)
 }
@@ -217,7 +260,10 @@ pub fn flyback_peak_current(spec: &Spec, n: f64, lp: f64, vin: f64) -> Result<f6
 fn turns_up(x: f64, field: &str) -> Result<u32> {
     let n = (x * (1.0 - 1e-12)).ceil().max(1.0);
     if !n.is_finite() || n > MAX_TURNS as f64 {
-        return Err(Error::infeasible(Some(field), format!("{x:.0} turns is too many; use a larger core")));
+        return Err(Error::infeasible(
+            Some(field),
+            format!("{x:.0} turns is too many; use a larger core"),
+        ));
     }
     Ok(n as u32)
 }

@@ -172,7 +172,10 @@ pub struct FlybackOptions {
 impl Default for FlybackOptions {
     /// From duty max, r = 0.6 (common practice, no source).
     fn default() -> Self {
-        FlybackOptions { ratio: FlybackRatio::FromDutyMax, ripple_ratio: 0.6 }
+        FlybackOptions {
+            ratio: FlybackRatio::FromDutyMax,
+            ripple_ratio: 0.6,
+        }
     }
 }
 
@@ -230,14 +233,21 @@ impl Spec {
                 bulk: Bulk::Capacitance { farads: 68e-6 },
                 bridge_drop: 1.6,
             },
-            outputs: vec![Output { voltage: 12.0, current: 2.0, rectifier_drop: 0.5 }],
+            outputs: vec![Output {
+                voltage: 12.0,
+                current: 2.0,
+                rectifier_drop: 0.5,
+            }],
             frequency: 100e3,
             duty_max: 0.6,
             efficiency: 0.85,
             ambient: 40.0,
             hot_spot_max: 110.0,
             isolation: Isolation::Reinforced,
-            flyback: FlybackOptions { ratio: FlybackRatio::ReflectedVoltage(100.0), ripple_ratio: 0.6 },
+            flyback: FlybackOptions {
+                ratio: FlybackRatio::ReflectedVoltage(100.0),
+                ripple_ratio: 0.6,
+            },
             choke_ripple_ratio: default_choke_ripple(),
         }
     }
@@ -247,8 +257,16 @@ impl Spec {
     pub fn demo_forward() -> Self {
         Spec {
             topology: Topology::Forward,
-            input: Input::Dc { min: 36.0, nominal: 48.0, max: 60.0 },
-            outputs: vec![Output { voltage: 12.0, current: 10.0, rectifier_drop: 0.5 }],
+            input: Input::Dc {
+                min: 36.0,
+                nominal: 48.0,
+                max: 60.0,
+            },
+            outputs: vec![Output {
+                voltage: 12.0,
+                current: 10.0,
+                rectifier_drop: 0.5,
+            }],
             frequency: 200e3,
             duty_max: 0.45,
             efficiency: 0.9,
@@ -265,8 +283,16 @@ impl Spec {
     pub fn demo_push_pull() -> Self {
         Spec {
             topology: Topology::PushPull,
-            input: Input::Dc { min: 18.0, nominal: 24.0, max: 32.0 },
-            outputs: vec![Output { voltage: 12.0, current: 8.0, rectifier_drop: 0.5 }],
+            input: Input::Dc {
+                min: 18.0,
+                nominal: 24.0,
+                max: 32.0,
+            },
+            outputs: vec![Output {
+                voltage: 12.0,
+                current: 8.0,
+                rectifier_drop: 0.5,
+            }],
             frequency: 100e3,
             duty_max: 0.45,
             efficiency: 0.9,
@@ -322,7 +348,10 @@ impl Spec {
         if self.outputs.len() > MAX_OUTPUTS {
             return Err(Error::input(
                 "outputs",
-                format!("at most {MAX_OUTPUTS} outputs (got {}); combine or drop some", self.outputs.len()),
+                format!(
+                    "at most {MAX_OUTPUTS} outputs (got {}); combine or drop some",
+                    self.outputs.len()
+                ),
             ));
         }
         for (i, o) in self.outputs.iter().enumerate() {
@@ -338,7 +367,11 @@ impl Spec {
         }
         // Rectifier drops alone bound the efficiency: η ≤ Pout/(Pout + ΣVf·I).
         let p_out = self.output_power();
-        let p_rect: f64 = self.outputs.iter().map(|o| o.rectifier_drop * o.current).sum();
+        let p_rect: f64 = self
+            .outputs
+            .iter()
+            .map(|o| o.rectifier_drop * o.current)
+            .sum();
         let eta_lim = p_out / (p_out + p_rect);
         if self.efficiency > eta_lim * (1.0 + 1e-12) {
             return Err(Error::input(
@@ -361,7 +394,13 @@ impl Spec {
             }
         }
         positive("flyback.ripple_ratio", self.flyback.ripple_ratio, "")?;
-        in_range("flyback.ripple_ratio", self.flyback.ripple_ratio, 0.01, 20.0, "")?;
+        in_range(
+            "flyback.ripple_ratio",
+            self.flyback.ripple_ratio,
+            0.01,
+            20.0,
+            "",
+        )?;
         in_range("choke_ripple_ratio", self.choke_ripple_ratio, 0.0, 2.0, "")?;
         if self.topology == Topology::Flyback {
             let dc = self.dc_range()?;
@@ -395,10 +434,20 @@ impl Spec {
                 in_range("input.max", max, 0.0, 2000.0, "V")?;
                 in_range("input.nominal", nominal, min, max, "V")?;
                 if max < min {
-                    return Err(Error::input("input.max", format!("must be at least input.min ({min} V)")));
+                    return Err(Error::input(
+                        "input.max",
+                        format!("must be at least input.min ({min} V)"),
+                    ));
                 }
             }
-            Input::Ac { vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop } => {
+            Input::Ac {
+                vac_min,
+                vac_nominal,
+                vac_max,
+                line_frequency,
+                bulk,
+                bridge_drop,
+            } => {
                 positive("input.vac_min", vac_min, "V")?;
                 in_range("input.vac_max", vac_max, 0.0, 1000.0, "V")?;
                 if vac_max < vac_min {
@@ -411,7 +460,10 @@ impl Spec {
                 in_range("input.line_frequency", line_frequency, 10.0, 1000.0, "Hz")?;
                 in_range("input.bridge_drop", bridge_drop, 0.0, 10.0, "V")?;
                 if std::f64::consts::SQRT_2 * vac_min <= bridge_drop {
-                    return Err(Error::input("input.vac_min", "the line crest must exceed the bridge drop"));
+                    return Err(Error::input(
+                        "input.vac_min",
+                        "the line crest must exceed the bridge drop",
+                    ));
                 }
                 match bulk {
                     Bulk::Capacitance { farads } => {
@@ -433,17 +485,31 @@ impl Spec {
         self.validate_input()?;
         match self.input {
             Input::Dc { min, nominal, max } => Ok(DcRange { min, nominal, max }),
-            Input::Ac { vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop } => {
+            Input::Ac {
+                vac_min,
+                vac_nominal,
+                vac_max,
+                line_frequency,
+                bulk,
+                bridge_drop,
+            } => {
                 let p_in = self.input_power();
                 if !(p_in.is_finite() && p_in > 0.0) {
-                    return Err(Error::input("outputs", "the output power must be positive to size the bulk valley"));
+                    return Err(Error::input(
+                        "outputs",
+                        "the output power must be positive to size the bulk valley",
+                    ));
                 }
                 let crest = |vac: f64| std::f64::consts::SQRT_2 * vac - bridge_drop;
                 let v_lo = crest(vac_min);
                 let v_nom = crest(vac_nominal);
                 let valley_min = bulk_valley(v_lo, p_in, line_frequency, bulk)?;
                 let valley_nom = bulk_valley(v_nom, p_in, line_frequency, bulk)?;
-                Ok(DcRange { min: valley_min, nominal: 0.5 * (v_nom + valley_nom), max: crest(vac_max) })
+                Ok(DcRange {
+                    min: valley_min,
+                    nominal: 0.5 * (v_nom + valley_nom),
+                    max: crest(vac_max),
+                })
             }
         }
     }
@@ -455,10 +521,13 @@ impl Spec {
     pub fn safety_cautions(&self) -> Vec<String> {
         let mains = matches!(self.input, Input::Ac { .. });
         let input_high = match self.input {
-            Input::Dc { max, .. } => !(max <= ES1_DC_LIMIT),
+            Input::Dc { max, .. } => max > ES1_DC_LIMIT || !max.is_finite(),
             Input::Ac { .. } => true,
         };
-        let out_high = self.outputs.iter().any(|o| !(o.voltage <= ES1_DC_LIMIT));
+        let out_high = self
+            .outputs
+            .iter()
+            .any(|o| o.voltage > ES1_DC_LIMIT || !o.voltage.is_finite());
         let mut c = Vec::new();
         if !(mains || input_high || out_high) {
             return c;
@@ -570,10 +639,17 @@ mod tests {
 
     #[test]
     fn demos_validate() {
-        for s in [Spec::demo_flyback(), Spec::demo_forward(), Spec::demo_push_pull()] {
+        for s in [
+            Spec::demo_flyback(),
+            Spec::demo_forward(),
+            Spec::demo_push_pull(),
+        ] {
             s.validate().unwrap();
             let dc = s.dc_range().unwrap();
-            assert!(dc.min > 0.0 && dc.min <= dc.nominal && dc.nominal <= dc.max, "{dc:?}");
+            assert!(
+                dc.min > 0.0 && dc.min <= dc.nominal && dc.nominal <= dc.max,
+                "{dc:?}"
+            );
         }
     }
 
@@ -592,29 +668,71 @@ mod tests {
         // More capacitance, higher valley (monotone).
         let vv2 = bulk_valley(vpk, p, fl, Bulk::Capacitance { farads: 2.0 * c }).unwrap();
         assert!(vv2 > vv);
-        assert_eq!(bulk_valley(100.0, p, fl, Bulk::RippleRatio { ratio: 0.25 }).unwrap(), 75.0);
         assert_eq!(
-            bulk_valley(vpk, 500.0, fl, Bulk::Capacitance { farads: 1e-6 }).unwrap_err().field(),
+            bulk_valley(100.0, p, fl, Bulk::RippleRatio { ratio: 0.25 }).unwrap(),
+            75.0
+        );
+        assert_eq!(
+            bulk_valley(vpk, 500.0, fl, Bulk::Capacitance { farads: 1e-6 })
+                .unwrap_err()
+                .field(),
             Some("input.bulk.farads")
         );
     }
 
     #[test]
     fn bad_fields_are_named() {
-        let cases: Vec<(Box<dyn Fn(&mut Spec)>, &str)> = vec![
+        type Case = (Box<dyn Fn(&mut Spec)>, &'static str);
+        let cases: Vec<Case> = vec![
             (Box::new(|s| s.outputs.clear()), "outputs"),
             (Box::new(|s| s.outputs = vec![s.outputs[0]; 5]), "outputs"),
-            (Box::new(|s| s.outputs.push(Output { voltage: f64::NAN, current: 1.0, rectifier_drop: 0.5 })), "outputs[1].voltage"),
-            (Box::new(|s| s.outputs[0].current = -1.0), "outputs[0].current"),
-            (Box::new(|s| s.outputs[0].rectifier_drop = -0.1), "outputs[0].rectifier_drop"),
+            (
+                Box::new(|s| {
+                    s.outputs.push(Output {
+                        voltage: f64::NAN,
+                        current: 1.0,
+                        rectifier_drop: 0.5,
+                    })
+                }),
+                "outputs[1].voltage",
+            ),
+            (
+                Box::new(|s| s.outputs[0].current = -1.0),
+                "outputs[0].current",
+            ),
+            (
+                Box::new(|s| s.outputs[0].rectifier_drop = -0.1),
+                "outputs[0].rectifier_drop",
+            ),
             (Box::new(|s| s.frequency = 0.0), "frequency"),
             (Box::new(|s| s.duty_max = f64::NAN), "duty_max"),
             (Box::new(|s| s.efficiency = 1.5), "efficiency"),
             (Box::new(|s| s.efficiency = 0.99), "efficiency"),
             (Box::new(|s| s.hot_spot_max = 30.0), "hot_spot_max"),
-            (Box::new(|s| s.input = Input::Dc { min: 40.0, nominal: 30.0, max: 60.0 }), "input.nominal"),
-            (Box::new(|s| s.input = Input::Dc { min: -1.0, nominal: 30.0, max: 60.0 }), "input.min"),
-            (Box::new(|s| s.choke_ripple_ratio = 3.0), "choke_ripple_ratio"),
+            (
+                Box::new(|s| {
+                    s.input = Input::Dc {
+                        min: 40.0,
+                        nominal: 30.0,
+                        max: 60.0,
+                    }
+                }),
+                "input.nominal",
+            ),
+            (
+                Box::new(|s| {
+                    s.input = Input::Dc {
+                        min: -1.0,
+                        nominal: 30.0,
+                        max: 60.0,
+                    }
+                }),
+                "input.min",
+            ),
+            (
+                Box::new(|s| s.choke_ripple_ratio = 3.0),
+                "choke_ripple_ratio",
+            ),
         ];
         for (m, field) in cases {
             let mut s = Spec::demo_forward();
@@ -634,7 +752,11 @@ mod tests {
         assert!(!Spec::demo_flyback().safety_cautions().is_empty());
         assert!(Spec::demo_push_pull().safety_cautions().is_empty());
         let mut s = Spec::demo_forward();
-        s.input = Input::Dc { min: 36.0, nominal: 48.0, max: 75.0 };
+        s.input = Input::Dc {
+            min: 36.0,
+            nominal: 48.0,
+            max: 75.0,
+        };
         let c = s.safety_cautions();
         assert!(c.iter().any(|t| t.contains("60 V DC")), "{c:?}");
         assert!(c.iter().all(|t| !t.to_lowercase().contains("is safe")));
