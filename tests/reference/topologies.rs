@@ -35,7 +35,8 @@ fn rel(a: f64, b: f64) -> f64 {
 
 /// Volt-second balance of every winding (mean induced voltage zero) and
 /// of the core (B(T) = B(0)), and Faraday's law on the primary: the flux
-/// rise equals ∫v dt/(N·Ae) over the on-time.
+/// rise equals ∫v dt/(N·Ae) over the on-time. Also the flux waveform's
+/// rise over the on-time against the primary voltage's integral.
 fn check_balance(op: &OperatingPoint, ae: f64) {
     for w in &op.windings {
         let vmax = w.voltage.peak_abs();
@@ -61,14 +62,21 @@ fn check_balance(op: &OperatingPoint, ae: f64) {
     );
     let p = &op.windings[0];
     let t_on = op.duty * op.period;
-    let db = op.vin * t_on / (p.turns as f64 * ae); // Faraday
+    // Faraday on the primary's on-time voltage (Vin, or Vin/2 for the half bridge).
+    let vp = p.voltage.max();
+    let db = vp * t_on / (p.turns as f64 * ae);
     assert!(
         rel(op.delta_b, db) < 1e-9,
         "ΔB {} vs Faraday {}",
         op.delta_b,
         db
     );
-    assert!((op.volt_seconds - op.vin * t_on).abs() < 1e-12 * op.volt_seconds);
+    assert!((op.volt_seconds - vp * t_on).abs() < 1e-12 * op.volt_seconds);
+    let rise = value_at(&op.flux, t_on) - first;
+    assert!(
+        rel(rise, db) < 1e-9,
+        "flux rise {rise} vs ∫v dt/(N·Ae) {db}"
+    );
     assert!((op.flux.peak_to_peak() - op.delta_b).abs() < 1e-9 * op.delta_b);
 }
 
@@ -684,4 +692,49 @@ fn bad_specs_name_their_field() {
     let j = serde_json::to_string(&Spec::demo_flyback()).unwrap();
     let back: Spec = serde_json::from_str(&j).unwrap();
     assert_eq!(back, Spec::demo_flyback());
+}
+
+// ---------------------------------------------------------------- bridges
+
+/// Half and full bridge by hand: E&M §6.3.1, V = (Ns/Np)·D_EM·Vg/2 for
+/// the half bridge and (Ns/Np)·D_EM·Vg for the full bridge, D_EM = 2·D;
+/// Faraday on ±Vp; each switch blocks Vin.
+#[test]
+fn bridges_hand_design() {
+    for (topo, vp_of) in [(Topology::HalfBridge, 0.5), (Topology::FullBridge, 1.0)] {
+        let mut s = fwd_spec(); // 36–60 V, 12 V 10 A, 200 kHz, η 0.9
+        s.topology = topo;
+        let (np, ns, vin, t, lm) = (12.0, 10.0, 36.0, 5e-6, 400e-6);
+        let turns = Turns {
+            primary: 12,
+            secondaries: vec![10],
+            reset: None,
+        };
+        let op = operating_point(&s, &turns, Some(lm), FWD_AE, vin).unwrap();
+        let vp = vp_of * vin;
+        let d = 12.5 * np / (2.0 * ns * vp);
+        assert!(rel(op.duty, d) < 1e-12, "{topo:?}");
+        assert!(rel(ns / np * 2.0 * d * vp, 12.5) < 1e-12);
+        assert!(rel(op.delta_b, vp * d * t / (np * FWD_AE)) < 1e-12);
+        assert!(rel(op.switch_voltage, vin) < 1e-12);
+        // Choke sized at Vin max, L·ΔI = (V + Vf)·(1/2 − D)·T.
+        let dmax_line = 12.5 * np / (2.0 * ns * vp_of * 60.0);
+        let l = 12.5 * (0.5 - dmax_line) * t / (0.2 * 10.0);
+        let di = 12.5 * (0.5 - d) * t / l;
+        let (a, b) = (10.0 - di / 2.0, 10.0 + di / 2.0);
+        let kp = (120.0 / 0.9) / (12.5 * 10.0);
+        let im = vp * d * t / (2.0 * lm);
+        let (s0, s1) = (kp * ns / np * a - im, kp * ns / np * b + im);
+        // One primary, current of both signs: RMS² = 2 × one ramp.
+        let pri = &op.windings[0];
+        assert_eq!(pri.name, "primary");
+        assert!(rel(pri.rms, (2.0 * ramp_ms(s0, s1, d)).sqrt()) < 1e-9);
+        assert!(pri.mean.abs() < 1e-9 * pri.rms, "no DC in a bridge primary");
+        assert!(rel(op.switch_rms_current, ramp_ms(s0, s1, d).sqrt()) < 1e-9);
+        let walk = op.warnings.iter().any(|w| w.contains("flux walking"));
+        assert_eq!(walk, topo == Topology::FullBridge);
+        check_balance(&op, FWD_AE);
+        check_power(&op, &s);
+        assert!(sizing::turns_ratio(&s).unwrap() > 0.0);
+    }
 }

@@ -1,5 +1,6 @@
 //! Converter topologies: waveforms and stresses of the flyback, the
-//! single- and two-switch forward and the push-pull.
+//! single- and two-switch forward, the push-pull and the half and full
+//! bridge.
 //!
 //! This module answers one question: *given a spec, the turns, the
 //! primary (magnetising) inductance and the core's Ae, what does every
@@ -47,14 +48,16 @@
 //!   Electronics, 2nd ed., §6.3): forward V = (Ns/Np)·D·Vg, with a reset
 //!   winding D ≤ 1/(1 + Nr/Np); push-pull V = (Ns/Np)·2D·Vg, where D is
 //!   one switch's on-time over the full period (the book's D is our 2D);
-//!   flyback CCM V = (Ns/Np)·Vg·D/(1 − D).
-//! * Output chokes (forward, push-pull): each output has one, sized for a
+//!   half bridge V = (Ns/Np)·D·Vg (§6.3.1, Vg/2 on the primary), full bridge
+//!   V = (Ns/Np)·2D·Vg; flyback CCM V = (Ns/Np)·Vg·D/(1 − D).
+//! * Output chokes (forward, push-pull, bridges): each output has one, sized for a
 //!   ripple ΔI = r·Iout at Vin max ([`Spec::choke_ripple_ratio`]); at
 //!   another Vin, ΔI scales with the off-time fraction (fixed L): forward
 //!   (1 − D), push-pull (1 − 2D). So secondary currents are trapezoids.
 //!
 //! Module layout: [`spec`] (what is asked), [`sizing`] (helpers),
-//! `flyback`, `forward`, `push_pull` (one model each).
+//! `flyback`, `forward` (single and two switch), `push_pull` (push-pull,
+//! half and full bridge: the symmetric, bipolar-flux family).
 
 mod flyback;
 mod forward;
@@ -70,8 +73,9 @@ use crate::error::{in_range, positive, Error, Result};
 use crate::waveform::Pwl;
 use serde::{Deserialize, Serialize};
 
-/// Turn counts. For the push-pull, `primary` and each secondary count the
-/// turns of *one half* of the centre-tapped winding.
+/// Turn counts. Push-pull: `primary` counts the turns of *one half* of the
+/// centre-tapped primary. Push-pull and bridges: each secondary count is
+/// one half of its centre-tapped winding.
 #[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
 pub struct Turns {
     pub primary: u32,
@@ -148,7 +152,8 @@ pub struct OperatingPoint {
     pub delta_b: f64,
     /// Largest |B|, T.
     pub b_peak: f64,
-    /// Volt-seconds on the primary (one half for push-pull) per on-time,
+    /// Volt-seconds on the primary (one half for push-pull; Vin/2 for the
+    /// half bridge) per on-time,
     /// V·s: Np = this/(ΔB·Ae).
     pub volt_seconds: f64,
     /// Off-state voltage of each switch, V (flat top; no leakage spike).
@@ -297,7 +302,9 @@ fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let mut op = match ctx.spec.topology {
         Topology::Flyback => flyback::operating_point(ctx, vin)?,
         Topology::Forward | Topology::TwoSwitchForward => forward::operating_point(ctx, vin)?,
-        Topology::PushPull => push_pull::operating_point(ctx, vin)?,
+        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => {
+            push_pull::operating_point(ctx, vin)?
+        }
     };
     if op.switch_voltage > spec::ES1_DC_LIMIT {
         op.warnings.push(format!(

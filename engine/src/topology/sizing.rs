@@ -67,7 +67,8 @@ pub fn forward_turns_ratio(vin_min: f64, v_rect: f64, d_max: f64) -> Result<f64>
 }
 
 /// Push-pull ratio (per half) giving per-switch duty `d_max` at `vin_min`:
-/// V + Vf = 2·D·Vin/n, so n = 2·Vin_min·Dmax/(V + Vf) (E&M §6.3.3).
+/// V + Vf = 2·D·Vin/n, so n = 2·Vin_min·Dmax/(V + Vf) (E&M §6.3.3). The
+/// same for the full bridge; for the half bridge pass Vin_min/2 (§6.3.1).
 pub fn push_pull_turns_ratio(vin_min: f64, v_rect: f64, d_max: f64) -> Result<f64> {
     positive("vin", vin_min, "V")?;
     positive("outputs[0].voltage", v_rect, "V")?;
@@ -112,7 +113,10 @@ pub fn turns_ratio(spec: &Spec) -> Result<f64> {
         Topology::Forward | Topology::TwoSwitchForward => {
             forward_turns_ratio(dc.min, v1, spec.duty_max)
         }
-        Topology::PushPull => push_pull_turns_ratio(dc.min, v1, spec.duty_max),
+        Topology::PushPull | Topology::FullBridge => {
+            push_pull_turns_ratio(dc.min, v1, spec.duty_max)
+        }
+        Topology::HalfBridge => push_pull_turns_ratio(0.5 * dc.min, v1, spec.duty_max),
     }
 }
 
@@ -164,7 +168,7 @@ pub fn secondary_turns(spec: &Spec, np: u32, n: f64) -> Result<Vec<u32>> {
 /// Volt-seconds on the primary (one half for the push-pull) during one
 /// on-time at DC input `vin`, V·s, for ratio `n` = Np/Ns1 (and the
 /// flyback's `lp`, which decides CCM or DCM). Forward and push-pull in CCM:
-/// Vin·D·T = (V1 + Vf1)·n·T (×½ for push-pull), the same at every line
+/// Vin·D·T = (V1 + Vf1)·n·T (×½ for push-pull and bridges), the same at every line
 /// voltage. Flyback CCM: Vin·Vor/(Vin + Vor)·T, largest at Vin max; DCM:
 /// Lp·Ipk, fixed by the power. Then Np = λ/(ΔB·Ae), ΔB peak to peak
 /// (push-pull: ΔB = 2·Bpk; flyback: mind the DC bias, see
@@ -189,7 +193,7 @@ pub fn primary_volt_seconds(spec: &Spec, n: f64, lp: Option<f64>, vin: f64) -> R
             vin * s.d * t
         }
         Topology::Forward | Topology::TwoSwitchForward => v1 * n * t,
-        Topology::PushPull => 0.5 * v1 * n * t,
+        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => 0.5 * v1 * n * t,
     })
 }
 
@@ -266,4 +270,57 @@ fn turns_up(x: f64, field: &str) -> Result<u32> {
         ));
     }
     Ok(n as u32)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Each ratio helper, substituted back into its conversion ratio
+    /// (E&M §6.3), gives the duty limit at Vin min.
+    #[test]
+    fn ratios_reach_the_duty_limit() {
+        let (vin, v, d) = (36.0, 12.5, 0.45);
+        let n = flyback_turns_ratio_for_duty(vin, v, d).unwrap();
+        assert!((flyback_duty_ccm(vin, n * v) - d).abs() < 1e-12);
+        let n = forward_turns_ratio(vin, v, d).unwrap();
+        assert!((v * n / vin - d).abs() < 1e-12);
+        let n = push_pull_turns_ratio(vin, v, d).unwrap();
+        assert!((v * n / (2.0 * vin) - d).abs() < 1e-12);
+        assert!(push_pull_turns_ratio(vin, v, 0.6).is_err());
+        assert_eq!(
+            forward_turns_ratio(vin, v, f64::NAN).unwrap_err().field(),
+            Some("duty_max")
+        );
+    }
+
+    /// Lp from the ripple ratio gives back r = ΔI/Ic with ΔI = Vin·D/(Lp·f)
+    /// and Ic = Pin/(Vin·D); the flyback state at that Lp agrees.
+    #[test]
+    fn flyback_lp_recovers_ripple() {
+        let (vin, vor, p, f, r) = (120.0, 100.0, 28.0, 100e3, 0.6);
+        let d = flyback_duty_ccm(vin, vor);
+        let lp = flyback_lp_from_ripple(vin, d, p, f, r).unwrap();
+        let di = vin * d / (lp * f);
+        let ic = p / (vin * d);
+        assert!((di / ic - r).abs() < 1e-12);
+        let s = flyback::state(vin, vor, lp, p, f);
+        assert!(((s.i_pk - s.i_min) / ic - r).abs() < 1e-9);
+        // Turns for the peak flux: B = Lp·Ipk/(Np·Ae) ≤ Bmax with the fewest turns.
+        let np = flyback_primary_turns(lp, s.i_pk, 0.3, 50e-6).unwrap();
+        assert!(lp * s.i_pk / (np as f64 * 50e-6) <= 0.3);
+        assert!(lp * s.i_pk / ((np - 1) as f64 * 50e-6) > 0.3);
+        let spec = Spec {
+            input: super::super::Input::Dc {
+                min: vin,
+                nominal: vin,
+                max: 2.0 * vin,
+            },
+            ..Spec::demo_flyback()
+        };
+        let ipk = flyback_peak_current(&spec, vor / 12.5, lp, vin).unwrap();
+        let s2 = flyback::state(vin, vor, lp, spec.input_power(), f);
+        assert_eq!(ipk, s2.i_pk);
+        assert!(primary_turns_for_flux(1.0, 0.1, 1e-12).is_err());
+    }
 }

@@ -70,6 +70,11 @@ pub enum Topology {
     TwoSwitchForward,
     /// Push-pull: centre-tapped primary and secondary, bipolar flux.
     PushPull,
+    /// Half bridge: one primary across the midpoint of split input
+    /// capacitors (±Vin/2), centre-tapped secondaries.
+    HalfBridge,
+    /// Full bridge: one primary driven ±Vin, centre-tapped secondaries.
+    FullBridge,
 }
 
 impl Topology {
@@ -79,6 +84,8 @@ impl Topology {
             Topology::Forward => "single-switch forward",
             Topology::TwoSwitchForward => "two-switch forward",
             Topology::PushPull => "push-pull",
+            Topology::HalfBridge => "half bridge",
+            Topology::FullBridge => "full bridge",
         }
     }
 }
@@ -320,7 +327,10 @@ impl Spec {
         in_range("frequency", f, 1e3, 10e6, "Hz")?;
         let d_hi = match self.topology {
             Topology::Flyback | Topology::Forward => 0.95,
-            Topology::TwoSwitchForward | Topology::PushPull => 0.5,
+            Topology::TwoSwitchForward
+            | Topology::PushPull
+            | Topology::HalfBridge
+            | Topology::FullBridge => 0.5,
         };
         if self.duty_max.is_finite() && self.duty_max > d_hi && d_hi == 0.5 {
             return Err(Error::input(
