@@ -186,7 +186,7 @@ pub enum Corner {
 pub struct Worst {
     /// "duty", "b_peak", "delta_b", "switch_voltage",
     /// "switch_peak_current", "switch_rms_current", "magnetising_peak",
-    /// "<winding>.rms", "<winding>.peak".
+    /// `"<winding name>.rms"`, `"<winding name>.peak"` (e.g. `"primary.rms"`).
     pub quantity: String,
     /// Its larger value, and where.
     pub value: f64,
