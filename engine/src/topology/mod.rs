@@ -184,7 +184,7 @@ pub enum Corner {
 /// The worst of one quantity over the two corners.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Worst {
-    /// "duty", "b_peak", "delta_b", "switch_voltage",
+    /// "duty", "b_peak", "delta_b", "volt_seconds", "switch_voltage",
     /// "switch_peak_current", "switch_rms_current", "magnetising_peak",
     /// `"<winding name>.rms"`, `"<winding name>.peak"` (e.g. `"primary.rms"`).
     pub quantity: String,
