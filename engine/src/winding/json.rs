@@ -277,7 +277,10 @@ fn write_into(s: &mut String, v: &Json, ind: usize) {
         Json::Null => s.push_str("null"),
         Json::Bool(b) => s.push_str(if *b { "true" } else { "false" }),
         Json::Num(x) => {
-            if x.is_finite() {
+            if x.is_finite() && x.fract() == 0.0 && x.abs() < 1e15 && !(*x == 0.0 && x.is_sign_negative()) {
+                // Whole numbers (counts) without a decimal point.
+                let _ = write!(s, "{}", *x as i64);
+            } else if x.is_finite() {
                 let _ = write!(s, "{x:?}");
             } else {
                 s.push_str("null");
@@ -359,7 +362,7 @@ mod tests {
 
     #[test]
     fn numbers_round_trip_exactly() {
-        for x in [0.1 + 0.2, 1.0 / 3.0 * 1e-3, 5e-324, 1.7976931348623157e308, -0.0, 0.000566, 123456789.123] {
+        for x in [3.0, -7.0, 1e15, 0.1 + 0.2, 1.0 / 3.0 * 1e-3, 5e-324, 1.7976931348623157e308, -0.0, 0.000566, 123456789.123] {
             let s = write(&Json::Num(x));
             match parse(&s).unwrap() {
                 Json::Num(y) => assert_eq!(x.to_bits(), y.to_bits(), "{s}"),
