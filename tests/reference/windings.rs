@@ -146,14 +146,23 @@ fn skin_effect_round_wire_vs_scipy() {
         let v: Vec<f64> = line.split_whitespace().map(|x| x.parse().unwrap()).collect();
         assert_eq!(v.len(), 7, "{line}");
         let (a, ber, bei, berp, beip, fr_k, fr_b) = (v[0], v[1], v[2], v[3], v[4], v[5], v[6]);
-        assert!((fr_k - fr_b).abs() < 1e-9 * fr_b, "scipy's two routes disagree at d/δ = {a}");
+        assert!(
+            (fr_k - fr_b).abs() < 1e-9 * fr_b,
+            "scipy's two routes disagree at d/δ = {a}"
+        );
         let x = a / 2f64.sqrt();
         let (b, i, bp, ip) = kelvin(x);
         let close = |u: f64, w: f64| (u - w).abs() <= 1e-9 * w.abs().max(1e-3);
-        assert!(close(b, ber) && close(i, bei) && close(bp, berp) && close(ip, beip), "Kelvin functions at x = {x}");
+        assert!(
+            close(b, ber) && close(i, bei) && close(bp, berp) && close(ip, beip),
+            "Kelvin functions at x = {x}"
+        );
         let fr = round_wire_skin_factor(a * 1e-3, 1e-3);
         assert!((fr - fr_b).abs() < 0.02 * fr_b, "d/δ = {a}: {fr} vs scipy {fr_b}");
-        assert!((fr - fr_b).abs() < 1e-8 * fr_b, "d/δ = {a}: {fr} vs scipy {fr_b} (tight)");
+        assert!(
+            (fr - fr_b).abs() < 1e-8 * fr_b,
+            "d/δ = {a}: {fr} vs scipy {fr_b} (tight)"
+        );
         lines += 1;
     }
     assert!(lines >= 40, "the reference script printed only {lines} values");
@@ -218,11 +227,17 @@ fn fourier_textbook_series() {
         let (re, im) = pulse.fourier_coefficient(n);
         assert!((re - wr).abs() < 1e-12 && (im - wi).abs() < 1e-12, "pulse n={n}");
         let (sr, si) = spec.next().unwrap();
-        assert!((sr - wr).abs() < 1e-11 && (si - wi).abs() < 1e-11, "pulse spectrum n={n}");
+        assert!(
+            (sr - wr).abs() < 1e-11 && (si - wi).abs() < 1e-11,
+            "pulse spectrum n={n}"
+        );
     }
     let tri = triangle(t, 1.5);
     for n in 1..30u32 {
-        assert!((tri.harmonic_rms(n) - triangle_harmonic_rms(1.5, n)).abs() < 1e-12, "triangle n={n}");
+        assert!(
+            (tri.harmonic_rms(n) - triangle_harmonic_rms(1.5, n)).abs() < 1e-12,
+            "triangle n={n}"
+        );
     }
 }
 
@@ -235,7 +250,15 @@ fn parseval_stepped_waveform() {
     let t = 2e-6;
     let w = Pwl::new(
         t,
-        vec![(0.0, 0.0), (0.0, 1.2), (0.35 * t, 1.9), (0.35 * t, -0.4), (0.5 * t, -0.2), (0.5 * t, 0.0), (t, 0.0)],
+        vec![
+            (0.0, 0.0),
+            (0.0, 1.2),
+            (0.35 * t, 1.9),
+            (0.35 * t, -0.4),
+            (0.5 * t, -0.2),
+            (0.5 * t, 0.0),
+            (t, 0.0),
+        ],
     )
     .unwrap();
     let n_max = 200_000usize;
@@ -262,9 +285,17 @@ fn loss_at_low_frequency_is_rdc_irms2() {
     };
     let w = Pwl::new(1.0, vec![(0.0, 0.0), (0.0, 2.0), (0.3, 3.0), (0.3, 0.5), (1.0, 0.5)]).unwrap();
     let m = LossModel::new(&core, &st, 60.0).unwrap();
-    let r = m.evaluate(&[WindingCurrent::new("a", w.clone())], &LossOptions::default()).unwrap();
+    let r = m
+        .evaluate(&[WindingCurrent::new("a", w.clone())], &LossOptions::default())
+        .unwrap();
     let want = m.rdc()[0] * w.rms().powi(2);
-    assert!((r.total - want).abs() < 1e-3 * want, "{} vs {want}; N {} tail {}", r.total, r.harmonics, r.tail_share);
+    assert!(
+        (r.total - want).abs() < 1e-3 * want,
+        "{} vs {want}; N {} tail {}",
+        r.total,
+        r.harmonics,
+        r.tail_share
+    );
     assert!(r.converged);
 }
 
@@ -298,16 +329,27 @@ fn foil_winding_triangle_vs_dowell() {
     let (t, w) = (0.2e-3, 18e-3);
     let turns = 5;
     let temp = 80.0;
-    let st = StackUp { windings: defs(&["p"]), items: vec![section("p", turns, Conductor::foil(t, w).unwrap(), 1, None)] };
+    let st = StackUp {
+        windings: defs(&["p"]),
+        items: vec![section("p", turns, Conductor::foil(t, w).unwrap(), 1, None)],
+    };
     let f = 100e3;
     let a = 4.0;
     let cur = [WindingCurrent::new("p", triangle(1.0 / f, a))];
-    let r = LossModel::new(&core, &st, temp).unwrap().evaluate(&cur, &LossOptions::default()).unwrap();
+    let r = LossModel::new(&core, &st, temp)
+        .unwrap()
+        .evaluate(&cur, &LossOptions::default())
+        .unwrap();
     let d1 = t / delta_skin(temp, 1.0);
     let layers: Vec<TLayer> = (0..turns)
         .map(|k| {
             let mlt = 50e-3 + 2.0 * PI * (k as f64 * t + 0.5 * t);
-            TLayer { rdc: rho(temp) * mlt / (t * w), delta_1hz: d1, fa: k as f64, fb: k as f64 + 1.0 }
+            TLayer {
+                rdc: rho(temp) * mlt / (t * w),
+                delta_1hz: d1,
+                fa: k as f64,
+                fb: k as f64 + 1.0,
+            }
         })
         .collect();
     let want = expected_triangle_loss(&layers, f, a);
@@ -333,16 +375,31 @@ fn interleaved_psp_vs_per_layer_dowell() {
     let f = 200e3;
     let a = 3.0;
     let tape = 50e-6;
-    let tp = || Item::Tape(Tape { material: "polyester film".into(), thickness: tape, wraps: 1 });
+    let tp = || {
+        Item::Tape(Tape {
+            material: "polyester film".into(),
+            thickness: tape,
+            wraps: 1,
+        })
+    };
     let psp = StackUp {
         windings: defs(&["p", "s"]),
-        items: vec![section("p", 2, foil(), 1, None), tp(), section("s", 4, foil(), 1, None), tp(), section("p", 2, foil(), 1, None)],
+        items: vec![
+            section("p", 2, foil(), 1, None),
+            tp(),
+            section("s", 4, foil(), 1, None),
+            tp(),
+            section("p", 2, foil(), 1, None),
+        ],
     };
     let ps = StackUp {
         windings: defs(&["p", "s"]),
         items: vec![section("p", 4, foil(), 1, None), tp(), section("s", 4, foil(), 1, None)],
     };
-    let cur = [WindingCurrent::new("p", triangle(1.0 / f, a)), WindingCurrent::new("s", triangle(1.0 / f, -a))];
+    let cur = [
+        WindingCurrent::new("p", triangle(1.0 / f, a)),
+        WindingCurrent::new("s", triangle(1.0 / f, -a)),
+    ];
     let d1 = t / delta_skin(temp, 1.0);
     // Test's own layer list: (winding sign, height of inner face).
     let build = |order: &[(f64, usize)]| {
@@ -355,7 +412,12 @@ fn interleaved_psp_vs_per_layer_dowell() {
             }
             for _ in 0..n {
                 let mlt = 50e-3 + 2.0 * PI * (h + 0.5 * t);
-                layers.push(TLayer { rdc: rho(temp) * mlt / (t * w), delta_1hz: d1, fa: fmm, fb: fmm + sign });
+                layers.push(TLayer {
+                    rdc: rho(temp) * mlt / (t * w),
+                    delta_1hz: d1,
+                    fa: fmm,
+                    fb: fmm + sign,
+                });
                 fmm += sign;
                 h += t;
             }
@@ -365,12 +427,21 @@ fn interleaved_psp_vs_per_layer_dowell() {
     let l_psp = build(&[(1.0, 2), (-1.0, 4), (1.0, 2)]);
     let l_ps = build(&[(1.0, 4), (-1.0, 4)]);
     for (st, tl) in [(&psp, &l_psp), (&ps, &l_ps)] {
-        let r = LossModel::new(&core, st, temp).unwrap().evaluate(&cur, &LossOptions::default()).unwrap();
+        let r = LossModel::new(&core, st, temp)
+            .unwrap()
+            .evaluate(&cur, &LossOptions::default())
+            .unwrap();
         let want = expected_triangle_loss(tl, f, a);
         assert!((r.total - want).abs() < 2e-3 * want, "{} vs {want}", r.total);
     }
-    let r_psp = LossModel::new(&core, &psp, temp).unwrap().evaluate(&cur, &LossOptions::default()).unwrap();
-    let r_ps = LossModel::new(&core, &ps, temp).unwrap().evaluate(&cur, &LossOptions::default()).unwrap();
+    let r_psp = LossModel::new(&core, &psp, temp)
+        .unwrap()
+        .evaluate(&cur, &LossOptions::default())
+        .unwrap();
+    let r_ps = LossModel::new(&core, &ps, temp)
+        .unwrap()
+        .evaluate(&cur, &LossOptions::default())
+        .unwrap();
     assert!(r_psp.windings[0].fr < r_ps.windings[0].fr);
     // At one frequency (a single harmonic's Δ) the P-S-P primary's layers
     // average to Dowell m = 2, the P-S primary's to m = 4.
@@ -392,12 +463,18 @@ fn round_wire_layers_vs_dowell_equivalent_foil() {
     };
     let tpl = 25;
     let temp = 40.0;
-    let st = StackUp { windings: defs(&["p"]), items: vec![section("p", 3 * tpl, c.clone(), 1, Some(tpl))] };
+    let st = StackUp {
+        windings: defs(&["p"]),
+        items: vec![section("p", 3 * tpl, c.clone(), 1, Some(tpl))],
+    };
     let f = 150e3;
     let a = 1.0;
     let r = LossModel::new(&core, &st, temp)
         .unwrap()
-        .evaluate(&[WindingCurrent::new("p", triangle(1.0 / f, a))], &LossOptions::default())
+        .evaluate(
+            &[WindingCurrent::new("p", triangle(1.0 / f, a))],
+            &LossOptions::default(),
+        )
         .unwrap();
     let sq = 0.5 * PI.sqrt() * d;
     let eta = tpl as f64 * sq / 20e-3;
@@ -429,12 +506,18 @@ fn litz_strand_layers_vs_dowell() {
     let od = c.outer_height();
     let tpl = 10;
     let temp = 25.0;
-    let st = StackUp { windings: defs(&["p"]), items: vec![section("p", 2 * tpl, c, 1, Some(tpl))] };
+    let st = StackUp {
+        windings: defs(&["p"]),
+        items: vec![section("p", 2 * tpl, c, 1, Some(tpl))],
+    };
     let f = 300e3;
     let a = 2.0;
     let r = LossModel::new(&core, &st, temp)
         .unwrap()
-        .evaluate(&[WindingCurrent::new("p", triangle(1.0 / f, a))], &LossOptions::default())
+        .evaluate(
+            &[WindingCurrent::new("p", triangle(1.0 / f, a))],
+            &LossOptions::default(),
+        )
         .unwrap();
     let sq = 0.5 * PI.sqrt() * ds;
     let eta = (tpl * 7) as f64 * sq / 20e-3;
@@ -447,7 +530,12 @@ fn litz_strand_layers_vs_dowell() {
         for j in 0..7 {
             let step = tpl as f64 / 7.0;
             let fa = (k * tpl) as f64 + j as f64 * step;
-            layers.push(TLayer { rdc: rho(temp) * mlt * step * step / (area_layer / 7.0), delta_1hz: d1, fa, fb: fa + step });
+            layers.push(TLayer {
+                rdc: rho(temp) * mlt * step * step / (area_layer / 7.0),
+                delta_1hz: d1,
+                fa,
+                fb: fa + step,
+            });
         }
     }
     let want = expected_triangle_loss(&layers, f, a);
@@ -468,11 +556,21 @@ fn leakage_vs_energy_integral() {
     let ws = Conductor::awg(20, Grade::G2).unwrap();
     let (odp, ods) = (wp.outer_height(), ws.outer_height());
     let gap = 3.0 * 50e-6;
-    let tape = || Item::Tape(Tape { material: "polyester film".into(), thickness: 50e-6, wraps: 3 });
+    let tape = || {
+        Item::Tape(Tape {
+            material: "polyester film".into(),
+            thickness: 50e-6,
+            wraps: 3,
+        })
+    };
     let (np, ns, tpl_p, tpl_s) = (60u32, 15u32, 30u32, 15u32);
     let ps = StackUp {
         windings: defs(&["p", "s"]),
-        items: vec![section("p", np, wp.clone(), 1, Some(tpl_p)), tape(), section("s", ns, ws.clone(), 1, Some(tpl_s))],
+        items: vec![
+            section("p", np, wp.clone(), 1, Some(tpl_p)),
+            tape(),
+            section("s", ns, ws.clone(), 1, Some(tpl_s)),
+        ],
     };
     let psp = StackUp {
         windings: defs(&["p", "s"]),
@@ -557,10 +655,21 @@ fn fit_by_hand() {
     };
     sec.margin_left = 2e-3;
     sec.margin_right = 2e-3;
-    sec.interlayer = Some(Tape { material: "polyester film".into(), thickness: 30e-6, wraps: 1 });
+    sec.interlayer = Some(Tape {
+        material: "polyester film".into(),
+        thickness: 30e-6,
+        wraps: 1,
+    });
     let st = StackUp {
         windings: defs(&["p"]),
-        items: vec![Item::Section(sec), Item::Tape(Tape { material: "polyester film".into(), thickness: 50e-6, wraps: 2 })],
+        items: vec![
+            Item::Section(sec),
+            Item::Tape(Tape {
+                material: "polyester film".into(),
+                thickness: 50e-6,
+                wraps: 2,
+            }),
+        ],
     };
     let r = fit(&core, &st).unwrap();
     assert_eq!(r.sections[0].turns_per_layer, 28);
@@ -596,7 +705,10 @@ fn section_that_does_not_fit_says_by_how_much() {
     core.winding_height = 10.9e-3;
     let e = fit(&core, &st).unwrap_err();
     assert_eq!(e.field(), Some("items[1]"));
-    assert!(e.message().contains("secondary") || e.message().contains("s section"), "{e}");
+    assert!(
+        e.message().contains("secondary") || e.message().contains("s section"),
+        "{e}"
+    );
     assert!(e.message().contains("needs 2.00 mm of build, 0.90 mm left"), "{e}");
 }
 
@@ -607,7 +719,11 @@ fn rich_stackup() -> StackUp {
         Item::Section(s) => s,
         _ => unreachable!(),
     };
-    p.interlayer = Some(Tape { material: "polyester film".into(), thickness: 1.0 / 3.0 * 1e-4, wraps: 1 });
+    p.interlayer = Some(Tape {
+        material: "polyester film".into(),
+        thickness: 1.0 / 3.0 * 1e-4,
+        wraps: 1,
+    });
     p.margin_left = 0.1 + 0.2e-3;
     p.margin_right = 1.7e-3;
     p.direction = Direction::CounterClockwise;
@@ -615,10 +731,30 @@ fn rich_stackup() -> StackUp {
         windings: defs(&["primary", "sekundär \"5 V\"", "aux"]),
         items: vec![
             Item::Section(p),
-            Item::Tape(Tape { material: "polyimide".into(), thickness: 25e-6, wraps: 3 }),
-            Item::Screen(Screen { material: "copper foil".into(), thickness: 35e-6, connection: "primary return".into() }),
-            section("sekundär \"5 V\"", 3, Conductor::foil(0.15e-3, 17.5e-3).unwrap(), 2, Some(1)),
-            section("aux", 7, Conductor::litz(105, 0.071e-3, Grade::G2, 0.7, 0.033e-3).unwrap(), 1, Some(7)),
+            Item::Tape(Tape {
+                material: "polyimide".into(),
+                thickness: 25e-6,
+                wraps: 3,
+            }),
+            Item::Screen(Screen {
+                material: "copper foil".into(),
+                thickness: 35e-6,
+                connection: "primary return".into(),
+            }),
+            section(
+                "sekundär \"5 V\"",
+                3,
+                Conductor::foil(0.15e-3, 17.5e-3).unwrap(),
+                2,
+                Some(1),
+            ),
+            section(
+                "aux",
+                7,
+                Conductor::litz(105, 0.071e-3, Grade::G2, 0.7, 0.033e-3).unwrap(),
+                1,
+                Some(7),
+            ),
             section("aux", 2, Conductor::triple_insulated(0.4e-3, 0.6e-3).unwrap(), 1, None),
         ],
     }
@@ -664,7 +800,10 @@ fn json_malformed_cases_name_the_field() {
     let e = case("\"winding\": \"primary\"", "\"winding\": \"tertiary\"");
     assert_eq!(e.field(), Some("items[0].winding"));
     assert!(e.message().contains("tertiary"), "{e}");
-    let e = case("{\n      \"name\": \"aux\"\n    }", "{\n      \"name\": \"aux\"\n    },\n    {\"name\": \"spare\"}");
+    let e = case(
+        "{\n      \"name\": \"aux\"\n    }",
+        "{\n      \"name\": \"aux\"\n    },\n    {\"name\": \"spare\"}",
+    );
     assert_eq!(e.field(), Some("windings[3]"));
     let e = case("\"kind\": \"round\"", "\"kind\": \"square\"");
     assert_eq!(e.field(), Some("items[0].conductor.kind"));
@@ -707,8 +846,18 @@ fn import_rejects_a_stackup_that_no_longer_fits() {
     let st = default_stackup(
         &core,
         &[
-            WindingSpec { name: "p".into(), turns: 80, conductor: Conductor::awg(28, Grade::G2).unwrap(), parallel: 1 },
-            WindingSpec { name: "s".into(), turns: 8, conductor: Conductor::awg(18, Grade::G2).unwrap(), parallel: 2 },
+            WindingSpec {
+                name: "p".into(),
+                turns: 80,
+                conductor: Conductor::awg(28, Grade::G2).unwrap(),
+                parallel: 1,
+            },
+            WindingSpec {
+                name: "s".into(),
+                turns: 8,
+                conductor: Conductor::awg(18, Grade::G2).unwrap(),
+                parallel: 2,
+            },
         ],
         &Pattern::SplitPrimary,
         &DefaultOptions::default(),
@@ -728,8 +877,18 @@ fn import_rejects_a_stackup_that_no_longer_fits() {
 fn default_stackup_patterns() {
     let core = test_core();
     let ws = [
-        WindingSpec { name: "p".into(), turns: 41, conductor: Conductor::awg(28, Grade::G2).unwrap(), parallel: 1 },
-        WindingSpec { name: "s".into(), turns: 9, conductor: Conductor::awg(20, Grade::G2).unwrap(), parallel: 1 },
+        WindingSpec {
+            name: "p".into(),
+            turns: 41,
+            conductor: Conductor::awg(28, Grade::G2).unwrap(),
+            parallel: 1,
+        },
+        WindingSpec {
+            name: "s".into(),
+            turns: 9,
+            conductor: Conductor::awg(20, Grade::G2).unwrap(),
+            parallel: 1,
+        },
     ];
     let order = |pat: Pattern| -> Vec<(String, u32)> {
         default_stackup(&core, &ws, &pat, &DefaultOptions::default())
@@ -742,8 +901,17 @@ fn default_stackup_patterns() {
     assert_eq!(order(Pattern::Sequential), v(&[("p", 41), ("s", 9)]));
     assert_eq!(order(Pattern::SplitPrimary), v(&[("p", 21), ("s", 9), ("p", 20)]));
     assert_eq!(order(Pattern::SplitSecondaries), v(&[("s", 5), ("p", 41), ("s", 4)]));
-    assert_eq!(order(Pattern::Custom(vec![(1, 3), (0, 41), (1, 6)])), v(&[("s", 3), ("p", 41), ("s", 6)]));
-    assert!(default_stackup(&core, &ws, &Pattern::Custom(vec![(0, 41), (1, 8)]), &DefaultOptions::default()).is_err());
+    assert_eq!(
+        order(Pattern::Custom(vec![(1, 3), (0, 41), (1, 6)])),
+        v(&[("s", 3), ("p", 41), ("s", 6)])
+    );
+    assert!(default_stackup(
+        &core,
+        &ws,
+        &Pattern::Custom(vec![(0, 41), (1, 8)]),
+        &DefaultOptions::default()
+    )
+    .is_err());
 }
 
 /// Ideal steps: a ±A square current in 4 foil layers. The engine's
@@ -757,7 +925,10 @@ fn square_current_tail_vs_long_sum() {
     let (t, w) = (0.15e-3, 18e-3);
     let temp = 100.0;
     let turns = 4;
-    let st = StackUp { windings: defs(&["p"]), items: vec![section("p", turns, Conductor::foil(t, w).unwrap(), 1, None)] };
+    let st = StackUp {
+        windings: defs(&["p"]),
+        items: vec![section("p", turns, Conductor::foil(t, w).unwrap(), 1, None)],
+    };
     let f = 50e3;
     let a = 2.0;
     let p = 1.0 / f;
@@ -783,7 +954,38 @@ fn square_current_tail_vs_long_sum() {
         s += d1 * (m * m + (m - 1.0) * (m - 1.0)) * 8.0 * a * a / (PI * PI) / ((n_max + 1) as f64).sqrt();
         want += rdc * s;
     }
-    assert!((r.total - want).abs() < 2e-3 * want, "{} vs {want} (N {}, tail {})", r.total, r.harmonics, r.tail_share);
-    assert!(r.tail_share > 0.01, "the tail should matter for ideal steps: {}", r.tail_share);
+    assert!(
+        (r.total - want).abs() < 2e-3 * want,
+        "{} vs {want} (N {}, tail {})",
+        r.total,
+        r.harmonics,
+        r.tail_share
+    );
+    assert!(
+        r.tail_share > 0.01,
+        "the tail should matter for ideal steps: {}",
+        r.tail_share
+    );
     assert!(r.harmonics <= 256, "{}", r.harmonics);
+}
+
+/// The example in docs/stackup.md is a valid file that fits a bobbin of
+/// 20 mm × 6 mm, and survives the round trip.
+#[test]
+fn documented_example_parses() {
+    let doc = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/../docs/stackup.md")).unwrap();
+    let start = doc.find("```json").expect("docs/stackup.md has a json example") + "```json".len();
+    let end = start + doc[start..].find("```").unwrap();
+    let st = import(&doc[start..end], &test_core()).unwrap();
+    assert_eq!(st.sections().count(), 3);
+    assert_eq!(from_json(&to_json(&st)).unwrap(), st);
+    assert!(leakage(&test_core(), &st, "primary").unwrap() > 0.0);
+    // The error quoted in the document, on a 1.0 mm winding height.
+    let mut small = test_core();
+    small.winding_height = 1.0e-3;
+    let e = import(&doc[start..end], &small).unwrap_err();
+    assert_eq!(
+        e.to_string(),
+        "items[4]: the secondary section needs 0.88 mm of build, 0.30 mm left"
+    );
 }

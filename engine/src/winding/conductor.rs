@@ -45,7 +45,10 @@ impl Grade {
             1 => Ok(Grade::G1),
             2 => Ok(Grade::G2),
             3 => Ok(Grade::G3),
-            _ => Err(Error::input("grade", format!("enamel grade must be 1, 2 or 3 (got {g})"))),
+            _ => Err(Error::input(
+                "grade",
+                format!("enamel grade must be 1, 2 or 3 (got {g})"),
+            )),
         }
     }
 }
@@ -117,14 +120,20 @@ impl Conductor {
     /// enamel grade.
     pub fn awg(n: i32, grade: Grade) -> Result<Conductor> {
         let d = awg_diameter(n)?;
-        Ok(Conductor::Round(RoundWire { bare_diameter: d, overall_diameter: enamel_overall_diameter(d, grade) }))
+        Ok(Conductor::Round(RoundWire {
+            bare_diameter: d,
+            overall_diameter: enamel_overall_diameter(d, grade),
+        }))
     }
 
     /// Enamelled round wire of metric nominal bare diameter `d` (m,
     /// 0.01 mm to 5 mm, the IEC 60317 range) and enamel grade.
     pub fn metric(d: f64, grade: Grade) -> Result<Conductor> {
         in_range("bare_diameter", d * 1e3, 0.01, 5.0, "mm")?;
-        Ok(Conductor::Round(RoundWire { bare_diameter: d, overall_diameter: enamel_overall_diameter(d, grade) }))
+        Ok(Conductor::Round(RoundWire {
+            bare_diameter: d,
+            overall_diameter: enamel_overall_diameter(d, grade),
+        }))
     }
 
     /// Litz of `strands` enamelled strands of bare diameter `strand_d` (m)
@@ -153,7 +162,10 @@ impl Conductor {
     /// `overall` (m). For a typical product the overall diameter is about
     /// d + 0.2 mm (from memory; use the supplier's data).
     pub fn triple_insulated(d: f64, overall: f64) -> Result<Conductor> {
-        let c = Conductor::TripleInsulated(RoundWire { bare_diameter: d, overall_diameter: overall });
+        let c = Conductor::TripleInsulated(RoundWire {
+            bare_diameter: d,
+            overall_diameter: overall,
+        });
         c.validate("conductor")?;
         Ok(c)
     }
@@ -161,9 +173,16 @@ impl Conductor {
     /// Checks every dimension; `field` prefixes the error's field name.
     pub fn validate(&self, field: &str) -> Result<()> {
         let f = |k: &str| format!("{field}.{k}");
+        let at_least_1um = |k: &str, v: f64| -> Result<()> {
+            positive(k, v, "m")?;
+            if v < 1e-6 {
+                return Err(Error::input(k, format!("{v} m is under 1 µm; lengths are in metres")));
+            }
+            Ok(())
+        };
         match self {
             Conductor::Round(w) | Conductor::TripleInsulated(w) => {
-                positive(&f("bare_diameter_m"), w.bare_diameter, "m")?;
+                at_least_1um(&f("bare_diameter_m"), w.bare_diameter)?;
                 positive(&f("overall_diameter_m"), w.overall_diameter, "m")?;
                 if w.overall_diameter < w.bare_diameter {
                     return Err(Error::input(
@@ -172,7 +191,10 @@ impl Conductor {
                     ));
                 }
                 if w.bare_diameter > 0.05 {
-                    return Err(Error::input(&f("bare_diameter_m"), "a round conductor over 50 mm is not a winding wire"));
+                    return Err(Error::input(
+                        &f("bare_diameter_m"),
+                        "a round conductor over 50 mm is not a winding wire",
+                    ));
                 }
             }
             Conductor::Litz(l) => {
@@ -180,9 +202,12 @@ impl Conductor {
                     return Err(Error::input(&f("strands"), "a litz bundle needs at least one strand"));
                 }
                 if l.strands > 100_000 {
-                    return Err(Error::input(&f("strands"), "more than 100000 strands is not a litz bundle"));
+                    return Err(Error::input(
+                        &f("strands"),
+                        "more than 100000 strands is not a litz bundle",
+                    ));
                 }
-                positive(&f("strand_diameter_m"), l.strand_diameter, "m")?;
+                at_least_1um(&f("strand_diameter_m"), l.strand_diameter)?;
                 positive(&f("strand_overall_diameter_m"), l.strand_overall_diameter, "m")?;
                 if l.strand_overall_diameter < l.strand_diameter {
                     return Err(Error::input(
@@ -191,19 +216,37 @@ impl Conductor {
                     ));
                 }
                 if l.strand_diameter > 0.005 {
-                    return Err(Error::input(&f("strand_diameter_m"), "a litz strand over 5 mm is not a strand"));
+                    return Err(Error::input(
+                        &f("strand_diameter_m"),
+                        "a litz strand over 5 mm is not a strand",
+                    ));
                 }
                 if !(l.packing.is_finite() && l.packing > 0.0 && l.packing <= HEX_PACKING) {
                     return Err(Error::input(
                         &f("packing"),
-                        format!("the packing factor must lie in (0, {HEX_PACKING:.3}] (got {})", l.packing),
+                        format!(
+                            "the packing factor must lie in (0, {HEX_PACKING:.3}] (got {})",
+                            l.packing
+                        ),
                     ));
                 }
                 crate::error::non_negative(&f("serving_m"), l.serving, "m")?;
             }
             Conductor::Foil(fo) => {
-                positive(&f("thickness_m"), fo.thickness, "m")?;
-                positive(&f("width_m"), fo.width, "m")?;
+                at_least_1um(&f("thickness_m"), fo.thickness)?;
+                at_least_1um(&f("width_m"), fo.width)?;
+                if fo.thickness > 0.01 {
+                    return Err(Error::input(
+                        &f("thickness_m"),
+                        "a foil over 10 mm thick is not a winding foil",
+                    ));
+                }
+                if fo.width > 1.0 {
+                    return Err(Error::input(
+                        &f("width_m"),
+                        "a foil over 1 m wide is not a winding foil",
+                    ));
+                }
             }
         }
         Ok(())
@@ -232,9 +275,7 @@ impl Conductor {
     pub fn outer_height(&self) -> f64 {
         match self {
             Conductor::Round(w) | Conductor::TripleInsulated(w) => w.overall_diameter,
-            Conductor::Litz(l) => {
-                l.strand_overall_diameter * (l.strands as f64 / l.packing).sqrt() + 2.0 * l.serving
-            }
+            Conductor::Litz(l) => l.strand_overall_diameter * (l.strands as f64 / l.packing).sqrt() + 2.0 * l.serving,
             Conductor::Foil(f) => f.thickness,
         }
     }
@@ -248,7 +289,11 @@ impl Conductor {
     pub fn describe(&self) -> String {
         match self {
             Conductor::Round(w) => {
-                format!("round {:.3} mm ({:.3} mm overall)", w.bare_diameter * 1e3, w.overall_diameter * 1e3)
+                format!(
+                    "round {:.3} mm ({:.3} mm overall)",
+                    w.bare_diameter * 1e3,
+                    w.overall_diameter * 1e3
+                )
             }
             Conductor::TripleInsulated(w) => format!(
                 "triple-insulated {:.3} mm ({:.3} mm overall)",

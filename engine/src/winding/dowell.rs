@@ -116,7 +116,10 @@ mod tests {
         for d in [0.499_999, 0.5, 19.99, 20.0, 20.01] {
             let (a1, a2) = dpsi(d);
             let (b1, b2) = direct(d);
-            assert!((a1 - b1).abs() < 1e-9 * b1 && (a2 - b2).abs() < 1e-9, "{d}: {a1} {b1} / {a2} {b2}");
+            assert!(
+                (a1 - b1).abs() < 1e-9 * b1 && (a2 - b2).abs() < 1e-9,
+                "{d}: {a1} {b1} / {a2} {b2}"
+            );
         }
         assert_eq!(dpsi(0.0), (1.0, 0.5));
         let (p1, _) = dpsi(1e6);

@@ -29,9 +29,10 @@ use super::conductor::Conductor;
 use super::stackup::{Item, Section, StackUp};
 use crate::core::Core;
 use crate::error::{positive, Error, Result};
+use serde::Serialize;
 
 /// One physical layer of conductor.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LayerFit {
     /// Index of the section's item in [`StackUp::items`].
     pub item: usize,
@@ -56,7 +57,7 @@ pub struct LayerFit {
 }
 
 /// One section after fitting.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct SectionFit {
     pub item: usize,
     pub winding: String,
@@ -73,7 +74,7 @@ pub struct SectionFit {
 }
 
 /// The fit of a whole stack-up.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct FitReport {
     pub sections: Vec<SectionFit>,
     /// Every layer, from the bobbin outward.
@@ -92,6 +93,9 @@ pub struct FitReport {
     pub fill_factor: f64,
 }
 
+/// Most layers a stack-up may have (a guard against absurd input).
+pub const MAX_LAYERS: u64 = 10_000;
+
 fn mm(x: f64) -> String {
     format!("{:.2} mm", x * 1e3)
 }
@@ -102,23 +106,39 @@ pub fn layout(sec: &Section, breadth: f64, field: &str) -> Result<(u32, u32)> {
     if !(breadth.is_finite() && breadth > 0.0) {
         return Err(Error::infeasible(
             Some(field),
-            format!("the margin tapes leave no winding breadth ({} left)", mm(breadth.max(0.0))),
+            format!(
+                "the margin tapes leave no winding breadth ({} left)",
+                mm(breadth.max(0.0))
+            ),
         ));
     }
-    let n = sec.turns.max(1);
-    let p = sec.parallel.max(1);
+    if sec.turns == 0 || sec.parallel == 0 || sec.layers == Some(0) || sec.turns_per_layer == Some(0) {
+        return Err(Error::input(
+            field,
+            "turns, conductors in hand, layers and turns per layer must be at least 1",
+        ));
+    }
+    let n = sec.turns;
+    let p = sec.parallel;
     if sec.conductor.is_foil() {
         let w = sec.conductor.outer_width();
         if w > breadth * (1.0 + 1e-12) {
             return Err(Error::infeasible(
                 Some(field),
-                format!("the foil is {} wide but only {} of breadth is left between the margins", mm(w), mm(breadth)),
+                format!(
+                    "the foil is {} wide but only {} of breadth is left between the margins",
+                    mm(w),
+                    mm(breadth)
+                ),
             ));
         }
         let layers = n.saturating_mul(p);
         if let Some(t) = sec.turns_per_layer {
             if t != 1 {
-                return Err(Error::input(&format!("{field}.turns_per_layer"), "a foil has one turn per layer"));
+                return Err(Error::input(
+                    &format!("{field}.turns_per_layer"),
+                    "a foil has one turn per layer",
+                ));
             }
         }
         if let Some(l) = sec.layers {
@@ -146,7 +166,11 @@ pub fn layout(sec: &Section, breadth: f64, field: &str) -> Result<(u32, u32)> {
     let too_many = |tpl: u32| {
         Error::infeasible(
             Some(&format!("{field}.turns_per_layer")),
-            format!("{tpl} turns per layer need {} of breadth; only {} is left (at most {max})", mm(tpl as f64 * pitch), mm(breadth)),
+            format!(
+                "{tpl} turns per layer need {} of breadth; only {} is left (at most {max})",
+                mm(tpl as f64 * pitch),
+                mm(breadth)
+            ),
         )
     };
     match (sec.turns_per_layer, sec.layers) {
@@ -154,7 +178,7 @@ pub fn layout(sec: &Section, breadth: f64, field: &str) -> Result<(u32, u32)> {
             if tpl > max {
                 return Err(too_many(tpl));
             }
-            if (l as u64) * (tpl as u64) < n as u64 || ((l - 1) as u64) * (tpl as u64) >= n as u64 {
+            if (l as u64) * (tpl as u64) < n as u64 || ((l.saturating_sub(1)) as u64) * (tpl as u64) >= n as u64 {
                 return Err(Error::input(
                     &format!("{field}.layers"),
                     format!("{n} turns at {tpl} per layer make {} layers, not {l}", n.div_ceil(tpl)),
@@ -170,7 +194,10 @@ pub fn layout(sec: &Section, breadth: f64, field: &str) -> Result<(u32, u32)> {
         }
         (None, Some(l)) => {
             if l > n {
-                return Err(Error::input(&format!("{field}.layers"), format!("{l} layers for only {n} turns")));
+                return Err(Error::input(
+                    &format!("{field}.layers"),
+                    format!("{l} layers for only {n} turns"),
+                ));
             }
             let tpl = n.div_ceil(l);
             if tpl > max {
@@ -243,6 +270,12 @@ pub fn fit(core: &Core, st: &StackUp) -> Result<FitReport> {
                 let field = format!("items[{i}]");
                 let breadth = core.winding_breadth - sec.margin_left - sec.margin_right;
                 let (tpl, nl) = layout(sec, breadth, &field)?;
+                if layers.len() as u64 + nl as u64 > MAX_LAYERS {
+                    return Err(Error::input(
+                        &field,
+                        format!("more than {MAX_LAYERS} layers in the stack-up"),
+                    ));
+                }
                 let lh = sec.conductor.outer_height();
                 let tape = sec.interlayer.as_ref().map_or(0.0, |t| t.build());
                 let build = nl as f64 * lh + (nl.saturating_sub(1)) as f64 * tape;
@@ -254,7 +287,11 @@ pub fn fit(core: &Core, st: &StackUp) -> Result<FitReport> {
                 let mut y = h;
                 for k in 0..nl {
                     let turns = layer_turns(sec, tpl, nl, k);
-                    let (mmf, area) = if foil { (1.0 / p, a1) } else { (turns as f64, turns as f64 * p * a1) };
+                    let (mmf, area) = if foil {
+                        (1.0 / p, a1)
+                    } else {
+                        (turns as f64, turns as f64 * p * a1)
+                    };
                     layers.push(LayerFit {
                         item: i,
                         winding: w,

@@ -47,7 +47,10 @@ const MAX_DEPTH: usize = 64;
 
 /// Parses a JSON document. The error is a message with line and column.
 pub fn parse(text: &str) -> Result<Json, String> {
-    let mut p = Parser { s: text.as_bytes(), i: 0 };
+    let mut p = Parser {
+        s: text.as_bytes(),
+        i: 0,
+    };
     p.ws();
     let v = p.value(0)?;
     p.ws();
@@ -200,7 +203,10 @@ impl Parser<'_> {
     }
 
     fn hex4(&mut self) -> Result<u32, String> {
-        let h = self.s.get(self.i..self.i + 4).ok_or_else(|| self.err("bad \\u escape"))?;
+        let h = self
+            .s
+            .get(self.i..self.i + 4)
+            .ok_or_else(|| self.err("bad \\u escape"))?;
         let h = std::str::from_utf8(h).map_err(|_| self.err("bad \\u escape"))?;
         let v = u32::from_str_radix(h, 16).map_err(|_| self.err("bad \\u escape"))?;
         self.i += 4;
@@ -353,7 +359,17 @@ mod tests {
         let v = parse(r#"{"a": [1, -2.5e-3, true, null], "b": "x\"\u00e9\ud83d\ude00"}"#).unwrap();
         assert_eq!(v.get("b"), Some(&Json::Str("x\"é😀".into())));
         assert_eq!(parse(&write(&v)).unwrap(), v);
-        for bad in ["", "{", "[1,]", "{\"a\" 1}", "01x", "\"\\q\"", "1e999", "{\"a\":1,\"a\":2}", "[1] 2"] {
+        for bad in [
+            "",
+            "{",
+            "[1,]",
+            "{\"a\" 1}",
+            "01x",
+            "\"\\q\"",
+            "1e999",
+            "{\"a\":1,\"a\":2}",
+            "[1] 2",
+        ] {
             assert!(parse(bad).is_err(), "{bad}");
         }
         let deep = "[".repeat(1000);
@@ -362,7 +378,18 @@ mod tests {
 
     #[test]
     fn numbers_round_trip_exactly() {
-        for x in [3.0, -7.0, 1e15, 0.1 + 0.2, 1.0 / 3.0 * 1e-3, 5e-324, 1.7976931348623157e308, -0.0, 0.000566, 123456789.123] {
+        for x in [
+            3.0,
+            -7.0,
+            1e15,
+            0.1 + 0.2,
+            1.0 / 3.0 * 1e-3,
+            5e-324,
+            1.7976931348623157e308,
+            -0.0,
+            0.000566,
+            123456789.123,
+        ] {
             let s = write(&Json::Num(x));
             match parse(&s).unwrap() {
                 Json::Num(y) => assert_eq!(x.to_bits(), y.to_bits(), "{s}"),

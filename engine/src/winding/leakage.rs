@@ -26,9 +26,9 @@
 //! assumption for several; use [`leakage_with_currents`] for any other
 //! distribution.
 
+use super::dowell::MU0;
 use super::fit::{fit, FitReport};
 use super::stackup::StackUp;
-use super::dowell::MU0;
 use crate::core::Core;
 use crate::error::{Error, Result};
 
@@ -36,9 +36,12 @@ use crate::error::{Error, Result};
 /// carrying the balancing ampere-turns in proportion to their copper area.
 pub fn leakage(core: &Core, st: &StackUp, reference: &str) -> Result<f64> {
     let fr = fit(core, st)?;
-    let r = st
-        .winding_index(reference)
-        .ok_or_else(|| Error::input("reference_winding", format!("no winding \"{reference}\" in the stack-up")))?;
+    let r = st.winding_index(reference).ok_or_else(|| {
+        Error::input(
+            "reference_winding",
+            format!("no winding \"{reference}\" in the stack-up"),
+        )
+    })?;
     if st.windings.len() < 2 {
         return Err(Error::input("windings", "leakage needs at least two windings"));
     }
@@ -56,7 +59,11 @@ pub fn leakage(core: &Core, st: &StackUp, reference: &str) -> Result<f64> {
     amps[r] = 1.0;
     for w in (0..nw).filter(|&w| w != r) {
         let share = if others > 0.0 { copper[w] / others } else { 0.0 };
-        amps[w] = if turns[w] > 0.0 { -turns[r] * share / turns[w] } else { 0.0 };
+        amps[w] = if turns[w] > 0.0 {
+            -turns[r] * share / turns[w]
+        } else {
+            0.0
+        };
     }
     Ok(energy_inductance(core, &fr, &amps, 1.0))
 }
@@ -65,22 +72,31 @@ pub fn leakage(core: &Core, st: &StackUp, reference: &str) -> Result<f64> {
 /// currents (A, dot convention, one per winding name); L = 2W/I_ref².
 pub fn leakage_with_currents(core: &Core, st: &StackUp, reference: &str, currents: &[(String, f64)]) -> Result<f64> {
     let fr = fit(core, st)?;
-    let r = st
-        .winding_index(reference)
-        .ok_or_else(|| Error::input("reference_winding", format!("no winding \"{reference}\" in the stack-up")))?;
+    let r = st.winding_index(reference).ok_or_else(|| {
+        Error::input(
+            "reference_winding",
+            format!("no winding \"{reference}\" in the stack-up"),
+        )
+    })?;
     let mut amps = vec![0.0; st.windings.len()];
     for (i, (name, a)) in currents.iter().enumerate() {
         let w = st
             .winding_index(name)
             .ok_or_else(|| Error::input(&format!("currents[{i}].name"), format!("no winding \"{name}\"")))?;
         if !a.is_finite() {
-            return Err(Error::input(&format!("currents[{i}].current"), "must be a finite number of A"));
+            return Err(Error::input(
+                &format!("currents[{i}].current"),
+                "must be a finite number of A",
+            ));
         }
         amps[w] = *a;
     }
     let iref = amps[r];
     if iref == 0.0 {
-        return Err(Error::input("currents", format!("the reference winding \"{reference}\" carries no current")));
+        return Err(Error::input(
+            "currents",
+            format!("the reference winding \"{reference}\" carries no current"),
+        ));
     }
     Ok(energy_inductance(core, &fr, &amps, iref))
 }
@@ -94,7 +110,9 @@ fn energy_inductance(core: &Core, fr: &FitReport, amps: &[f64], iref: f64) -> f6
         let xm = 0.5 * (x0 + x1);
         let fm = 0.5 * (fa + fb);
         (x1 - x0) / 6.0
-            * (fa * fa * core.turn_length_at(x0) + 4.0 * fm * fm * core.turn_length_at(xm) + fb * fb * core.turn_length_at(x1))
+            * (fa * fa * core.turn_length_at(x0)
+                + 4.0 * fm * fm * core.turn_length_at(xm)
+                + fb * fb * core.turn_length_at(x1))
     };
     let mut f = 0.0;
     let mut x = 0.0;

@@ -85,6 +85,7 @@ use super::Conductor;
 use crate::core::Core;
 use crate::error::{in_range, Error, Result};
 use crate::waveform::Pwl;
+use serde::Serialize;
 use std::f64::consts::PI;
 
 /// The current of one winding (dot convention, see the module docs).
@@ -96,12 +97,18 @@ pub struct WindingCurrent {
 
 impl WindingCurrent {
     pub fn new(name: &str, current: Pwl) -> Self {
-        WindingCurrent { name: name.to_string(), current }
+        WindingCurrent {
+            name: name.to_string(),
+            current,
+        }
     }
     /// A winding that delivers `current` (given positive while it
     /// conducts, as rectifier currents usually are): stored negated.
     pub fn delivered(name: &str, current: &Pwl) -> Self {
-        WindingCurrent { name: name.to_string(), current: current.scaled(-1.0) }
+        WindingCurrent {
+            name: name.to_string(),
+            current: current.scaled(-1.0),
+        }
     }
 }
 
@@ -119,12 +126,16 @@ pub struct LossOptions {
 
 impl Default for LossOptions {
     fn default() -> Self {
-        LossOptions { edge_time: 0.0, tolerance: 1e-3, max_harmonics: 4096 }
+        LossOptions {
+            edge_time: 0.0,
+            tolerance: 1e-3,
+            max_harmonics: 4096,
+        }
     }
 }
 
 /// Loss of one layer.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LayerLoss {
     /// Item index of the layer's section in the stack-up.
     pub item: usize,
@@ -137,7 +148,7 @@ pub struct LayerLoss {
 }
 
 /// Loss of one winding.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct WindingLoss {
     pub name: String,
     /// RMS current, A.
@@ -155,7 +166,7 @@ pub struct WindingLoss {
 }
 
 /// The copper-loss report.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct LossReport {
     pub windings: Vec<WindingLoss>,
     /// Total copper loss, W.
@@ -270,7 +281,13 @@ impl LossModel {
                 class,
             });
         }
-        Ok(LossModel { names: st.windings.iter().map(|w| w.name.clone()).collect(), layers, classes, rdc, temperature: temp_c })
+        Ok(LossModel {
+            names: st.windings.iter().map(|w| w.name.clone()).collect(),
+            layers,
+            classes,
+            rdc,
+            temperature: temp_c,
+        })
     }
 
     /// DC resistance of each winding at the model's temperature, Ω, in the
@@ -286,14 +303,20 @@ impl LossModel {
         let mut by_w: Vec<Option<&Pwl>> = vec![None; nw];
         for (i, c) in currents.iter().enumerate() {
             let w = self.names.iter().position(|n| *n == c.name).ok_or_else(|| {
-                Error::input(&format!("currents[{i}].name"), format!("no winding \"{}\" in the stack-up", c.name))
+                Error::input(
+                    &format!("currents[{i}].name"),
+                    format!("no winding \"{}\" in the stack-up", c.name),
+                )
             })?;
             if by_w[w].is_some() {
-                return Err(Error::input(&format!("currents[{i}].name"), format!("two currents for \"{}\"", c.name)));
+                return Err(Error::input(
+                    &format!("currents[{i}].name"),
+                    format!("two currents for \"{}\"", c.name),
+                ));
             }
-            c.current.validate().map_err(|e| {
-                Error::input(&format!("currents[{i}].current"), e.message().to_string())
-            })?;
+            c.current
+                .validate()
+                .map_err(|e| Error::input(&format!("currents[{i}].current"), e.message().to_string()))?;
             by_w[w] = Some(&c.current);
         }
         let mut pwls: Vec<&Pwl> = Vec::with_capacity(nw);
@@ -303,17 +326,26 @@ impl LossModel {
                 None => {
                     return Err(Error::input(
                         "currents",
-                        format!("no current for the winding \"{}\" (give a zero waveform if it is idle)", self.names[w]),
+                        format!(
+                            "no current for the winding \"{}\" (give a zero waveform if it is idle)",
+                            self.names[w]
+                        ),
                     ))
                 }
             }
         }
-        let period = pwls.first().map(|p| p.period).ok_or_else(|| Error::input("currents", "no windings"))?;
+        let period = pwls
+            .first()
+            .map(|p| p.period)
+            .ok_or_else(|| Error::input("currents", "no windings"))?;
         for (w, p) in pwls.iter().enumerate() {
             if (p.period - period).abs() > 1e-9 * period {
                 return Err(Error::input(
                     "currents",
-                    format!("the current of \"{}\" has a period of {} s, the first one {} s", self.names[w], p.period, period),
+                    format!(
+                        "the current of \"{}\" has a period of {} s, the first one {} s",
+                        self.names[w], p.period, period
+                    ),
                 ));
             }
         }
@@ -366,7 +398,11 @@ impl LossModel {
             }
             if n == next_check || n == max_n {
                 let odd_only = even_loss <= 1e-12 * odd_loss;
-                let x0 = if odd_only && n % 2 == 0 { n as f64 } else { n as f64 + 0.5 };
+                let x0 = if odd_only && n.is_multiple_of(2) {
+                    n as f64
+                } else {
+                    n as f64 + 0.5
+                };
                 tail = self.tail(&tail_stats, x0, f1, opts.edge_time, &base, &mut tail_layers);
                 let est = explicit + tail;
                 if let Some(prev) = prev_est {
@@ -376,7 +412,11 @@ impl LossModel {
                     }
                 }
                 prev_est = Some(est);
-                next_check = if next_check.is_power_of_two() { next_check / 2 * 3 } else { next_check / 3 * 4 };
+                next_check = if next_check.is_power_of_two() {
+                    next_check / 2 * 3
+                } else {
+                    next_check / 3 * 4
+                };
             }
         }
         let total = explicit + tail;
@@ -395,12 +435,21 @@ impl LossModel {
             let loss = clean(layer_loss[i] + tail_layers[i]);
             if let Some(w) = out.get_mut(l.winding) {
                 w.ac_loss += loss;
-                w.layers.push(LayerLoss { item: l.item, layer: l.index, h_bottom: l.h_bottom, loss });
+                w.layers.push(LayerLoss {
+                    item: l.item,
+                    layer: l.index,
+                    h_bottom: l.h_bottom,
+                    loss,
+                });
             }
         }
         for w in &mut out {
             w.dc_loss = w.rdc * w.rms_current * w.rms_current;
-            w.fr = if w.dc_loss > 0.0 { clean(w.ac_loss / w.dc_loss) } else { 1.0 };
+            w.fr = if w.dc_loss > 0.0 {
+                clean(w.ac_loss / w.dc_loss)
+            } else {
+                1.0
+            };
         }
         Ok(LossReport {
             windings: out,
@@ -574,5 +623,111 @@ mod tests {
             let (ca, cb) = strand_sums(m as f64, a2, x, d2);
             assert!((ca - sa).abs() < 1e-12 && (cb - sb).abs() < 1e-12, "{m}");
         }
+    }
+
+    fn two_winding() -> (Core, StackUp) {
+        use crate::winding::stackup::{default_stackup, DefaultOptions, Pattern, WindingSpec};
+        use crate::winding::Grade;
+        let core = crate::core::library::find("ETD 29").unwrap();
+        let ws = [
+            WindingSpec {
+                name: "p".into(),
+                turns: 30,
+                conductor: Conductor::awg(26, Grade::G2).unwrap(),
+                parallel: 1,
+            },
+            WindingSpec {
+                name: "s".into(),
+                turns: 5,
+                conductor: Conductor::foil(0.1e-3, 15e-3).unwrap(),
+                parallel: 2,
+            },
+        ];
+        let st = default_stackup(&core, &ws, &Pattern::SplitPrimary, &DefaultOptions::default()).unwrap();
+        (core, st)
+    }
+
+    #[test]
+    fn bad_currents_are_named_errors() {
+        let (core, st) = two_winding();
+        let m = LossModel::new(&core, &st, 25.0).unwrap();
+        let w = Pwl::new(1e-5, vec![(0.0, 1.0), (1e-5, 1.0)]).unwrap();
+        let w2 = Pwl::new(2e-5, vec![(0.0, 1.0), (2e-5, 1.0)]).unwrap();
+        let opts = LossOptions::default();
+        let e = m.evaluate(&[WindingCurrent::new("p", w.clone())], &opts).unwrap_err();
+        assert_eq!(e.field(), Some("currents"));
+        let e = m
+            .evaluate(
+                &[WindingCurrent::new("p", w.clone()), WindingCurrent::new("x", w.clone())],
+                &opts,
+            )
+            .unwrap_err();
+        assert_eq!(e.field(), Some("currents[1].name"));
+        let e = m
+            .evaluate(
+                &[WindingCurrent::new("p", w.clone()), WindingCurrent::new("s", w2)],
+                &opts,
+            )
+            .unwrap_err();
+        assert_eq!(e.field(), Some("currents"));
+        let bad = Pwl {
+            period: 1e-5,
+            points: vec![(0.0, f64::NAN), (1e-5, 0.0)],
+        };
+        let e = m
+            .evaluate(
+                &[WindingCurrent::new("p", w.clone()), WindingCurrent::new("s", bad)],
+                &opts,
+            )
+            .unwrap_err();
+        assert_eq!(e.field(), Some("currents[1].current"));
+        let e = m
+            .evaluate(
+                &[WindingCurrent::new("p", w.clone()), WindingCurrent::new("s", w.clone())],
+                &LossOptions {
+                    edge_time: -1.0,
+                    ..opts
+                },
+            )
+            .unwrap_err();
+        assert_eq!(e.field(), Some("edge_time"));
+        assert!(LossModel::new(&core, &st, f64::NAN).is_err());
+    }
+
+    /// Zero currents give zero loss and finite factors; an idle winding in
+    /// the other's field still has proximity loss; DC through a layer
+    /// costs exactly Rdc·I².
+    #[test]
+    fn idle_zero_and_dc_cases() {
+        let (core, st) = two_winding();
+        let m = LossModel::new(&core, &st, 25.0).unwrap();
+        let zero = Pwl::new(1e-5, vec![(0.0, 0.0), (1e-5, 0.0)]).unwrap();
+        let sq = Pwl::new(1e-5, vec![(0.0, 1.0), (5e-6, 1.0), (5e-6, -1.0), (1e-5, -1.0)]).unwrap();
+        let dc = Pwl::new(1e-5, vec![(0.0, 2.0), (1e-5, 2.0)]).unwrap();
+        let opts = LossOptions::default();
+        let r = m
+            .evaluate(
+                &[
+                    WindingCurrent::new("p", zero.clone()),
+                    WindingCurrent::new("s", zero.clone()),
+                ],
+                &opts,
+            )
+            .unwrap();
+        assert_eq!(r.total, 0.0);
+        assert!(r.windings.iter().all(|w| w.fr == 1.0 && w.ac_loss == 0.0));
+        let r = m
+            .evaluate(
+                &[WindingCurrent::new("p", sq), WindingCurrent::new("s", zero.clone())],
+                &opts,
+            )
+            .unwrap();
+        assert!(r.windings[1].ac_loss > 0.0 && r.windings[1].fr == 1.0);
+        assert!(r.total.is_finite() && r.tail_share > 0.0 && r.tail_share < 1.0);
+        let r = m
+            .evaluate(&[WindingCurrent::new("p", dc), WindingCurrent::new("s", zero)], &opts)
+            .unwrap();
+        let want = m.rdc()[0] * 4.0;
+        assert!((r.total - want).abs() < 1e-12 * want && (r.windings[0].fr - 1.0).abs() < 1e-12);
     }
 }

@@ -80,7 +80,11 @@ impl Tape {
     /// Polyester film 0.05 mm × `wraps` (a common choice; common practice,
     /// no source).
     pub fn polyester(wraps: u32) -> Tape {
-        Tape { material: "polyester film".into(), thickness: 0.05e-3, wraps }
+        Tape {
+            material: "polyester film".into(),
+            thickness: 0.05e-3,
+            wraps,
+        }
     }
 }
 
@@ -160,7 +164,10 @@ impl StackUp {
 
     /// Total turns of a winding (sum over its sections).
     pub fn turns_of(&self, name: &str) -> u64 {
-        self.sections().filter(|(_, s)| s.winding == name).map(|(_, s)| s.turns as u64).sum()
+        self.sections()
+            .filter(|(_, s)| s.winding == name)
+            .map(|(_, s)| s.turns as u64)
+            .sum()
     }
 
     /// Checks every value and every reference; errors name the field
@@ -193,6 +200,18 @@ impl StackUp {
                     if s.turns == 0 {
                         return Err(Error::input(&format!("{p}.turns"), "a section needs at least one turn"));
                     }
+                    if s.turns > 100_000 {
+                        return Err(Error::input(
+                            &format!("{p}.turns"),
+                            "more than 100000 turns in one section",
+                        ));
+                    }
+                    if s.parallel > 1000 {
+                        return Err(Error::input(
+                            &format!("{p}.parallel"),
+                            "more than 1000 conductors in hand",
+                        ));
+                    }
                     if s.parallel == 0 {
                         return Err(Error::input(&format!("{p}.parallel"), "at least one conductor in hand"));
                     }
@@ -200,7 +219,10 @@ impl StackUp {
                         return Err(Error::input(&format!("{p}.layers"), "at least one layer"));
                     }
                     if s.turns_per_layer == Some(0) {
-                        return Err(Error::input(&format!("{p}.turns_per_layer"), "at least one turn per layer"));
+                        return Err(Error::input(
+                            &format!("{p}.turns_per_layer"),
+                            "at least one turn per layer",
+                        ));
                     }
                     s.conductor.validate(&format!("{p}.conductor"))?;
                     non_negative(&format!("{p}.margin_left_m"), s.margin_left, "m")?;
@@ -213,7 +235,10 @@ impl StackUp {
                 Item::Screen(sc) => {
                     positive(&format!("{p}.thickness_m"), sc.thickness, "m")?;
                     if sc.thickness > 0.01 {
-                        return Err(Error::input(&format!("{p}.thickness_m"), "a screen over 10 mm thick is not a screen"));
+                        return Err(Error::input(
+                            &format!("{p}.thickness_m"),
+                            "a screen over 10 mm thick is not a screen",
+                        ));
                     }
                 }
             }
@@ -233,7 +258,13 @@ impl StackUp {
 fn validate_tape(p: &str, t: &Tape) -> Result<()> {
     positive(&format!("{p}.thickness_m"), t.thickness, "m")?;
     if t.thickness > 0.005 {
-        return Err(Error::input(&format!("{p}.thickness_m"), "a tape over 5 mm thick is not a tape"));
+        return Err(Error::input(
+            &format!("{p}.thickness_m"),
+            "a tape over 5 mm thick is not a tape",
+        ));
+    }
+    if t.wraps > 1000 {
+        return Err(Error::input(&format!("{p}.wraps"), "more than 1000 wraps"));
     }
     if t.wraps == 0 {
         return Err(Error::input(&format!("{p}.wraps"), "a tape needs at least one wrap"));
@@ -257,13 +288,24 @@ fn obj(kv: Vec<(&str, Json)>) -> Json {
 }
 
 fn tape_json(t: &Tape) -> Vec<(&'static str, Json)> {
-    vec![("material", s(&t.material)), ("thickness_m", num(t.thickness)), ("wraps", int(t.wraps))]
+    vec![
+        ("material", s(&t.material)),
+        ("thickness_m", num(t.thickness)),
+        ("wraps", int(t.wraps)),
+    ]
 }
 
 fn conductor_json(c: &Conductor) -> Json {
     match c {
         Conductor::Round(w) | Conductor::TripleInsulated(w) => obj(vec![
-            ("kind", s(if matches!(c, Conductor::Round(_)) { "round" } else { "triple_insulated" })),
+            (
+                "kind",
+                s(if matches!(c, Conductor::Round(_)) {
+                    "round"
+                } else {
+                    "triple_insulated"
+                }),
+            ),
             ("bare_diameter_m", num(w.bare_diameter)),
             ("overall_diameter_m", num(w.overall_diameter)),
         ]),
@@ -275,9 +317,11 @@ fn conductor_json(c: &Conductor) -> Json {
             ("packing", num(l.packing)),
             ("serving_m", num(l.serving)),
         ]),
-        Conductor::Foil(f) => {
-            obj(vec![("kind", s("foil")), ("thickness_m", num(f.thickness)), ("width_m", num(f.width))])
-        }
+        Conductor::Foil(f) => obj(vec![
+            ("kind", s("foil")),
+            ("thickness_m", num(f.thickness)),
+            ("width_m", num(f.width)),
+        ]),
     }
 }
 
@@ -333,7 +377,11 @@ pub fn to_json(st: &StackUp) -> String {
             })
             .collect(),
     );
-    json::write(&obj(vec![("schema", s(SCHEMA)), ("windings", windings), ("items", items)]))
+    json::write(&obj(vec![
+        ("schema", s(SCHEMA)),
+        ("windings", windings),
+        ("items", items),
+    ]))
 }
 
 /// Field access with errors that name the field.
@@ -366,7 +414,9 @@ impl<'a> Ctx<'a> {
     }
 
     fn req(&self, key: &str) -> Result<&'a Json> {
-        self.v.get(key).ok_or_else(|| Error::format(Some(&self.field(key)), format!("the key \"{key}\" is missing")))
+        self.v
+            .get(key)
+            .ok_or_else(|| Error::format(Some(&self.field(key)), format!("the key \"{key}\" is missing")))
     }
 
     fn string(&self, key: &str) -> Result<String> {
@@ -392,10 +442,14 @@ impl<'a> Ctx<'a> {
     fn count_of(&self, key: &str, v: &Json, what: &str) -> Result<u32> {
         match v {
             Json::Num(x) if x.fract() == 0.0 && *x >= 0.0 && *x <= u32::MAX as f64 => Ok(*x as u32),
-            Json::Num(x) if *x < 0.0 => {
-                Err(Error::input(&self.field(key), format!("must not be negative (got {x} {what})")))
-            }
-            Json::Num(x) => Err(Error::input(&self.field(key), format!("must be a whole number of {what} (got {x})"))),
+            Json::Num(x) if *x < 0.0 => Err(Error::input(
+                &self.field(key),
+                format!("must not be negative (got {x} {what})"),
+            )),
+            Json::Num(x) => Err(Error::input(
+                &self.field(key),
+                format!("must be a whole number of {what} (got {x})"),
+            )),
             other => Err(Error::format(
                 Some(&self.field(key)),
                 format!("must be a whole number of {what} (found {})", other.type_name()),
@@ -423,7 +477,10 @@ impl<'a> Ctx<'a> {
                 format!("must be an object (found {})", v.type_name()),
             ));
         }
-        Ok(Ctx { v, path: self.field(key) })
+        Ok(Ctx {
+            v,
+            path: self.field(key),
+        })
     }
 
     fn array(&self, key: &str) -> Result<&'a [Json]> {
@@ -439,7 +496,10 @@ impl<'a> Ctx<'a> {
     fn element(&self, key: &str, i: usize, v: &'a Json) -> Result<Ctx<'a>> {
         let path = format!("{}[{i}]", self.field(key));
         if !matches!(v, Json::Obj(_)) {
-            return Err(Error::format(Some(&path), format!("must be an object (found {})", v.type_name())));
+            return Err(Error::format(
+                Some(&path),
+                format!("must be an object (found {})", v.type_name()),
+            ));
         }
         Ok(Ctx { v, path })
     }
@@ -448,7 +508,10 @@ impl<'a> Ctx<'a> {
         let x = self.string(key)?;
         options.iter().find(|(n, _)| *n == x).map(|(_, t)| *t).ok_or_else(|| {
             let names: Vec<&str> = options.iter().map(|(n, _)| *n).collect();
-            Error::format(Some(&self.field(key)), format!("\"{x}\" is not one of: {}", names.join(", ")))
+            Error::format(
+                Some(&self.field(key)),
+                format!("\"{x}\" is not one of: {}", names.join(", ")),
+            )
         })
     }
 }
@@ -457,14 +520,21 @@ fn read_tape(c: &Ctx, extra: &[&str]) -> Result<Tape> {
     let mut keys = vec!["material", "thickness_m", "wraps"];
     keys.extend_from_slice(extra);
     c.check_keys(&keys)?;
-    Ok(Tape { material: c.string("material")?, thickness: c.number("thickness_m")?, wraps: c.count("wraps", "wraps")? })
+    Ok(Tape {
+        material: c.string("material")?,
+        thickness: c.number("thickness_m")?,
+        wraps: c.count("wraps", "wraps")?,
+    })
 }
 
 fn read_conductor(c: &Ctx) -> Result<Conductor> {
     let kind = c.string("kind")?;
     let round = |c: &Ctx| -> Result<RoundWire> {
         c.check_keys(&["kind", "bare_diameter_m", "overall_diameter_m"])?;
-        Ok(RoundWire { bare_diameter: c.number("bare_diameter_m")?, overall_diameter: c.number("overall_diameter_m")? })
+        Ok(RoundWire {
+            bare_diameter: c.number("bare_diameter_m")?,
+            overall_diameter: c.number("overall_diameter_m")?,
+        })
     };
     Ok(match kind.as_str() {
         "round" => Conductor::Round(round(c)?),
@@ -488,7 +558,10 @@ fn read_conductor(c: &Ctx) -> Result<Conductor> {
         }
         "foil" => {
             c.check_keys(&["kind", "thickness_m", "width_m"])?;
-            Conductor::Foil(Foil { thickness: c.number("thickness_m")?, width: c.number("width_m")? })
+            Conductor::Foil(Foil {
+                thickness: c.number("thickness_m")?,
+                width: c.number("width_m")?,
+            })
         }
         other => {
             return Err(Error::format(
@@ -504,9 +577,15 @@ fn read_conductor(c: &Ctx) -> Result<Conductor> {
 pub fn from_json(text: &str) -> Result<StackUp> {
     let doc = json::parse(text).map_err(|m| Error::format(None, format!("not valid JSON: {m}")))?;
     if !matches!(doc, Json::Obj(_)) {
-        return Err(Error::format(None, format!("the document must be an object (found {})", doc.type_name())));
+        return Err(Error::format(
+            None,
+            format!("the document must be an object (found {})", doc.type_name()),
+        ));
     }
-    let root = Ctx { v: &doc, path: String::new() };
+    let root = Ctx {
+        v: &doc,
+        path: String::new(),
+    };
     let schema = root.string("schema")?;
     if schema != SCHEMA {
         let msg = match schema.strip_prefix("magwright.stackup/") {
@@ -520,7 +599,9 @@ pub fn from_json(text: &str) -> Result<StackUp> {
     for (i, w) in root.array("windings")?.iter().enumerate() {
         let c = root.element("windings", i, w)?;
         c.check_keys(&["name"])?;
-        windings.push(WindingDef { name: c.string("name")? });
+        windings.push(WindingDef {
+            name: c.string("name")?,
+        });
     }
     let mut items = Vec::new();
     for (i, v) in root.array("items")?.iter().enumerate() {
@@ -644,7 +725,12 @@ impl Default for DefaultOptions {
     /// no inter-layer tape, no margin (common practice, no source; a mains
     /// transformer needs the margins and wraps its safety standard asks).
     fn default() -> Self {
-        DefaultOptions { section_tape: Tape::polyester(2), outer_tape: Tape::polyester(3), interlayer: None, margin: 0.0 }
+        DefaultOptions {
+            section_tape: Tape::polyester(2),
+            outer_tape: Tape::polyester(3),
+            interlayer: None,
+            margin: 0.0,
+        }
     }
 }
 
@@ -652,7 +738,12 @@ impl Default for DefaultOptions {
 /// turns per layer and layers filled in from `core`'s bobbin (full layers
 /// first), all sections wound clockwise from the left flange, and checks
 /// that it fits. Errors name the winding (`windings[i]`) or the pattern.
-pub fn default_stackup(core: &Core, windings: &[WindingSpec], pattern: &Pattern, opts: &DefaultOptions) -> Result<StackUp> {
+pub fn default_stackup(
+    core: &Core,
+    windings: &[WindingSpec],
+    pattern: &Pattern,
+    opts: &DefaultOptions,
+) -> Result<StackUp> {
     if windings.is_empty() {
         return Err(Error::input("windings", "give at least one winding"));
     }
@@ -667,8 +758,12 @@ pub fn default_stackup(core: &Core, windings: &[WindingSpec], pattern: &Pattern,
             v
         }
         Pattern::SplitSecondaries => {
-            let mut v: Vec<(usize, u32)> =
-                windings.iter().enumerate().skip(1).map(|(i, w)| (i, half(w.turns).0)).collect();
+            let mut v: Vec<(usize, u32)> = windings
+                .iter()
+                .enumerate()
+                .skip(1)
+                .map(|(i, w)| (i, half(w.turns).0))
+                .collect();
             v.push((0, windings[0].turns));
             v.extend(windings.iter().enumerate().skip(1).map(|(i, w)| (i, half(w.turns).1)));
             v
@@ -721,9 +816,16 @@ pub fn default_stackup(core: &Core, windings: &[WindingSpec], pattern: &Pattern,
             sec.finish = Side::Left;
         }
         items.push(Item::Section(sec));
-        items.push(Item::Tape(if k + 1 == sections.len() { opts.outer_tape.clone() } else { opts.section_tape.clone() }));
+        items.push(Item::Tape(if k + 1 == sections.len() {
+            opts.outer_tape.clone()
+        } else {
+            opts.section_tape.clone()
+        }));
     }
-    let st = StackUp { windings: windings.iter().map(|w| WindingDef { name: w.name.clone() }).collect(), items };
+    let st = StackUp {
+        windings: windings.iter().map(|w| WindingDef { name: w.name.clone() }).collect(),
+        items,
+    };
     st.validate()?;
     super::fit::fit(core, &st)?;
     Ok(st)
