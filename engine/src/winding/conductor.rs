@@ -151,6 +151,12 @@ impl Conductor {
         Ok(c)
     }
 
+    /// Litz of `strands` enamelled strands of AWG size `strand_awg`
+    /// (ASTM B258 bare diameter); see [`Conductor::litz`].
+    pub fn litz_awg(strands: u32, strand_awg: i32, grade: Grade, packing: f64, serving: f64) -> Result<Conductor> {
+        Conductor::litz(strands, awg_diameter(strand_awg)?, grade, packing, serving)
+    }
+
     /// Copper foil `thickness` × `width` (m).
     pub fn foil(thickness: f64, width: f64) -> Result<Conductor> {
         let c = Conductor::Foil(Foil { thickness, width });
@@ -337,6 +343,9 @@ mod tests {
         assert!((l.copper_area() - 100.0 * round_area(0.1e-3)).abs() < 1e-15);
         // 100 strands of ≈0.1196 mm over packing 0.75: 0.1196·√133.3 + 0.06 ≈ 1.44 mm.
         assert!((l.outer_height() - 1.441e-3).abs() < 0.01e-3, "{}", l.outer_height());
+        let l38 = Conductor::litz_awg(60, 38, Grade::G1, 0.75, 0.0).unwrap();
+        // ASTM B258: AWG 38 = 0.0040 in = 0.1016 mm.
+        assert!((l38.copper_area() - 60.0 * round_area(0.0040 * 25.4e-3)).abs() < 0.01 * l38.copper_area());
         let f = Conductor::foil(0.1e-3, 10e-3).unwrap();
         assert_eq!(f.outer_width(), 10e-3);
         assert!(Conductor::foil(-0.1e-3, 10e-3).is_err());
