@@ -1,0 +1,832 @@
+//! The winding stack-up: what is wound on the bobbin, in order, from the
+//! bobbin outward.
+//!
+//! A [`StackUp`] declares its windings by name (primary, secondary, aux…)
+//! and lists [`Item`]s: winding [`Section`]s, insulation [`Tape`]s and
+//! electrostatic [`Screen`]s. A winding may appear in several sections,
+//! which is how interleaving is written: P-S-P is a primary section, a
+//! secondary section and a second primary section; the sections of one
+//! winding are in series and carry the same current.
+//!
+//! Margin tapes (the creepage tapes at both ends of the bobbin) belong to
+//! the section they flank, since they are wound up to that section's build
+//! height: each section has `margin_left` and `margin_right`, which reduce
+//! the breadth its layers can use. Inter-layer tape inside a section is
+//! the section's `interlayer` tape; tape between sections is an [`Item`].
+//!
+//! The `direction` and the start/finish `side` of a section are
+//! manufacturing instructions: the loss and leakage models work with
+//! currents in the dot convention (see [`super::loss`]) and do not use
+//! them.
+//!
+//! The stack-up is saved as JSON in a schema of our own, documented in
+//! `docs/stackup.md`: [`to_json`] and [`from_json`] (or [`import`], which
+//! also checks that the stack-up fits a core). The round trip is exact:
+//! `from_json(&to_json(&s)) == Ok(s)`. Lengths are stored in metres (keys
+//! end in `_m`) so no unit conversion can perturb a value.
+//!
+//! [`default_stackup`] builds a stack-up from a list of windings and an
+//! interleaving [`Pattern`]; the design solver calls it.
+
+use super::conductor::{Conductor, Foil, Litz, RoundWire};
+use super::json::{self, Json};
+use crate::core::Core;
+use crate::error::{non_negative, positive, Error, Result};
+
+/// Schema identifier written in every file; the number is the version.
+pub const SCHEMA: &str = "magwright.stackup/1";
+
+/// Winding sense of a section, seen from the bobbin's left flange.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Direction {
+    Clockwise,
+    CounterClockwise,
+}
+
+/// A flange of the bobbin (left / right, looking at the bobbin with its
+/// pin row at the bottom).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Side {
+    Left,
+    Right,
+}
+
+impl Side {
+    pub fn other(self) -> Side {
+        match self {
+            Side::Left => Side::Right,
+            Side::Right => Side::Left,
+        }
+    }
+}
+
+/// An insulation tape: `wraps` turns of a film of `thickness`.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Tape {
+    /// Material, free text (e.g. "polyester film").
+    pub material: String,
+    /// Thickness of one wrap, m.
+    pub thickness: f64,
+    /// Number of wraps (≥ 1).
+    pub wraps: u32,
+}
+
+impl Tape {
+    /// Radial build of the tape, m.
+    pub fn build(&self) -> f64 {
+        self.thickness * self.wraps as f64
+    }
+
+    /// Polyester film 0.05 mm × `wraps` (a common choice; common practice,
+    /// no source).
+    pub fn polyester(wraps: u32) -> Tape {
+        Tape {
+            material: "polyester film".into(),
+            thickness: 0.05e-3,
+            wraps,
+        }
+    }
+}
+
+/// An electrostatic screen: a foil of one open turn across the breadth.
+/// Its eddy-current loss and its effect on the field are not modelled
+/// (it counts as build and as a gap between windings).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Screen {
+    /// Material, free text (e.g. "copper foil").
+    pub material: String,
+    /// Thickness, m.
+    pub thickness: f64,
+    /// Where it connects, free text (e.g. "primary return").
+    pub connection: String,
+}
+
+/// One section: a contiguous block of layers of one winding.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Section {
+    /// Name of the winding (declared in [`StackUp::windings`]).
+    pub winding: String,
+    /// Turns in this section (≥ 1).
+    pub turns: u32,
+    pub conductor: Conductor,
+    /// Conductors in hand per turn (≥ 1). Round and litz conductors in hand
+    /// lie side by side in a layer; parallel foils are stacked radially.
+    pub parallel: u32,
+    /// Number of layers; `None` lets the fit choose (full layers first).
+    pub layers: Option<u32>,
+    /// Turns per layer; `None` lets the fit choose (as many as fit).
+    pub turns_per_layer: Option<u32>,
+    pub direction: Direction,
+    pub start: Side,
+    pub finish: Side,
+    /// Margin tape width at the left flange, m.
+    pub margin_left: f64,
+    /// Margin tape width at the right flange, m.
+    pub margin_right: f64,
+    /// Tape between the section's layers, if any.
+    pub interlayer: Option<Tape>,
+}
+
+/// One thing on the bobbin.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Item {
+    Section(Section),
+    Tape(Tape),
+    Screen(Screen),
+}
+
+/// A declared winding.
+#[derive(Debug, Clone, PartialEq)]
+pub struct WindingDef {
+    pub name: String,
+}
+
+/// The whole stack-up, from the bobbin outward.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StackUp {
+    pub windings: Vec<WindingDef>,
+    pub items: Vec<Item>,
+}
+
+impl StackUp {
+    /// Index of a declared winding.
+    pub fn winding_index(&self, name: &str) -> Option<usize> {
+        self.windings.iter().position(|w| w.name == name)
+    }
+
+    /// Sections with their item index.
+    pub fn sections(&self) -> impl Iterator<Item = (usize, &Section)> {
+        self.items.iter().enumerate().filter_map(|(i, it)| match it {
+            Item::Section(s) => Some((i, s)),
+            _ => None,
+        })
+    }
+
+    /// Total turns of a winding (sum over its sections).
+    pub fn turns_of(&self, name: &str) -> u64 {
+        self.sections()
+            .filter(|(_, s)| s.winding == name)
+            .map(|(_, s)| s.turns as u64)
+            .sum()
+    }
+
+    /// Checks every value and every reference; errors name the field
+    /// (`items[3].turns`, `windings[1].name`, …).
+    pub fn validate(&self) -> Result<()> {
+        if self.windings.is_empty() {
+            return Err(Error::input("windings", "declare at least one winding"));
+        }
+        for (i, w) in self.windings.iter().enumerate() {
+            if w.name.trim().is_empty() {
+                return Err(Error::input(&format!("windings[{i}].name"), "a winding needs a name"));
+            }
+            if self.windings[..i].iter().any(|o| o.name == w.name) {
+                return Err(Error::input(
+                    &format!("windings[{i}].name"),
+                    format!("the winding name \"{}\" is used twice", w.name),
+                ));
+            }
+        }
+        for (i, it) in self.items.iter().enumerate() {
+            let p = format!("items[{i}]");
+            match it {
+                Item::Section(s) => {
+                    if self.winding_index(&s.winding).is_none() {
+                        return Err(Error::input(
+                            &format!("{p}.winding"),
+                            format!("the winding \"{}\" is not declared in \"windings\"", s.winding),
+                        ));
+                    }
+                    if s.turns == 0 {
+                        return Err(Error::input(&format!("{p}.turns"), "a section needs at least one turn"));
+                    }
+                    if s.turns > 100_000 {
+                        return Err(Error::input(
+                            &format!("{p}.turns"),
+                            "more than 100000 turns in one section",
+                        ));
+                    }
+                    if s.parallel > 1000 {
+                        return Err(Error::input(
+                            &format!("{p}.parallel"),
+                            "more than 1000 conductors in hand",
+                        ));
+                    }
+                    if s.parallel == 0 {
+                        return Err(Error::input(&format!("{p}.parallel"), "at least one conductor in hand"));
+                    }
+                    if s.layers == Some(0) {
+                        return Err(Error::input(&format!("{p}.layers"), "at least one layer"));
+                    }
+                    if s.turns_per_layer == Some(0) {
+                        return Err(Error::input(
+                            &format!("{p}.turns_per_layer"),
+                            "at least one turn per layer",
+                        ));
+                    }
+                    s.conductor.validate(&format!("{p}.conductor"))?;
+                    non_negative(&format!("{p}.margin_left_m"), s.margin_left, "m")?;
+                    non_negative(&format!("{p}.margin_right_m"), s.margin_right, "m")?;
+                    if let Some(t) = &s.interlayer {
+                        validate_tape(&format!("{p}.interlayer_tape"), t)?;
+                    }
+                }
+                Item::Tape(t) => validate_tape(&p, t)?,
+                Item::Screen(sc) => {
+                    positive(&format!("{p}.thickness_m"), sc.thickness, "m")?;
+                    if sc.thickness > 0.01 {
+                        return Err(Error::input(
+                            &format!("{p}.thickness_m"),
+                            "a screen over 10 mm thick is not a screen",
+                        ));
+                    }
+                }
+            }
+        }
+        for (i, w) in self.windings.iter().enumerate() {
+            if self.turns_of(&w.name) == 0 {
+                return Err(Error::input(
+                    &format!("windings[{i}]"),
+                    format!("the winding \"{}\" has no section in \"items\"", w.name),
+                ));
+            }
+        }
+        Ok(())
+    }
+}
+
+fn validate_tape(p: &str, t: &Tape) -> Result<()> {
+    positive(&format!("{p}.thickness_m"), t.thickness, "m")?;
+    if t.thickness > 0.005 {
+        return Err(Error::input(
+            &format!("{p}.thickness_m"),
+            "a tape over 5 mm thick is not a tape",
+        ));
+    }
+    if t.wraps > 1000 {
+        return Err(Error::input(&format!("{p}.wraps"), "more than 1000 wraps"));
+    }
+    if t.wraps == 0 {
+        return Err(Error::input(&format!("{p}.wraps"), "a tape needs at least one wrap"));
+    }
+    Ok(())
+}
+
+// ---------------------------------------------------------------- JSON ---
+
+fn num(x: f64) -> Json {
+    Json::Num(x)
+}
+fn int(x: u32) -> Json {
+    Json::Num(x as f64)
+}
+fn s(x: &str) -> Json {
+    Json::Str(x.to_string())
+}
+fn obj(kv: Vec<(&str, Json)>) -> Json {
+    Json::Obj(kv.into_iter().map(|(k, v)| (k.to_string(), v)).collect())
+}
+
+fn tape_json(t: &Tape) -> Vec<(&'static str, Json)> {
+    vec![
+        ("material", s(&t.material)),
+        ("thickness_m", num(t.thickness)),
+        ("wraps", int(t.wraps)),
+    ]
+}
+
+fn conductor_json(c: &Conductor) -> Json {
+    match c {
+        Conductor::Round(w) | Conductor::TripleInsulated(w) => obj(vec![
+            (
+                "kind",
+                s(if matches!(c, Conductor::Round(_)) {
+                    "round"
+                } else {
+                    "triple_insulated"
+                }),
+            ),
+            ("bare_diameter_m", num(w.bare_diameter)),
+            ("overall_diameter_m", num(w.overall_diameter)),
+        ]),
+        Conductor::Litz(l) => obj(vec![
+            ("kind", s("litz")),
+            ("strands", int(l.strands)),
+            ("strand_diameter_m", num(l.strand_diameter)),
+            ("strand_overall_diameter_m", num(l.strand_overall_diameter)),
+            ("packing", num(l.packing)),
+            ("serving_m", num(l.serving)),
+        ]),
+        Conductor::Foil(f) => obj(vec![
+            ("kind", s("foil")),
+            ("thickness_m", num(f.thickness)),
+            ("width_m", num(f.width)),
+        ]),
+    }
+}
+
+fn side_str(x: Side) -> &'static str {
+    match x {
+        Side::Left => "left",
+        Side::Right => "right",
+    }
+}
+
+/// Writes the stack-up as JSON (schema [`SCHEMA`], see docs/stackup.md).
+pub fn to_json(st: &StackUp) -> String {
+    let windings = Json::Arr(st.windings.iter().map(|w| obj(vec![("name", s(&w.name))])).collect());
+    let items = Json::Arr(
+        st.items
+            .iter()
+            .map(|it| match it {
+                Item::Section(x) => obj(vec![
+                    ("item", s("section")),
+                    ("winding", s(&x.winding)),
+                    ("turns", int(x.turns)),
+                    ("parallel", int(x.parallel)),
+                    ("conductor", conductor_json(&x.conductor)),
+                    ("layers", x.layers.map_or(Json::Null, int)),
+                    ("turns_per_layer", x.turns_per_layer.map_or(Json::Null, int)),
+                    (
+                        "direction",
+                        s(match x.direction {
+                            Direction::Clockwise => "cw",
+                            Direction::CounterClockwise => "ccw",
+                        }),
+                    ),
+                    ("start_side", s(side_str(x.start))),
+                    ("finish_side", s(side_str(x.finish))),
+                    ("margin_left_m", num(x.margin_left)),
+                    ("margin_right_m", num(x.margin_right)),
+                    (
+                        "interlayer_tape",
+                        x.interlayer.as_ref().map_or(Json::Null, |t| obj(tape_json(t))),
+                    ),
+                ]),
+                Item::Tape(t) => {
+                    let mut kv = vec![("item", s("tape"))];
+                    kv.extend(tape_json(t));
+                    obj(kv)
+                }
+                Item::Screen(sc) => obj(vec![
+                    ("item", s("screen")),
+                    ("material", s(&sc.material)),
+                    ("thickness_m", num(sc.thickness)),
+                    ("connection", s(&sc.connection)),
+                ]),
+            })
+            .collect(),
+    );
+    json::write(&obj(vec![
+        ("schema", s(SCHEMA)),
+        ("windings", windings),
+        ("items", items),
+    ]))
+}
+
+/// Field access with errors that name the field.
+struct Ctx<'a> {
+    v: &'a Json,
+    path: String,
+}
+
+impl<'a> Ctx<'a> {
+    fn field(&self, key: &str) -> String {
+        if self.path.is_empty() {
+            key.to_string()
+        } else {
+            format!("{}.{key}", self.path)
+        }
+    }
+
+    fn check_keys(&self, allowed: &[&str]) -> Result<()> {
+        if let Json::Obj(kv) = self.v {
+            for (k, _) in kv {
+                if !allowed.contains(&k.as_str()) {
+                    return Err(Error::format(
+                        Some(&self.field(k)),
+                        format!("unknown key \"{k}\" (expected one of: {})", allowed.join(", ")),
+                    ));
+                }
+            }
+        }
+        Ok(())
+    }
+
+    fn req(&self, key: &str) -> Result<&'a Json> {
+        self.v
+            .get(key)
+            .ok_or_else(|| Error::format(Some(&self.field(key)), format!("the key \"{key}\" is missing")))
+    }
+
+    fn string(&self, key: &str) -> Result<String> {
+        match self.req(key)? {
+            Json::Str(x) => Ok(x.clone()),
+            other => Err(Error::format(
+                Some(&self.field(key)),
+                format!("must be a string (found {})", other.type_name()),
+            )),
+        }
+    }
+
+    fn number(&self, key: &str) -> Result<f64> {
+        match self.req(key)? {
+            Json::Num(x) => Ok(*x),
+            other => Err(Error::format(
+                Some(&self.field(key)),
+                format!("must be a number (found {})", other.type_name()),
+            )),
+        }
+    }
+
+    fn count_of(&self, key: &str, v: &Json, what: &str) -> Result<u32> {
+        match v {
+            Json::Num(x) if x.fract() == 0.0 && *x >= 0.0 && *x <= u32::MAX as f64 => Ok(*x as u32),
+            Json::Num(x) if *x < 0.0 => Err(Error::input(
+                &self.field(key),
+                format!("must not be negative (got {x} {what})"),
+            )),
+            Json::Num(x) => Err(Error::input(
+                &self.field(key),
+                format!("must be a whole number of {what} (got {x})"),
+            )),
+            other => Err(Error::format(
+                Some(&self.field(key)),
+                format!("must be a whole number of {what} (found {})", other.type_name()),
+            )),
+        }
+    }
+
+    fn count(&self, key: &str, what: &str) -> Result<u32> {
+        let v = self.req(key)?;
+        self.count_of(key, v, what)
+    }
+
+    fn opt_count(&self, key: &str, what: &str) -> Result<Option<u32>> {
+        match self.v.get(key) {
+            None | Some(Json::Null) => Ok(None),
+            Some(v) => self.count_of(key, v, what).map(Some),
+        }
+    }
+
+    fn child(&self, key: &str) -> Result<Ctx<'a>> {
+        let v = self.req(key)?;
+        if !matches!(v, Json::Obj(_)) {
+            return Err(Error::format(
+                Some(&self.field(key)),
+                format!("must be an object (found {})", v.type_name()),
+            ));
+        }
+        Ok(Ctx {
+            v,
+            path: self.field(key),
+        })
+    }
+
+    fn array(&self, key: &str) -> Result<&'a [Json]> {
+        match self.req(key)? {
+            Json::Arr(a) => Ok(a),
+            other => Err(Error::format(
+                Some(&self.field(key)),
+                format!("must be an array (found {})", other.type_name()),
+            )),
+        }
+    }
+
+    fn element(&self, key: &str, i: usize, v: &'a Json) -> Result<Ctx<'a>> {
+        let path = format!("{}[{i}]", self.field(key));
+        if !matches!(v, Json::Obj(_)) {
+            return Err(Error::format(
+                Some(&path),
+                format!("must be an object (found {})", v.type_name()),
+            ));
+        }
+        Ok(Ctx { v, path })
+    }
+
+    fn choice<T: Copy>(&self, key: &str, options: &[(&str, T)]) -> Result<T> {
+        let x = self.string(key)?;
+        options.iter().find(|(n, _)| *n == x).map(|(_, t)| *t).ok_or_else(|| {
+            let names: Vec<&str> = options.iter().map(|(n, _)| *n).collect();
+            Error::format(
+                Some(&self.field(key)),
+                format!("\"{x}\" is not one of: {}", names.join(", ")),
+            )
+        })
+    }
+}
+
+fn read_tape(c: &Ctx, extra: &[&str]) -> Result<Tape> {
+    let mut keys = vec!["material", "thickness_m", "wraps"];
+    keys.extend_from_slice(extra);
+    c.check_keys(&keys)?;
+    Ok(Tape {
+        material: c.string("material")?,
+        thickness: c.number("thickness_m")?,
+        wraps: c.count("wraps", "wraps")?,
+    })
+}
+
+fn read_conductor(c: &Ctx) -> Result<Conductor> {
+    let kind = c.string("kind")?;
+    let round = |c: &Ctx| -> Result<RoundWire> {
+        c.check_keys(&["kind", "bare_diameter_m", "overall_diameter_m"])?;
+        Ok(RoundWire {
+            bare_diameter: c.number("bare_diameter_m")?,
+            overall_diameter: c.number("overall_diameter_m")?,
+        })
+    };
+    Ok(match kind.as_str() {
+        "round" => Conductor::Round(round(c)?),
+        "triple_insulated" => Conductor::TripleInsulated(round(c)?),
+        "litz" => {
+            c.check_keys(&[
+                "kind",
+                "strands",
+                "strand_diameter_m",
+                "strand_overall_diameter_m",
+                "packing",
+                "serving_m",
+            ])?;
+            Conductor::Litz(Litz {
+                strands: c.count("strands", "strands")?,
+                strand_diameter: c.number("strand_diameter_m")?,
+                strand_overall_diameter: c.number("strand_overall_diameter_m")?,
+                packing: c.number("packing")?,
+                serving: c.number("serving_m")?,
+            })
+        }
+        "foil" => {
+            c.check_keys(&["kind", "thickness_m", "width_m"])?;
+            Conductor::Foil(Foil {
+                thickness: c.number("thickness_m")?,
+                width: c.number("width_m")?,
+            })
+        }
+        other => {
+            return Err(Error::format(
+                Some(&c.field("kind")),
+                format!("\"{other}\" is not one of: round, litz, foil, triple_insulated"),
+            ))
+        }
+    })
+}
+
+/// Reads a stack-up from JSON and validates it ([`StackUp::validate`]).
+/// Every malformed case is an error naming the field; nothing panics.
+pub fn from_json(text: &str) -> Result<StackUp> {
+    let doc = json::parse(text).map_err(|m| Error::format(None, format!("not valid JSON: {m}")))?;
+    if !matches!(doc, Json::Obj(_)) {
+        return Err(Error::format(
+            None,
+            format!("the document must be an object (found {})", doc.type_name()),
+        ));
+    }
+    let root = Ctx {
+        v: &doc,
+        path: String::new(),
+    };
+    let schema = root.string("schema")?;
+    if schema != SCHEMA {
+        let msg = match schema.strip_prefix("magwright.stackup/") {
+            Some(v) => format!("schema version \"{v}\" is not supported; this version reads \"{SCHEMA}\""),
+            None => format!("\"{schema}\" is not a stack-up file; expected \"{SCHEMA}\""),
+        };
+        return Err(Error::format(Some("schema"), msg));
+    }
+    root.check_keys(&["schema", "windings", "items"])?;
+    let mut windings = Vec::new();
+    for (i, w) in root.array("windings")?.iter().enumerate() {
+        let c = root.element("windings", i, w)?;
+        c.check_keys(&["name"])?;
+        windings.push(WindingDef {
+            name: c.string("name")?,
+        });
+    }
+    let mut items = Vec::new();
+    for (i, v) in root.array("items")?.iter().enumerate() {
+        let c = root.element("items", i, v)?;
+        let kind = c.string("item")?;
+        let item = match kind.as_str() {
+            "section" => {
+                c.check_keys(&[
+                    "item",
+                    "winding",
+                    "turns",
+                    "parallel",
+                    "conductor",
+                    "layers",
+                    "turns_per_layer",
+                    "direction",
+                    "start_side",
+                    "finish_side",
+                    "margin_left_m",
+                    "margin_right_m",
+                    "interlayer_tape",
+                ])?;
+                let sides = [("left", Side::Left), ("right", Side::Right)];
+                let interlayer = match c.v.get("interlayer_tape") {
+                    None | Some(Json::Null) => None,
+                    Some(_) => Some(read_tape(&c.child("interlayer_tape")?, &[])?),
+                };
+                Item::Section(Section {
+                    winding: c.string("winding")?,
+                    turns: c.count("turns", "turns")?,
+                    parallel: c.count("parallel", "conductors in hand")?,
+                    conductor: read_conductor(&c.child("conductor")?)?,
+                    layers: c.opt_count("layers", "layers")?,
+                    turns_per_layer: c.opt_count("turns_per_layer", "turns")?,
+                    direction: c.choice(
+                        "direction",
+                        &[("cw", Direction::Clockwise), ("ccw", Direction::CounterClockwise)],
+                    )?,
+                    start: c.choice("start_side", &sides)?,
+                    finish: c.choice("finish_side", &sides)?,
+                    margin_left: c.number("margin_left_m")?,
+                    margin_right: c.number("margin_right_m")?,
+                    interlayer,
+                })
+            }
+            "tape" => Item::Tape(read_tape(&c, &["item"])?),
+            "screen" => {
+                c.check_keys(&["item", "material", "thickness_m", "connection"])?;
+                Item::Screen(Screen {
+                    material: c.string("material")?,
+                    thickness: c.number("thickness_m")?,
+                    connection: c.string("connection")?,
+                })
+            }
+            other => {
+                return Err(Error::format(
+                    Some(&c.field("item")),
+                    format!("\"{other}\" is not one of: section, tape, screen"),
+                ))
+            }
+        };
+        items.push(item);
+    }
+    let st = StackUp { windings, items };
+    st.validate()?;
+    Ok(st)
+}
+
+/// [`from_json`], then checks that the stack-up still fits `core`
+/// ([`super::fit::fit`]); a section that no longer fits is an error naming
+/// its item and saying by how much.
+pub fn import(text: &str, core: &Core) -> Result<StackUp> {
+    let st = from_json(text)?;
+    super::fit::fit(core, &st)?;
+    Ok(st)
+}
+
+// ------------------------------------------------------ default stack-up --
+
+/// One winding for [`default_stackup`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct WindingSpec {
+    pub name: String,
+    pub turns: u32,
+    pub conductor: Conductor,
+    /// Conductors in hand (≥ 1).
+    pub parallel: u32,
+}
+
+/// Interleaving order for [`default_stackup`]. Winding 0 is the primary.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Pattern {
+    /// P, S1, S2, … from the bobbin outward.
+    Sequential,
+    /// Split primary, P-S-P: half the primary, every other winding, the
+    /// other half of the primary (the first half gets the odd turn).
+    SplitPrimary,
+    /// Split secondaries, S-P-S: half of each other winding, the primary,
+    /// the other halves.
+    SplitSecondaries,
+    /// Explicit order: `(winding index, turns)` per section, inner first.
+    /// The turns of each winding must add up to its total.
+    Custom(Vec<(usize, u32)>),
+}
+
+/// Insulation choices for [`default_stackup`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct DefaultOptions {
+    /// Tape between sections.
+    pub section_tape: Tape,
+    /// Tape over the last section.
+    pub outer_tape: Tape,
+    /// Tape between layers inside a section (None: no tape).
+    pub interlayer: Option<Tape>,
+    /// Margin tape width at each flange, m.
+    pub margin: f64,
+}
+
+impl Default for DefaultOptions {
+    /// Two wraps of 0.05 mm polyester between sections, three over the top,
+    /// no inter-layer tape, no margin (common practice, no source; a mains
+    /// transformer needs the margins and wraps its safety standard asks).
+    fn default() -> Self {
+        DefaultOptions {
+            section_tape: Tape::polyester(2),
+            outer_tape: Tape::polyester(3),
+            interlayer: None,
+            margin: 0.0,
+        }
+    }
+}
+
+/// Builds a stack-up for `windings` in the interleaving `pattern`, with
+/// turns per layer and layers filled in from `core`'s bobbin (full layers
+/// first), all sections wound clockwise from the left flange, and checks
+/// that it fits. Errors name the winding (`windings[i]`) or the pattern.
+pub fn default_stackup(
+    core: &Core,
+    windings: &[WindingSpec],
+    pattern: &Pattern,
+    opts: &DefaultOptions,
+) -> Result<StackUp> {
+    if windings.is_empty() {
+        return Err(Error::input("windings", "give at least one winding"));
+    }
+    let half = |n: u32| (n.div_ceil(2), n / 2);
+    let order: Vec<(usize, u32)> = match pattern {
+        Pattern::Sequential => windings.iter().enumerate().map(|(i, w)| (i, w.turns)).collect(),
+        Pattern::SplitPrimary => {
+            let (a, b) = half(windings[0].turns);
+            let mut v = vec![(0, a)];
+            v.extend(windings.iter().enumerate().skip(1).map(|(i, w)| (i, w.turns)));
+            v.push((0, b));
+            v
+        }
+        Pattern::SplitSecondaries => {
+            let mut v: Vec<(usize, u32)> = windings
+                .iter()
+                .enumerate()
+                .skip(1)
+                .map(|(i, w)| (i, half(w.turns).0))
+                .collect();
+            v.push((0, windings[0].turns));
+            v.extend(windings.iter().enumerate().skip(1).map(|(i, w)| (i, half(w.turns).1)));
+            v
+        }
+        Pattern::Custom(v) => {
+            for (k, &(i, _)) in v.iter().enumerate() {
+                if i >= windings.len() {
+                    return Err(Error::input(
+                        &format!("pattern[{k}]"),
+                        format!("winding index {i} but only {} windings", windings.len()),
+                    ));
+                }
+            }
+            for (i, w) in windings.iter().enumerate() {
+                let sum: u64 = v.iter().filter(|(j, _)| *j == i).map(|(_, t)| *t as u64).sum();
+                if sum != w.turns as u64 {
+                    return Err(Error::input(
+                        "pattern",
+                        format!("the sections of \"{}\" add up to {sum} turns, not {}", w.name, w.turns),
+                    ));
+                }
+            }
+            v.clone()
+        }
+    };
+    let mut items = Vec::new();
+    let sections: Vec<&(usize, u32)> = order.iter().filter(|(_, t)| *t > 0).collect();
+    for (k, &&(i, turns)) in sections.iter().enumerate() {
+        let w = &windings[i];
+        let mut sec = Section {
+            winding: w.name.clone(),
+            turns,
+            conductor: w.conductor.clone(),
+            parallel: w.parallel,
+            layers: None,
+            turns_per_layer: None,
+            direction: Direction::Clockwise,
+            start: Side::Left,
+            finish: Side::Left,
+            margin_left: opts.margin,
+            margin_right: opts.margin,
+            interlayer: opts.interlayer.clone(),
+        };
+        let breadth = core.winding_breadth - 2.0 * opts.margin;
+        let (tpl, layers) = super::fit::layout(&sec, breadth, &format!("windings[{i}]"))?;
+        sec.turns_per_layer = Some(tpl);
+        sec.layers = Some(layers);
+        sec.finish = if layers % 2 == 1 { Side::Right } else { Side::Left };
+        if sec.conductor.is_foil() {
+            sec.finish = Side::Left;
+        }
+        items.push(Item::Section(sec));
+        items.push(Item::Tape(if k + 1 == sections.len() {
+            opts.outer_tape.clone()
+        } else {
+            opts.section_tape.clone()
+        }));
+    }
+    let st = StackUp {
+        windings: windings.iter().map(|w| WindingDef { name: w.name.clone() }).collect(),
+        items,
+    };
+    st.validate()?;
+    super::fit::fit(core, &st)?;
+    Ok(st)
+}
