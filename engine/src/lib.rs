@@ -22,6 +22,7 @@ pub mod core;
 pub mod design;
 pub mod error;
 pub mod gap;
+pub mod json;
 pub mod loss;
 pub mod material;
 pub mod notation;

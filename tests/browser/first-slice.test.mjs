@@ -25,7 +25,7 @@ async function assertMatchesEngine(page, spec) {
 
 test('demo design, an edit, invalid entries, no network', async () => {
   const { context, page, requests, errors } = await openPage(browser);
-  const demo = cli(['demo']);
+  const demo = cli(['forward-demo']);
   const before = await assertMatchesEngine(page, demo);
 
   // Edit the frequency as a user types it, with an SI prefix.
@@ -73,7 +73,7 @@ test('the same page served on 127.0.0.1', async () => {
   const url = `http://127.0.0.1:${server.address().port}/`;
   try {
     const { context, page, requests } = await openPage(browser, { url });
-    const demo = cli(['demo']);
+    const demo = cli(['forward-demo']);
     await assertMatchesEngine(page, demo);
     assert.deepEqual(requests, []);
     await context.close();

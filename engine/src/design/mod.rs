@@ -1,3 +1,17 @@
-//! Converter designs: a specification in, a report out.
+//! Whole designs: a [`Design`] file in, a worst-case-checked [`Report`] out.
+//!
+//! * [`file`]: the design file type (spec, core, material, choices).
+//! * [`solve`]: the solver: turns, gap, wire, stack-up, losses at both line
+//!   corners, thermal equilibrium and the pass/fail checks.
+//! * [`sweep`]: loss against frequency and against flux density.
+//! * [`optimise`]: every library core × material ranked, with the Pareto front.
+//! * [`forward`]: the first, self-contained forward-transformer slice.
 
+pub mod file;
 pub mod forward;
+pub mod optimise;
+pub mod solve;
+pub mod sweep;
+
+pub use file::{Choices, CoreChoice, Design, MaterialChoice};
+pub use solve::{evaluate, Report};

@@ -31,7 +31,7 @@ use crate::error::{in_range, positive, Error, Result};
 
 /// Enamel grade of a round magnet wire (IEC 60317 style: 1 thin, 2 medium,
 /// 3 thick).
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 pub enum Grade {
     G1,
     G2,
@@ -66,7 +66,7 @@ pub fn enamel_overall_diameter(d: f64, g: Grade) -> f64 {
 }
 
 /// A round solid conductor (enamelled or triple-insulated).
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct RoundWire {
     /// Copper diameter, m.
     pub bare_diameter: f64,
@@ -75,7 +75,7 @@ pub struct RoundWire {
 }
 
 /// A litz bundle.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct Litz {
     /// Number of strands.
     pub strands: u32,
@@ -91,7 +91,7 @@ pub struct Litz {
 }
 
 /// A copper foil, one turn per layer.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct Foil {
     /// Copper thickness (radial), m.
     pub thickness: f64,
@@ -100,7 +100,7 @@ pub struct Foil {
 }
 
 /// What one conductor of a turn is made of.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub enum Conductor {
     /// Enamelled round magnet wire.
     Round(RoundWire),

@@ -37,7 +37,7 @@ use crate::error::{non_negative, positive, Error, Result};
 pub const SCHEMA: &str = "magwright.stackup/1";
 
 /// Winding sense of a section, seen from the bobbin's left flange.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 pub enum Direction {
     Clockwise,
     CounterClockwise,
@@ -45,7 +45,7 @@ pub enum Direction {
 
 /// A flange of the bobbin (left / right, looking at the bobbin with its
 /// pin row at the bottom).
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
 pub enum Side {
     Left,
     Right,
@@ -61,7 +61,7 @@ impl Side {
 }
 
 /// An insulation tape: `wraps` turns of a film of `thickness`.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct Tape {
     /// Material, free text (e.g. "polyester film").
     pub material: String,
@@ -91,7 +91,7 @@ impl Tape {
 /// An electrostatic screen: a foil of one open turn across the breadth.
 /// Its eddy-current loss and its effect on the field are not modelled
 /// (it counts as build and as a gap between windings).
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct Screen {
     /// Material, free text (e.g. "copper foil").
     pub material: String,
@@ -102,7 +102,7 @@ pub struct Screen {
 }
 
 /// One section: a contiguous block of layers of one winding.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct Section {
     /// Name of the winding (declared in [`StackUp::windings`]).
     pub winding: String,
@@ -128,7 +128,7 @@ pub struct Section {
 }
 
 /// One thing on the bobbin.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub enum Item {
     Section(Section),
     Tape(Tape),
@@ -136,13 +136,13 @@ pub enum Item {
 }
 
 /// A declared winding.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct WindingDef {
     pub name: String,
 }
 
 /// The whole stack-up, from the bobbin outward.
-#[derive(Debug, Clone, PartialEq)]
+#[derive(Debug, Clone, PartialEq, serde::Serialize)]
 pub struct StackUp {
     pub windings: Vec<WindingDef>,
     pub items: Vec<Item>,

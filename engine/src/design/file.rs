@@ -1,0 +1,240 @@
+//! The design file: everything a user decides, in one serde type.
+//!
+//! The page saves it, the CLI evaluates it, and the browser tests compare the
+//! two through it. It is our own schema: `{"schema": "magwright-design",
+//! "version": 1, ...}`. Unknown versions and foreign files are refused with a
+//! message naming the field; documented with examples in `docs/design-file.md`.
+
+use crate::core::{library as cores, Core, Effective, Shape};
+use crate::error::{Error, Result};
+use crate::gap::GapPlacement;
+use crate::material::{library as materials, Material};
+use crate::topology::Spec;
+use serde::{Deserialize, Serialize};
+
+/// The `schema` field's value.
+pub const SCHEMA: &str = "magwright-design";
+/// The version this engine writes and reads.
+pub const VERSION: u32 = 1;
+
+/// One design: specification, core, material and the designer's choices.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Design {
+    pub schema: String,
+    pub version: u32,
+    /// A free name for the design.
+    #[serde(default)]
+    pub name: String,
+    pub spec: Spec,
+    pub core: CoreChoice,
+    pub material: MaterialChoice,
+    #[serde(default)]
+    pub choices: Choices,
+}
+
+/// Which core: from the library, or the user's own.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "from", rename_all = "snake_case", deny_unknown_fields)]
+pub enum CoreChoice {
+    /// A library core by designation, e.g. "ETD 34".
+    Library { designation: String },
+    /// A core given by its shape's dimensions (any family).
+    Shape { designation: String, shape: Shape },
+    /// A core given directly by effective parameters.
+    Effective { designation: String, parameters: Effective },
+}
+
+/// Which material: from the library, or the user's own (e.g. fitted).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "from", rename_all = "snake_case", deny_unknown_fields)]
+pub enum MaterialChoice {
+    Library { name: String },
+    Custom { material: Material },
+}
+
+/// How the turns are chosen.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "rule", rename_all = "snake_case", deny_unknown_fields)]
+pub enum TurnsRule {
+    /// The fewest primary turns that keep Bpk within the limit.
+    FewestTurns,
+    /// Fewer core loss against more copper: the flux swing where
+    /// Pcore/Pcu = 2/β (see `design::solve`), never above the Bpk limit.
+    LeastLoss,
+    /// Exactly these primary turns (secondaries and reset follow).
+    Primary { turns: u32 },
+}
+
+/// Winding order from the bobbin outward.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Interleave {
+    /// P-S-P for single primaries, sequential for centre-tapped ones.
+    Auto,
+    /// Primary, then each other winding.
+    Sequential,
+    /// P-S-P: half the primary, the others, the other half.
+    SplitPrimary,
+    /// S-P-S: half of each other winding, the primary, the other halves.
+    SplitSecondaries,
+}
+
+/// A conductor the user fixes for one winding (others stay automatic).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
+pub enum WireChoice {
+    /// Enamelled round wire, AWG, `parallel` in hand.
+    Round { awg: i32, parallel: u32 },
+    /// Litz: `strands` of AWG `strand_awg`.
+    Litz { strands: u32, strand_awg: i32 },
+    /// Copper foil of this thickness (m), as wide as the bobbin allows.
+    Foil { thickness: f64 },
+    /// Triple-insulated round wire of this AWG, `parallel` in hand.
+    TripleInsulated { awg: i32, parallel: u32 },
+}
+
+/// A fixed conductor for the winding called `winding` (e.g. "secondary 1").
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct WireOverride {
+    pub winding: String,
+    pub wire: WireChoice,
+}
+
+/// Insulation between sections and at the flanges.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct Insulation {
+    /// Wraps of tape between sections.
+    pub section_wraps: u32,
+    /// Wraps over the last section.
+    pub outer_wraps: u32,
+    /// Wraps between layers inside a section (0: none).
+    pub interlayer_wraps: u32,
+    /// Tape thickness, m.
+    pub tape_thickness: f64,
+    /// Margin tape width at each flange, m (`None`: chosen from the
+    /// isolation class and the input).
+    pub margin: Option<f64>,
+}
+
+impl Default for Insulation {
+    fn default() -> Self {
+        Insulation { section_wraps: 2, outer_wraps: 3, interlayer_wraps: 0, tape_thickness: 0.05e-3, margin: None }
+    }
+}
+
+/// The designer's decisions; every one has a sensible default.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(default, deny_unknown_fields)]
+pub struct Choices {
+    /// Highest peak flux density allowed, T (`None`: Bsat at the hot-spot
+    /// limit less the saturation margin).
+    pub b_max: Option<f64>,
+    /// Fraction kept below Bsat (0.2: stay 20 % below).
+    pub saturation_margin: f64,
+    pub turns: TurnsRule,
+    /// Where a flyback's gap goes.
+    pub gap_placement: GapPlacement,
+    pub interleave: Interleave,
+    /// Fraction of the window area the copper may fill when the wire is
+    /// chosen automatically (Ku of Erickson & Maksimovic ch. 15).
+    pub window_utilisation: f64,
+    pub wires: Vec<WireOverride>,
+    pub insulation: Insulation,
+    /// Rise and fall time of the switching edges, s. 0 (the default) takes
+    /// ideal steps, closed by the analytic tail: the conservative choice.
+    pub edge_time: f64,
+    /// The switch's voltage rating to check against, V (`None`: not checked).
+    pub switch_voltage_rating: Option<f64>,
+}
+
+impl Default for Choices {
+    fn default() -> Self {
+        Choices {
+            b_max: None,
+            saturation_margin: 0.2,
+            turns: TurnsRule::LeastLoss,
+            gap_placement: GapPlacement::CentreLeg,
+            interleave: Interleave::Auto,
+            window_utilisation: 0.3,
+            wires: Vec::new(),
+            insulation: Insulation::default(),
+            edge_time: 0.0,
+            switch_voltage_rating: None,
+        }
+    }
+}
+
+impl Design {
+    fn new(name: &str, spec: Spec, core: &str, material: &str) -> Design {
+        Design {
+            schema: SCHEMA.into(),
+            version: VERSION,
+            name: name.into(),
+            spec,
+            core: CoreChoice::Library { designation: core.into() },
+            material: MaterialChoice::Library { name: material.into() },
+            choices: Choices::default(),
+        }
+    }
+
+    /// The 48 V bus forward demo (a scenario of our own).
+    pub fn demo_forward() -> Design {
+        Design::new("48 V bus forward, 12 V 10 A", Spec::demo_forward(), "ETD 34", "MnZn-200k")
+    }
+
+    /// The offline 24 W flyback demo (a scenario of our own).
+    pub fn demo_flyback() -> Design {
+        Design::new("Offline 24 W flyback", Spec::demo_flyback(), "E 25/13/7", "MnZn-200k")
+    }
+
+    /// The 24 V push-pull demo (a scenario of our own).
+    pub fn demo_push_pull() -> Design {
+        Design::new("24 V push-pull", Spec::demo_push_pull(), "ETD 34", "MnZn-200k")
+    }
+
+    /// Reads a design file, refusing foreign and future files.
+    pub fn from_json(text: &str) -> Result<Design> {
+        crate::json::from_str(text)
+    }
+
+    /// Writes the design file (pretty JSON).
+    pub fn to_json(&self) -> String {
+        crate::json::to_string_pretty(self)
+    }
+
+    /// Checks the envelope (schema and version).
+    pub fn check_envelope(&self) -> Result<()> {
+        if self.schema != SCHEMA {
+            return Err(Error::format(Some("schema"), format!("not a Magwright design (schema \"{}\")", self.schema)));
+        }
+        if self.version != VERSION {
+            return Err(Error::format(
+                Some("version"),
+                format!("design file version {} is not supported (this Magwright reads version {VERSION})", self.version),
+            ));
+        }
+        Ok(())
+    }
+
+    /// The core this design uses.
+    pub fn resolve_core(&self) -> Result<Core> {
+        match &self.core {
+            CoreChoice::Library { designation } => cores::find(designation),
+            CoreChoice::Shape { designation, shape } => Core::from_shape(designation, shape.clone()),
+            CoreChoice::Effective { designation, parameters } => Core::from_effective(designation, parameters),
+        }
+    }
+
+    /// The material this design uses (validated).
+    pub fn resolve_material(&self) -> Result<Material> {
+        let m = match &self.material {
+            MaterialChoice::Library { name } => materials::find(name)?,
+            MaterialChoice::Custom { material } => material.clone(),
+        };
+        m.validate()?;
+        Ok(m)
+    }
+}
