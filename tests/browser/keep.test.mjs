@@ -69,6 +69,13 @@ test('a share link restores the design in a fresh browser', async () => {
   // A damaged link says so and falls back to the demo.
   const bad = await attach(other.context, PAGE_URL + '#design=eyJzY2hlbWEiOiAibWFn');
   assert.match(await bad.page.textContent('[data-testid="file-status"]'), /link's design could not be read: this is not valid JSON/);
+  // A link pasted into the open page (only the fragment changes) opens its design too.
+  await typeInto(bad.page, 'vout', '7');
+  await bad.page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).spec.vout === 7);
+  assert.notDeepEqual(await formState(bad.page), state);
+  await bad.page.evaluate((h) => { location.hash = h; }, link.slice(link.indexOf('#')));
+  await bad.page.waitForFunction(() => document.querySelector('[data-testid="file-status"]').textContent.includes('Opened the design from the link'));
+  assert.deepEqual(await formState(bad.page), state);
   assert.deepEqual([...requests, ...other.requests, ...bad.requests], []);
   assert.deepEqual([...errors, ...other.errors, ...bad.errors], []);
   await other.context.close();

@@ -58,6 +58,19 @@ test('every picture is drawn', async () => {
   for (const id of ['flux-plot', 'sweep-plot', 'window-plot']) {
     await page.locator(`[data-testid="${id}"]`).screenshot({ path: join(OUT, `plot-${id}.png`) });
   }
+  // A low flux limit at a low frequency: no design below a few kHz, shaded.
+  await typeInto(page, 'b_max', '20m');
+  await typeInto(page, 'frequency', '20k');
+  await page.waitForFunction(() => document.querySelector('#f-frequency').value === '20k');
+  await page.waitForSelector('[data-testid="np"]');
+  const shaded = await page.$eval('canvas[data-testid="sweep-plot"]', (c) => {
+    const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+    let n = 0;
+    for (let i = 0; i < d.length; i += 4) if (d[i] > 240 && d[i + 1] > 200 && d[i + 1] < 235 && d[i + 2] < 235 && d[i] - d[i + 2] > 15) n++;
+    return n;
+  });
+  assert.ok(shaded > 500, `the no-design band is drawn (${shaded} reddish pixels)`);
+  await page.locator('[data-testid="sweep-plot"]').screenshot({ path: join(OUT, 'plot-sweep-no-design.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

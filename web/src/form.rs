@@ -302,6 +302,8 @@ pub struct SweepPoint {
     pub copper_loss: f64,
     pub total_loss: f64,
     pub secondary_turns: f64,
+    /// Peak flux density, T.
+    pub b_peak: f64,
     pub ok: bool,
 }
 
@@ -330,9 +332,10 @@ pub fn sweep(spec: &Spec, n: usize) -> Vec<SweepPoint> {
                     copper_loss: r.copper_loss,
                     total_loss: r.total_loss,
                     secondary_turns: f64::from(r.secondary_turns),
+                    b_peak: r.b_peak,
                     ok: true,
                 },
-                Err(_) => SweepPoint { frequency: f, core_loss: 0.0, copper_loss: 0.0, total_loss: 0.0, secondary_turns: 0.0, ok: false },
+                Err(_) => SweepPoint { frequency: f, core_loss: 0.0, copper_loss: 0.0, total_loss: 0.0, secondary_turns: 0.0, b_peak: 0.0, ok: false },
             }
         })
         .collect()

@@ -100,11 +100,18 @@ pub struct Series {
     /// Dashed, for limits and references rather than results. Dashes are
     /// laid per segment, so use it for lines of few points.
     pub dashed: bool,
+    /// Line width in pixels (2 unless `thin`).
+    pub width: u32,
 }
 
 impl Series {
     pub fn new(label: &str, points: Vec<(f64, f64)>, color: Rgb) -> Self {
-        Series { label: label.into(), points, color, side: Side::Left, dashed: false }
+        Series { label: label.into(), points, color, side: Side::Left, dashed: false, width: 2 }
+    }
+    /// A 1-pixel line, for a secondary quantity.
+    pub fn thin(mut self) -> Self {
+        self.width = 1;
+        self
     }
     pub fn right(mut self) -> Self {
         self.side = Side::Right;
@@ -112,11 +119,12 @@ impl Series {
     }
     pub fn dashed(mut self) -> Self {
         self.dashed = true;
+        self.width = 1;
         self
     }
 }
 
-/// A dot with a short label, e.g. "lowest loss".
+/// A dot at a point, named in the legend, e.g. "lowest loss: 1.2 W at 150 kHz".
 #[derive(Debug, Clone, PartialEq)]
 pub struct Marker {
     pub x: f64,
@@ -188,7 +196,12 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     let log = spec.x.log;
     let fx = move |x: f64| if log { x.log10() } else { x };
     let usable = |x: f64| x.is_finite() && (!log || x > 0.0);
-    let xs = spec.series.iter().flat_map(|s| s.points.iter().map(|p| p.0)).filter(|&x| usable(x));
+    let xs = spec
+        .series
+        .iter()
+        .flat_map(|s| s.points.iter().map(|p| p.0))
+        .chain(spec.shades.iter().flat_map(|s| [s.from, s.to]))
+        .filter(|&x| usable(x));
     let Some((x_lo, x_hi)) = extent(xs) else {
         return note(&root, "nothing to draw");
     };
@@ -210,8 +223,27 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     };
     let (u_lo, u_hi) = (fx(x_lo), fx(x_hi));
 
+    // The legend is a row (or rows) above the plot, so it never hides a line.
+    let mut entries: Vec<(String, Swatch)> = Vec::new();
+    for sh in &spec.shades {
+        if !entries.iter().any(|e| e.0 == sh.label) {
+            entries.push((sh.label.clone(), Swatch::Band));
+        }
+    }
+    for se in &spec.series {
+        let label = if se.side == Side::Right && y2_axis.is_some() { format!("{} (right)", se.label) } else { se.label.clone() };
+        entries.push((label, Swatch::Line(se.color.c(), se.width.max(1), se.dashed)));
+    }
+    for m in &spec.markers {
+        entries.push((m.label.clone(), Swatch::Dot(m.color.c())));
+    }
+    let (w, _) = root.dim_in_pixel();
+    let placed = legend_layout(&entries, 58, w as i32 - 10);
+    let rows = placed.iter().map(|p| p.1).max().map_or(0, |r| r + 1);
+
     let mut chart = ChartBuilder::on(&root)
         .margin(10)
+        .margin_top(10 + 18 * rows as u32)
         .margin_right(if y2_axis.is_some() { 4 } else { 16 })
         .x_label_area_size(40)
         .y_label_area_size(58)
@@ -290,7 +322,6 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     }
 
     // Shaded bands first, under the lines.
-    let mut shade_labels: Vec<&str> = Vec::new();
     let shade = RGBColor(200, 60, 60).mix(0.13);
     for s in &spec.shades {
         let (a, b) = (s.from.max(x_lo), s.to.min(x_hi));
@@ -298,47 +329,31 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             continue;
         }
         let (a, b) = (fx(a), fx(b));
-        let anno = chart
+        chart
             .draw_series(std::iter::once(Rectangle::new([(a, y_lo), (b, y_hi)], shade.filled())))
             .map_err(err)?;
-        if !shade_labels.contains(&s.label.as_str()) {
-            shade_labels.push(&s.label);
-            anno.label(s.label.clone())
-                .legend(move |(x, y)| Rectangle::new([(x, y - 5), (x + 18, y + 5)], RGBColor(200, 60, 60).mix(0.3).filled()));
-        }
     }
 
     for s in &spec.series {
         let pts: Vec<(f64, f64)> =
             s.points.iter().filter(|p| usable(p.0) && p.1.is_finite()).map(|&(x, y)| (fx(x), y)).collect();
         let color = s.color.c();
-        let style = color.stroke_width(if s.dashed { 1 } else { 2 });
-        let anno = match (s.side, s.dashed) {
+        let style = color.stroke_width(s.width.max(1));
+        match (s.side, s.dashed) {
             (Side::Left, false) => chart.draw_series(LineSeries::new(pts, style)),
             (Side::Left, true) => chart.draw_series(DashedLineSeries::new(pts, 6, 4, style)),
             (Side::Right, false) => chart.draw_secondary_series(LineSeries::new(pts, style)),
             (Side::Right, true) => chart.draw_secondary_series(DashedLineSeries::new(pts, 6, 4, style)),
         }
         .map_err(err)?;
-        let label = if s.side == Side::Right && y2_axis.is_some() { format!("{} (right)", s.label) } else { s.label.clone() };
-        anno.label(label).legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], style));
     }
 
-    let font = (FONT, 12).into_font().color(&INK);
     for m in &spec.markers {
         if !usable(m.x) || !m.y.is_finite() {
             continue;
         }
         let c = m.color.c();
-        // Label on the side with more room.
-        let (px, _) = chart.backend_coord(&(fx(m.x), y_lo));
-        let (left_px, _) = chart.backend_coord(&(u_lo, y_lo));
-        let (right_px, _) = chart.backend_coord(&(u_hi, y_lo));
-        let (dx, h) = if px > (left_px + right_px) / 2 { (-10, HPos::Right) } else { (10, HPos::Left) };
-        let el = EmptyElement::at((fx(m.x), m.y))
-            + Circle::new((0, 0), 5, c.filled())
-            + Circle::new((0, 0), 8, c.stroke_width(1))
-            + Text::new(m.label.clone(), (dx, -10), font.clone().pos(Pos::new(h, VPos::Bottom)));
+        let el = EmptyElement::at((fx(m.x), m.y)) + Circle::new((0, 0), 5, c.filled()) + Circle::new((0, 0), 8, c.stroke_width(1));
         match m.side {
             Side::Left => chart.draw_series(std::iter::once(el)),
             Side::Right => chart.draw_secondary_series(std::iter::once(el)),
@@ -346,15 +361,57 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
         .map_err(err)?;
     }
 
-    chart
-        .configure_series_labels()
-        .background_style(WHITE.mix(0.88))
-        .border_style(RGBColor(190, 196, 204))
-        .label_font((FONT, 12).into_font().color(&INK))
-        .position(SeriesLabelPosition::UpperRight)
-        .draw()
-        .map_err(err)?;
+    let font = (FONT, 12).into_font().color(&INK).pos(Pos::new(HPos::Left, VPos::Center));
+    for ((label, swatch), (x, row)) in entries.iter().zip(&placed) {
+        let y = 12 + 18 * *row as i32;
+        match *swatch {
+            Swatch::Line(c, width, dashed) => {
+                if dashed {
+                    for k in 0..3 {
+                        root.draw(&PathElement::new(vec![(x + 7 * k, y), (x + 7 * k + 4, y)], c.stroke_width(width))).map_err(err)?;
+                    }
+                } else {
+                    root.draw(&PathElement::new(vec![(*x, y), (x + 18, y)], c.stroke_width(width))).map_err(err)?;
+                }
+            }
+            Swatch::Band => root
+                .draw(&Rectangle::new([(*x, y - 6), (x + 18, y + 6)], RGBColor(200, 60, 60).mix(0.3).filled()))
+                .map_err(err)?,
+            Swatch::Dot(c) => root.draw(&Circle::new((x + 9, y), 5, c.filled())).map_err(err)?,
+        }
+        root.draw(&Text::new(label.clone(), (x + 24, y), font.clone())).map_err(err)?;
+    }
     root.present().map_err(err)
+}
+
+/// The sample drawn before a legend label.
+#[derive(Debug, Clone, Copy)]
+enum Swatch {
+    Line(RGBColor, u32, bool),
+    Band,
+    Dot(RGBColor),
+}
+
+/// Rough width of a label at 12 px sans-serif (no text metrics here).
+fn text_px(s: &str) -> i32 {
+    (s.chars().count() as i32 * 27) / 4
+}
+
+/// Places legend entries left to right from `left`, wrapping at `right`:
+/// (x, row) of each entry.
+fn legend_layout(entries: &[(String, Swatch)], left: i32, right: i32) -> Vec<(i32, usize)> {
+    let mut out = Vec::with_capacity(entries.len());
+    let (mut x, mut row) = (left, 0);
+    for (label, _) in entries {
+        let w = 24 + text_px(label) + 16;
+        if x + w > right && x > left {
+            x = left;
+            row += 1;
+        }
+        out.push((x, row));
+        x += w;
+    }
+    out
 }
 
 /// What a rectangle of a cross-section is; sets its colour and legend.

@@ -128,7 +128,7 @@ fn flux_chart(r: &Report) -> LineChart {
     }
 }
 
-/// Losses against switching frequency (log), Ns on the right axis, the
+/// Losses against switching frequency (log), Bpk on the right axis, the
 /// lowest-loss point and this design marked, no-design ranges shaded.
 fn sweep_chart(points: &[SweepPoint], spec_f: f64, r: &Report) -> LineChart {
     let ok: Vec<&SweepPoint> = points.iter().filter(|p| p.ok).collect();
@@ -152,7 +152,7 @@ fn sweep_chart(points: &[SweepPoint], spec_f: f64, r: &Report) -> LineChart {
         x: spec_f,
         y: r.total_loss,
         side: Side::Left,
-        label: "this design".into(),
+        label: format!("this design: {}", notation::format(r.total_loss, "W", 3)),
         color: plot::GREY,
     }];
     if let Some(best) = ok.iter().min_by(|a, b| a.total_loss.total_cmp(&b.total_loss)) {
@@ -167,12 +167,12 @@ fn sweep_chart(points: &[SweepPoint], spec_f: f64, r: &Report) -> LineChart {
     LineChart {
         x: Axis::new("Switching frequency", "Hz").log(),
         y: Axis::new("Loss", "W").from_zero(),
-        y2: Some(Axis::new("Secondary turns", "").from_zero()),
+        y2: Some(Axis::new("Bpk", "mT").from_zero()),
         series: vec![
             Series::new("total", line(|p| p.total_loss), plot::GREEN),
             Series::new("core", line(|p| p.core_loss), plot::BLUE),
             Series::new("copper", line(|p| p.copper_loss), plot::ORANGE),
-            Series::new("Ns", line(|p| p.secondary_turns), plot::PURPLE).right(),
+            Series::new("Bpk", line(|p| p.b_peak * 1e3), plot::PURPLE).right().thin(),
         ],
         markers,
         shades,
@@ -199,32 +199,29 @@ pub fn Pictures(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldError
             <figcaption>"Flux density over one switching period, at Vin min and Vin max."</figcaption>
         </figure>
         <figure class="plot" class:hidden=hidden>
-            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=280 draw=draw_sweep />
+            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=300 draw=draw_sweep />
             <figcaption>"The same design at other switching frequencies (the engine's design at each of 200 points)."</figcaption>
         </figure>
     }
 }
 
-/// The winding window to scale. The core's window and the bobbin's
-/// winding space are all the forward slice reports; the bobbin is drawn
-/// against the centre leg, centred along it (a placement for the picture
-/// only). When the engine reports a layer stack-up, its layers go here as
-/// `Kind::Primary`, `Kind::Secondary` and `Kind::Insulation` rectangles.
+/// The winding window to scale. The forward slice reports only the
+/// bobbin's winding space (breadth along the leg × height across), drawn
+/// from the centre leg's face. When the engine reports a layer stack-up,
+/// its layers go here as `Kind::Primary`, `Kind::Secondary` and
+/// `Kind::Insulation` rectangles (and the core window as `Kind::CoreWindow`
+/// once the core data give its width).
 fn window_rects(r: &Report) -> Vec<Rect> {
     let c = &r.core;
-    let (g, b, h) = (c.window_height, c.winding_breadth, c.winding_height);
-    let width = if g > 0.0 { c.window_area / g } else { h };
-    vec![
-        Rect { x: 0.0, y: 0.0, w: width, h: g, kind: plot::Kind::CoreWindow, label: String::new() },
-        Rect {
-            x: 0.0,
-            y: (g - b) / 2.0,
-            w: h,
-            h: b,
-            kind: plot::Kind::Bobbin,
-            label: format!("{:.1} × {:.1} mm", h * 1e3, b * 1e3),
-        },
-    ]
+    let (b, h) = (c.winding_breadth, c.winding_height);
+    vec![Rect {
+        x: 0.0,
+        y: 0.0,
+        w: h,
+        h: b,
+        kind: plot::Kind::Bobbin,
+        label: format!("{} × {}", notation::format(h, "m", 3), notation::format(b, "m", 3)),
+    }]
 }
 
 /// The windings: what to wind, and the window they go into.
@@ -281,7 +278,10 @@ pub fn BuildSheet(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldErr
                 .iter()
                 .zip(vals)
                 .filter(|(d, _)| !d.whole)
-                .map(|(d, v)| view! { <tr><th scope="row">{d.label}</th><td>{notation::format(v, d.unit, 4)}</td></tr> })
+                .map(|(d, v)| {
+                    let text = if d.unit.is_empty() { format!("{v}") } else { notation::format(v, d.unit, 3) };
+                    view! { <tr><th scope="row">{d.label}</th><td>{text}</td></tr> }
+                })
                 .collect_view();
             view! {
                 <h2>"Specification"</h2>
