@@ -1,9 +1,9 @@
 // The printed build sheet, the pictures and the layout at laptop and tablet width.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
-import { writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { launch, openPage, cli, shown, typeInto, canvasInk, OUT } from './harness.mjs';
+import { launch, openPage, cli, shown, typeInto, canvasInk, close, OUT } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -34,6 +34,7 @@ test('print build sheet: the sheet only, with the engine numbers', async () => {
   const pdf = await page.pdf({ format: 'A4' });
   writeFileSync(join(OUT, 'build-sheet.pdf'), pdf);
   assert.equal(pdf.subarray(0, 5).toString(), '%PDF-');
+  assert.match(pdf.toString('latin1'), /\/Count 1\b/, 'the build sheet fits one A4 page');
   await page.emulateMedia({ media: 'screen' });
   assert.equal(await page.isVisible('[data-testid="build-sheet"]'), false, 'not on screen');
   assert.deepEqual(requests, []);
@@ -58,6 +59,16 @@ test('every picture is drawn', async () => {
   for (const id of ['flux-plot', 'sweep-plot', 'window-plot']) {
     await page.locator(`[data-testid="${id}"]`).screenshot({ path: join(OUT, `plot-${id}.png`) });
   }
+  // The sweep downloads as CSV: the engine's numbers, one row per point.
+  const [dl] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="sweep-csv"]')]);
+  assert.equal(dl.suggestedFilename(), 'magwright-sweep.csv');
+  const rows = readFileSync(await dl.path(), 'utf8').trim().split('\n');
+  assert.equal(rows[0], 'frequency_hz,design,total_loss_w,core_loss_w,copper_loss_w,secondary_turns,b_peak_t');
+  assert.equal(rows.length, 201);
+  const mid = rows[100].split(',');
+  const at = cli(['forward', '-'], JSON.stringify({ ...cli(['demo']), duty_max: 0.4, frequency: Number(mid[0]) }));
+  assert.ok(close(Number(mid[2]), at.total_loss) && Number(mid[5]) === at.secondary_turns, `CSV row ${rows[100]} vs engine`);
+
   // A low flux limit at a low frequency: no design below a few kHz, shaded.
   await typeInto(page, 'b_max', '20m');
   await typeInto(page, 'frequency', '20k');

@@ -69,14 +69,19 @@ fn initial(hash: &str) -> (Spec, Source, Option<Status>) {
         browser::clear_hash();
         match link {
             Ok(spec) => return (spec, Source::Link, Status::ok("Opened the design from the link.")),
-            Err(m) => note = Status::err(format!("The link's design could not be read: {m}. Nothing was taken from it.")),
+            Err(m) => {
+                note = Status::err(format!("The link's design could not be read: {m}. Nothing was taken from it."))
+            }
         }
     }
     if let Some(text) = persist::load() {
         match files::from_json::<Spec>(&text) {
             Ok(spec) => return (spec, Source::Storage, note),
             Err(e) => {
-                note = note.or(Status::err(format!("The design saved in this browser could not be read ({}); showing the demo.", describe(&e))))
+                note = note.or(Status::err(format!(
+                    "The design saved in this browser could not be read ({}); showing the demo.",
+                    describe(&e)
+                )))
             }
         }
     }
@@ -118,7 +123,9 @@ pub fn App() -> impl IntoView {
                     form.set(&s);
                     status.set(Status::ok("Opened the design from the link."));
                 }
-                Err(m) => status.set(Status::err(format!("The link's design could not be read: {m}. Nothing was changed."))),
+                Err(m) => {
+                    status.set(Status::err(format!("The link's design could not be read: {m}. Nothing was changed.")))
+                }
             }
         } else {
             panic::test_route(&h, persist::load().is_some());
@@ -167,7 +174,11 @@ pub fn App() -> impl IntoView {
 
 /// Save, open, copy link, print, and their messages.
 #[component]
-fn FileActions(form: Form, spec: Memo<Result<Spec, form::FieldErrors>>, status: RwSignal<Option<Status>>) -> impl IntoView {
+fn FileActions(
+    form: Form,
+    spec: Memo<Result<Spec, form::FieldErrors>>,
+    status: RwSignal<Option<Status>>,
+) -> impl IntoView {
     let file_input = NodeRef::<Input>::new();
     let link = RwSignal::new(None::<String>);
     let current = move || spec.get_untracked().ok().map(|s| files::to_json(&s));
@@ -177,7 +188,9 @@ fn FileActions(form: Form, spec: Memo<Result<Spec, form::FieldErrors>>, status: 
             Ok(()) => status.set(Status::ok(format!("Saved the design as {FILE_NAME} (see your downloads)."))),
             Err(e) => status.set(Status::err(format!("Could not save: {e}."))),
         },
-        None => status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be saved.")),
+        None => {
+            status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be saved."))
+        }
     };
     let choose = move |_| {
         if let Some(i) = file_input.get() {
@@ -208,12 +221,15 @@ fn FileActions(form: Form, spec: Memo<Result<Spec, form::FieldErrors>>, status: 
             link.set(Some(url.clone()));
             spawn_local(async move {
                 match browser::copy(&url).await {
-                    Ok(()) => status.set(Status::ok("Copied a link that holds this design. Anyone opening it sees this design.")),
+                    Ok(()) => status
+                        .set(Status::ok("Copied a link that holds this design. Anyone opening it sees this design.")),
                     Err(e) => status.set(Status::ok(format!("The link is below; copy it from there ({e})."))),
                 }
             });
         }
-        None => status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be shared.")),
+        None => {
+            status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be shared."))
+        }
     };
     let print = move |_| {
         if let Err(e) = browser::print() {

@@ -58,8 +58,8 @@ pub fn from_json<S: DeserializeOwned>(text: &str) -> Result<S, Error> {
     if text.len() > MAX_BYTES {
         return Err(Error::format(None, format!("the file is {} KB; a design file is a few KB", text.len() / 1024)));
     }
-    let value: serde_json::Value =
-        serde_json::from_str(text).map_err(|e| Error::format(None, format!("this is not valid JSON: {}", serde_msg(&e))))?;
+    let value: serde_json::Value = serde_json::from_str(text)
+        .map_err(|e| Error::format(None, format!("this is not valid JSON: {}", serde_msg(&e))))?;
     let Some(obj) = value.as_object() else {
         return Err(foreign("the file holds no JSON object"));
     };
@@ -74,7 +74,9 @@ pub fn from_json<S: DeserializeOwned>(text: &str) -> Result<S, Error> {
         Some(v) if v > VERSION => {
             return Err(Error::format(
                 Some("version"),
-                format!("the file was written by a newer Magwright (file version {v}); this page reads version {VERSION}"),
+                format!(
+                    "the file was written by a newer Magwright (file version {v}); this page reads version {VERSION}"
+                ),
             ))
         }
         _ => return Err(Error::format(Some("version"), "the file's \"version\" must be a whole number from 1")),
@@ -137,7 +139,8 @@ mod tests {
         assert_eq!(e.field(), Some("schema"));
         let e = from_json::<ForwardSpec>("[1, 2]").unwrap_err();
         assert!(e.message().contains("not a Magwright design file"));
-        let e = from_json::<ForwardSpec>("{\"schema\": \"magwright-design\", \"version\": 9, \"spec\": {}}").unwrap_err();
+        let e =
+            from_json::<ForwardSpec>("{\"schema\": \"magwright-design\", \"version\": 9, \"spec\": {}}").unwrap_err();
         assert!(e.message().contains("newer"));
         let mut v: serde_json::Value = serde_json::from_str(&to_json(&ForwardSpec::demo())).unwrap();
         v["spec"].as_object_mut().unwrap().remove("vout");

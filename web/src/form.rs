@@ -185,7 +185,9 @@ impl Form {
         let mut vals = [0.0; 11];
         for (i, d) in NUMS.iter().enumerate() {
             match self.texts[i].with(|t| notation::parse(t, d.unit)) {
-                Ok(v) if d.whole && v.fract() != 0.0 => errs.push((d.key, "a wire gauge is a whole number".to_string())),
+                Ok(v) if d.whole && v.fract() != 0.0 => {
+                    errs.push((d.key, "a wire gauge is a whole number".to_string()))
+                }
                 Ok(v) => vals[i] = v,
                 Err(e) => errs.push((d.key, e.to_string())),
             }
@@ -335,7 +337,15 @@ pub fn sweep(spec: &Spec, n: usize) -> Vec<SweepPoint> {
                     b_peak: r.b_peak,
                     ok: true,
                 },
-                Err(_) => SweepPoint { frequency: f, core_loss: 0.0, copper_loss: 0.0, total_loss: 0.0, secondary_turns: 0.0, b_peak: 0.0, ok: false },
+                Err(_) => SweepPoint {
+                    frequency: f,
+                    core_loss: 0.0,
+                    copper_loss: 0.0,
+                    total_loss: 0.0,
+                    secondary_turns: 0.0,
+                    b_peak: 0.0,
+                    ok: false,
+                },
             }
         })
         .collect()

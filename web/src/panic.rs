@@ -56,7 +56,9 @@ pub fn show_overlay() {
     );
     if let Some(body) = doc.body() {
         let _ = body.append_child(&el);
-        if let Some(b) = el.query_selector("button").ok().flatten().and_then(|b| b.dyn_into::<web_sys::HtmlElement>().ok()) {
+        if let Some(b) =
+            el.query_selector("button").ok().flatten().and_then(|b| b.dyn_into::<web_sys::HtmlElement>().ok())
+        {
             let _ = b.focus();
         }
     }

@@ -92,11 +92,22 @@ mod tests {
     /// RFC 4648 §10 test vectors (base64; base64url differs only in 62/63).
     #[test]
     fn rfc4648_vectors() {
-        let cases = [("", ""), ("f", "Zg"), ("fo", "Zm8"), ("foo", "Zm9v"), ("foob", "Zm9vYg"), ("fooba", "Zm9vYmE"), ("foobar", "Zm9vYmFy")];
+        let cases = [
+            ("", ""),
+            ("f", "Zg"),
+            ("fo", "Zm8"),
+            ("foo", "Zm9v"),
+            ("foob", "Zm9vYg"),
+            ("fooba", "Zm9vYmE"),
+            ("foobar", "Zm9vYmFy"),
+        ];
         for (plain, enc) in cases {
             assert_eq!(base64url_encode(plain.as_bytes()), enc);
             assert_eq!(base64url_decode(enc).unwrap(), plain.as_bytes());
-            assert_eq!(base64url_decode(&format!("{enc}{}", "=".repeat((4 - enc.len() % 4) % 4))).unwrap(), plain.as_bytes());
+            assert_eq!(
+                base64url_decode(&format!("{enc}{}", "=".repeat((4 - enc.len() % 4) % 4))).unwrap(),
+                plain.as_bytes()
+            );
         }
         assert_eq!(base64url_encode(&[0xfb, 0xff]), "-_8");
         assert_eq!(base64url_decode("-_8").unwrap(), vec![0xfb, 0xff]);

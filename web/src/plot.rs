@@ -231,7 +231,11 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
         }
     }
     for se in &spec.series {
-        let label = if se.side == Side::Right && y2_axis.is_some() { format!("{} (right)", se.label) } else { se.label.clone() };
+        let label = if se.side == Side::Right && y2_axis.is_some() {
+            format!("{} (right)", se.label)
+        } else {
+            se.label.clone()
+        };
         entries.push((label, Swatch::Line(se.color.c(), se.width.max(1), se.dashed)));
     }
     for m in &spec.markers {
@@ -290,7 +294,13 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     if log {
         // Our own log ticks: light lines at every 1…9 of a decade, labels at 1-2-5.
         let decades = (x_hi / x_lo).log10();
-        let steps: &[f64] = if decades > 3.5 { &[1.0] } else if decades > 1.2 { &[1.0, 2.0, 5.0] } else { &[1.0, 1.5, 2.0, 3.0, 5.0, 7.0] };
+        let steps: &[f64] = if decades > 3.5 {
+            &[1.0]
+        } else if decades > 1.2 {
+            &[1.0, 2.0, 5.0]
+        } else {
+            &[1.0, 1.5, 2.0, 3.0, 5.0, 7.0]
+        };
         let d0 = x_lo.log10().floor() as i32;
         let d1 = x_hi.log10().ceil() as i32;
         let mut grid = Vec::new();
@@ -329,9 +339,7 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             continue;
         }
         let (a, b) = (fx(a), fx(b));
-        chart
-            .draw_series(std::iter::once(Rectangle::new([(a, y_lo), (b, y_hi)], shade.filled())))
-            .map_err(err)?;
+        chart.draw_series(std::iter::once(Rectangle::new([(a, y_lo), (b, y_hi)], shade.filled()))).map_err(err)?;
     }
 
     for s in &spec.series {
@@ -353,7 +361,9 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             continue;
         }
         let c = m.color.c();
-        let el = EmptyElement::at((fx(m.x), m.y)) + Circle::new((0, 0), 5, c.filled()) + Circle::new((0, 0), 8, c.stroke_width(1));
+        let el = EmptyElement::at((fx(m.x), m.y))
+            + Circle::new((0, 0), 5, c.filled())
+            + Circle::new((0, 0), 8, c.stroke_width(1));
         match m.side {
             Side::Left => chart.draw_series(std::iter::once(el)),
             Side::Right => chart.draw_secondary_series(std::iter::once(el)),
@@ -368,7 +378,8 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             Swatch::Line(c, width, dashed) => {
                 if dashed {
                     for k in 0..3 {
-                        root.draw(&PathElement::new(vec![(x + 7 * k, y), (x + 7 * k + 4, y)], c.stroke_width(width))).map_err(err)?;
+                        root.draw(&PathElement::new(vec![(x + 7 * k, y), (x + 7 * k + 4, y)], c.stroke_width(width)))
+                            .map_err(err)?;
                     }
                 } else {
                     root.draw(&PathElement::new(vec![(*x, y), (x + 18, y)], c.stroke_width(width))).map_err(err)?;
@@ -481,10 +492,9 @@ pub fn cross_section(canvas: &HtmlCanvasElement, rects: &[Rect]) -> Result<(), S
     let root = area(canvas)?;
     let ok = |r: &&Rect| [r.x, r.y, r.w, r.h].iter().all(|v| v.is_finite()) && r.w > 0.0 && r.h > 0.0;
     let rects: Vec<&Rect> = rects.iter().filter(ok).collect();
-    let (Some((x0, x1)), Some((y0, y1))) = (
-        extent(rects.iter().flat_map(|r| [r.x, r.x + r.w])),
-        extent(rects.iter().flat_map(|r| [r.y, r.y + r.h])),
-    ) else {
+    let (Some((x0, x1)), Some((y0, y1))) =
+        (extent(rects.iter().flat_map(|r| [r.x, r.x + r.w])), extent(rects.iter().flat_map(|r| [r.y, r.y + r.h])))
+    else {
         return note(&root, "nothing to draw");
     };
     let (w, h) = root.dim_in_pixel();

@@ -108,7 +108,8 @@ fn Cautions(warnings: Vec<String>) -> impl IntoView {
 
 /// Flux density over one period, at both line extremes, against Bsat.
 fn flux_chart(r: &Report) -> LineChart {
-    let pts = |w: &magwright_engine::waveform::Pwl| w.points.iter().map(|&(t, b)| (t * 1e6, b * 1e3)).collect::<Vec<_>>();
+    let pts =
+        |w: &magwright_engine::waveform::Pwl| w.points.iter().map(|&(t, b)| (t * 1e6, b * 1e3)).collect::<Vec<_>>();
     let t_end = r.flux_at_vin_min.period * 1e6;
     let mut series = vec![
         Series::new("Vin min", pts(&r.flux_at_vin_min), plot::BLUE),
@@ -160,7 +161,11 @@ fn sweep_chart(points: &[SweepPoint], spec_f: f64, r: &Report) -> LineChart {
             x: best.frequency,
             y: best.total_loss,
             side: Side::Left,
-            label: format!("lowest: {} at {}", notation::format(best.total_loss, "W", 3), notation::format(best.frequency, "Hz", 3)),
+            label: format!(
+                "lowest: {} at {}",
+                notation::format(best.total_loss, "W", 3),
+                notation::format(best.frequency, "Hz", 3)
+            ),
             color: plot::GREEN,
         });
     }
@@ -179,6 +184,23 @@ fn sweep_chart(points: &[SweepPoint], spec_f: f64, r: &Report) -> LineChart {
     }
 }
 
+/// The sweep as CSV, one row per frequency, SI units; rows without a
+/// design say so and leave the numbers empty.
+pub fn sweep_csv(points: &[SweepPoint]) -> String {
+    let mut out = String::from("frequency_hz,design,total_loss_w,core_loss_w,copper_loss_w,secondary_turns,b_peak_t\n");
+    for p in points {
+        if p.ok {
+            out.push_str(&format!(
+                "{},yes,{},{},{},{},{}\n",
+                p.frequency, p.total_loss, p.core_loss, p.copper_loss, p.secondary_turns, p.b_peak
+            ));
+        } else {
+            out.push_str(&format!("{},none,,,,,\n", p.frequency));
+        }
+    }
+    out
+}
+
 /// The flux waveform and the frequency sweep.
 #[component]
 pub fn Pictures(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldErrors>>) -> impl IntoView {
@@ -192,6 +214,13 @@ pub fn Pictures(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldError
         _ => Ok(()),
     };
     let hidden = move || outcome.with(|o| o.is_err());
+    let save_csv = move |_| {
+        if let Err(e) =
+            sweep.with_untracked(|pts| crate::browser::download("magwright-sweep.csv", "text/csv", &sweep_csv(pts)))
+        {
+            leptos::logging::warn!("sweep CSV: {e}");
+        }
+    };
     view! {
         <p class="missing-note" class:hidden=move || !hidden()>"The pictures appear once the design computes."</p>
         <figure class="plot" class:hidden=hidden>
@@ -200,7 +229,9 @@ pub fn Pictures(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldError
         </figure>
         <figure class="plot" class:hidden=hidden>
             <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=300 draw=draw_sweep />
-            <figcaption>"The same design at other switching frequencies (the engine's design at each of 200 points)."</figcaption>
+            <figcaption>"The same design at other switching frequencies (the engine's design at each of 200 points). "
+                <button type="button" class="small" data-testid="sweep-csv" on:click=save_csv>"Download as CSV"</button>
+            </figcaption>
         </figure>
     }
 }
@@ -290,13 +321,12 @@ pub fn BuildSheet(outcome: Memo<Outcome>, spec: Memo<Result<Spec, form::FieldErr
                 <table class="sheet-table"><tbody>
                     <tr><th scope="row">"Core"</th><td data-testid="sheet-core">{r.core.designation.clone()}</td></tr>
                     <tr><th scope="row">"Material"</th><td>{r.material.clone()}</td></tr>
-                    <tr><th scope="row">"Gap"</th><td>"none (forward transformer)"</td></tr>
                     <tr><th scope="row">"ΔB = Bpk"</th><td>{notation::format(r.b_peak, "T", 3)}" (Bsat "{notation::format(r.b_sat, "T", 3)}")"</td></tr>
                 </tbody></table>
                 <h2>"Windings"</h2>
                 <table class="sheet-table"><thead><tr><th>"Winding"</th><th>"Turns"</th><th>"Wire"</th><th>"RMS current"</th><th>"Rdc"</th></tr></thead><tbody>
                     <tr><th scope="row">"Primary"</th><td data-testid="sheet-np">{r.primary_turns}</td><td>{format!("AWG {}", s.awg_primary)}</td><td>{notation::format(r.primary_rms, "A", 3)}</td><td>{notation::format(r.primary_rdc, "Ω", 3)}</td></tr>
-                    <tr><th scope="row">"Reset (1:1)"</th><td>{r.primary_turns}</td><td>"not sized by this slice"</td><td>"—"</td><td>"—"</td></tr>
+                    <tr><th scope="row">"Reset (1:1)"</th><td>{r.primary_turns}" (= Np)"</td><td>"not sized by this slice"</td><td>"—"</td><td>"—"</td></tr>
                     <tr><th scope="row">"Secondary"</th><td data-testid="sheet-ns">{r.secondary_turns}</td><td>{format!("AWG {}", s.awg_secondary)}</td><td>{notation::format(r.secondary_rms, "A", 3)}</td><td>{notation::format(r.secondary_rdc, "Ω", 3)}</td></tr>
                 </tbody></table>
                 <p>"Window fill (copper): "{format!("{:.1} %", r.window_fill * 100.0)}</p>
