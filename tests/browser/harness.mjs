@@ -23,21 +23,30 @@ export async function launch() {
   });
 }
 
-// Opens the page from file:// and records requests other than the page itself.
-export async function openPage(browser, { url = pathToFileURL(PAGE).href, viewport = { width: 1280, height: 900 } } = {}) {
-  const context = await browser.newContext({ viewport });
+// Opens the page from file:// in a fresh context (empty storage) and
+// records requests other than the page itself.
+export async function openPage(browser, { url = PAGE_URL, viewport = { width: 1280, height: 900 }, wait = '[data-testid="np"]' } = {}) {
+  const context = await browser.newContext({ viewport, acceptDownloads: true });
+  const { page, requests, errors } = await attach(context, url, { wait });
+  return { context, page, requests, errors };
+}
+
+export const PAGE_URL = pathToFileURL(PAGE).href;
+
+// A new page in an existing context (sharing its localStorage), recording
+// requests (other than the page's own address, fragment aside) and errors.
+export async function attach(context, url = PAGE_URL, { wait = '[data-testid="np"]', requests = [], errors = [] } = {}) {
   const page = await context.newPage();
-  const requests = [];
-  const errors = [];
+  const base = url.split('#')[0];
   page.on('request', (r) => {
     const u = r.url();
-    if (u !== url && !u.startsWith('data:') && !u.startsWith('blob:')) requests.push(u);
+    if (u.split('#')[0] !== base && !u.startsWith('data:') && !u.startsWith('blob:')) requests.push(u);
   });
   page.on('pageerror', (e) => errors.push(String(e)));
   page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });
   await page.goto(url);
-  await page.waitForSelector('[data-testid="np"]', { timeout: 15000 });
-  return { context, page, requests, errors };
+  if (wait) await page.waitForSelector(wait, { timeout: 15000 });
+  return { page, requests, errors };
 }
 
 // Runs the native CLI; returns parsed JSON.
@@ -64,4 +73,27 @@ export async function typeInto(page, key, text) {
 
 export function close(a, b, rel = 1e-9) {
   return Math.abs(a - b) <= rel * Math.max(Math.abs(a), Math.abs(b), 1e-30);
+}
+
+// The text of every input and select of the form, by element id.
+export async function formState(page) {
+  return page.$$eval('main input[id^="f-"], main select[id^="f-"]', (els) => Object.fromEntries(els.map((e) => [e.id, e.value])));
+}
+
+// Share of a canvas's pixels that are not white, and how many distinct colours.
+export async function canvasInk(page, testid) {
+  return page.$eval(`canvas[data-testid="${testid}"]`, (c) => {
+    const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+    let ink = 0; const colours = new Set();
+    for (let i = 0; i < d.length; i += 4) {
+      if (d[i] < 245 || d[i + 1] < 245 || d[i + 2] < 245) ink++;
+      if (i % 64 === 0) colours.add((d[i] >> 4) * 256 + (d[i + 1] >> 4) * 16 + (d[i + 2] >> 4));
+    }
+    return { ink: ink / (c.width * c.height), colours: colours.size };
+  });
+}
+
+// Waits until a result shows a value other than `old`.
+export async function waitChanged(page, id, old) {
+  await page.waitForFunction(([i, v]) => { const e = document.querySelector(`[data-testid="${i}"]`); return e && e.dataset.si !== String(v); }, [id, old]);
 }

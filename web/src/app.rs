@@ -1,292 +1,273 @@
-//! The page: specification on the left, results and pictures on the right.
+//! The page: its layout, where the design comes from, and the Files actions.
 //!
-//! State lives in signals (the text of each field); everything else is
-//! derived in memos: the parsed specification, then the engine's report.
-//! An edit re-runs the whole chain.
+//! State lives in signals (the text of each field, in [`Form`]); everything
+//! else is derived in memos: the parsed spec, then the engine's outcome,
+//! then the last good design, which an effect saves to localStorage on
+//! every valid edit. Nothing here knows what kind of design it is: that is
+//! [`crate::form`] and [`crate::report_view`].
+//!
+//! Where the first design comes from, in order: a `#design=` share link,
+//! else the design saved in this browser, else the demo.
 
-use crate::field::Field;
-use crate::plot;
-use leptos::html::Canvas;
+use crate::browser;
+use crate::files;
+use crate::form::{self, CoreFields, Form, Outcome, Problem, Spec, SpecFields};
+use crate::panic;
+use crate::persist;
+use crate::report_view::{BuildSheet, Pictures, Results, Windings};
+use crate::ui::Panel;
+use leptos::html::Input;
 use leptos::prelude::*;
-use magwright_engine::core::library as cores;
-use magwright_engine::design::forward::{self, ForwardReport, ForwardSpec};
-use magwright_engine::material::library as materials;
-use magwright_engine::notation;
+use leptos::task::spawn_local;
 use magwright_engine::Error;
+use wasm_bindgen::JsCast;
 
-/// A numeric entry: its spec key, label, unit and help.
-struct NumDef {
-    key: &'static str,
-    label: &'static str,
-    unit: &'static str,
-    help: &'static str,
+/// Name of a saved design file.
+const FILE_NAME: &str = "magwright-design.json";
+
+/// Where the design on screen at start came from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Source {
+    Link,
+    Storage,
+    Demo,
 }
 
-const NUMS: [NumDef; 11] = [
-    NumDef { key: "vin_min", label: "Vin min", unit: "V", help: "Lowest DC input voltage" },
-    NumDef { key: "vin_max", label: "Vin max", unit: "V", help: "Highest DC input voltage" },
-    NumDef { key: "vout", label: "Vout", unit: "V", help: "Output voltage" },
-    NumDef { key: "iout", label: "Iout", unit: "A", help: "Full-load output current" },
-    NumDef { key: "rectifier_drop", label: "Vf rectifier", unit: "V", help: "Forward drop of the output rectifier" },
-    NumDef { key: "frequency", label: "fsw", unit: "Hz", help: "Switching frequency, e.g. 200k" },
-    NumDef { key: "duty_max", label: "Duty max", unit: "", help: "Largest duty the controller allows (≤ 0.5 with a 1:1 reset winding)" },
-    NumDef { key: "b_max", label: "Bpk max", unit: "T", help: "Peak flux density the design may reach, e.g. 150m" },
-    NumDef { key: "temperature", label: "Temperature", unit: "°C", help: "Core and winding temperature for the loss figures" },
-    NumDef { key: "awg_primary", label: "Primary wire", unit: "AWG", help: "Primary wire gauge" },
-    NumDef { key: "awg_secondary", label: "Secondary wire", unit: "AWG", help: "Secondary wire gauge" },
-];
-
-/// The texts of the numeric fields, in `NUMS` order.
-fn demo_texts(s: &ForwardSpec) -> [String; 11] {
-    let g = |v: f64| format!("{v}");
-    [
-        g(s.vin_min),
-        g(s.vin_max),
-        g(s.vout),
-        g(s.iout),
-        g(s.rectifier_drop),
-        notation::format(s.frequency, "", 3).replace(' ', ""),
-        g(s.duty_max),
-        notation::format(s.b_max, "", 3).replace(' ', ""),
-        g(s.temperature),
-        s.awg_primary.to_string(),
-        s.awg_secondary.to_string(),
-    ]
+/// A message from the Files actions.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Status {
+    pub ok: bool,
+    pub text: String,
 }
 
-/// Parse errors, per field key.
-type FieldErrors = Vec<(&'static str, String)>;
+impl Status {
+    fn ok(text: impl Into<String>) -> Option<Self> {
+        Some(Status { ok: true, text: text.into() })
+    }
+    fn err(text: impl Into<String>) -> Option<Self> {
+        Some(Status { ok: false, text: text.into() })
+    }
+}
 
-fn parse_spec(texts: &[String; 11], core: &str, material: &str) -> Result<ForwardSpec, FieldErrors> {
-    let mut errs = Vec::new();
-    let mut vals = [0.0; 11];
-    for (i, d) in NUMS.iter().enumerate() {
-        match notation::parse(&texts[i], d.unit) {
-            Ok(v) => vals[i] = v,
-            Err(e) => errs.push((d.key, e.to_string())),
+/// A file error for people: the message, and the field when serde named one.
+fn describe(e: &Error) -> String {
+    match e.field() {
+        Some(f) if f.starts_with("spec.") => format!("{} [field {f}]", e.message()),
+        _ => e.message().to_string(),
+    }
+}
+
+/// The design from a `#design=` fragment, if the fragment is one.
+fn from_link(hash: &str) -> Option<Result<Spec, String>> {
+    persist::from_fragment(hash).map(|r| r.and_then(|text| files::from_json::<Spec>(&text).map_err(|e| describe(&e))))
+}
+
+/// The first design: link, else storage, else demo; and a note to show.
+fn initial(hash: &str) -> (Spec, Source, Option<Status>) {
+    let mut note = None;
+    if let Some(link) = from_link(hash) {
+        browser::clear_hash();
+        match link {
+            Ok(spec) => return (spec, Source::Link, Status::ok("Opened the design from the link.")),
+            Err(m) => {
+                note = Status::err(format!("The link's design could not be read: {m}. Nothing was taken from it."))
+            }
         }
     }
-    let awg = |i: usize, errs: &mut FieldErrors| -> i32 {
-        let v = vals[i];
-        if v.fract() != 0.0 && !errs.iter().any(|e| e.0 == NUMS[i].key) {
-            errs.push((NUMS[i].key, "a wire gauge is a whole number".into()));
+    if let Some(text) = persist::load() {
+        match files::from_json::<Spec>(&text) {
+            Ok(spec) => return (spec, Source::Storage, note),
+            Err(e) => {
+                note = note.or(Status::err(format!(
+                    "The design saved in this browser could not be read ({}); showing the demo.",
+                    describe(&e)
+                )))
+            }
         }
-        v.clamp(-100.0, 100.0) as i32
-    };
-    let awg_p = awg(9, &mut errs);
-    let awg_s = awg(10, &mut errs);
-    if !errs.is_empty() {
-        return Err(errs);
     }
-    Ok(ForwardSpec {
-        vin_min: vals[0],
-        vin_max: vals[1],
-        vout: vals[2],
-        iout: vals[3],
-        rectifier_drop: vals[4],
-        frequency: vals[5],
-        duty_max: vals[6],
-        b_max: vals[7],
-        temperature: vals[8],
-        awg_primary: awg_p,
-        awg_secondary: awg_s,
-        core: core.to_string(),
-        material: material.to_string(),
-    })
+    (form::demo(), Source::Demo, note)
 }
 
 #[component]
 pub fn App() -> impl IntoView {
-    let demo = ForwardSpec::demo();
-    let texts: [RwSignal<String>; 11] = demo_texts(&demo).map(RwSignal::new);
-    let core = RwSignal::new(demo.core.clone());
-    let material = RwSignal::new(demo.material.clone());
+    let hash = browser::hash();
+    let (first, source, note) = initial(&hash);
+    let form = Form::new(&first);
+    let status = RwSignal::new(note);
 
-    let spec = Memo::new(move |_| {
-        let t = texts.map(|s| s.get());
-        parse_spec(&t, &core.get(), &material.get())
-    });
-    let report: Memo<Result<ForwardReport, Problem>> = Memo::new(move |_| match spec.get() {
+    let spec = Memo::new(move |_| form.parse());
+    let outcome: Memo<Outcome> = Memo::new(move |_| match spec.get() {
         Err(errs) => Err(Problem::Fields(errs)),
-        Ok(s) => forward::design(&s).map_err(Problem::Engine),
+        Ok(s) => form::compute(&s).map_err(Problem::Engine),
+    });
+    // The last good design: parsed and accepted by the engine.
+    let good = Memo::new(move |_| match (spec.get(), outcome.with(|o| o.is_ok())) {
+        (Ok(s), true) => Some(s),
+        _ => None,
+    });
+    let saved = RwSignal::new(true);
+    Effect::new(move |_| {
+        if let Some(s) = good.get() {
+            saved.set(persist::save(&files::to_json(&s)));
+        }
     });
 
-    let field_error = move |key: &'static str| {
-        Signal::derive(move || match report.get() {
-            Err(Problem::Fields(errs)) => errs.iter().find(|e| e.0 == key).map(|e| e.1.clone()),
-            Err(Problem::Engine(e)) if e.field() == Some(key) => Some(e.message().to_string()),
-            _ => None,
-        })
-    };
-
-    let fields = NUMS
-        .iter()
-        .enumerate()
-        .map(|(i, d)| {
-            view! { <Field key=d.key label=d.label unit=d.unit text=texts[i] error=field_error(d.key) help=d.help /> }
-        })
-        .collect_view();
+    // A link pasted into the address bar of the open page changes only the
+    // fragment; open its design too.
+    let _ = window_event_listener(leptos::ev::hashchange, move |_| {
+        let h = browser::hash();
+        if let Some(link) = from_link(&h) {
+            browser::clear_hash();
+            match link {
+                Ok(s) => {
+                    form.set(&s);
+                    status.set(Status::ok("Opened the design from the link."));
+                }
+                Err(m) => {
+                    status.set(Status::err(format!("The link's design could not be read: {m}. Nothing was changed.")))
+                }
+            }
+        } else {
+            panic::test_route(&h, persist::load().is_some());
+        }
+    });
+    panic::test_route(&hash, source == Source::Storage);
 
     view! {
+        <a class="skip" href="#results-h">"Skip to results"</a>
         <header class="top">
             <h1>"Magwright"</h1>
-            <span class="sub">"Forward converter transformer · single switch, 1:1 reset"</span>
+            <span class="sub">{form::TITLE}</span>
+            <span class="saved" data-testid="saved-state">
+                {move || if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
+            </span>
         </header>
         <main class="layout">
-            <section class="panel spec" aria-labelledby="spec-h">
-                <h2 id="spec-h">"Specification"</h2>
-                <p class="help">"Values accept SI prefixes: 200k, 4.7u, 150m. Every edit recomputes the design."</p>
-                <div class="fields">{fields}</div>
-                <Choice key="core" label="Core" value=core options=cores::cores().into_iter().map(|c| c.designation).collect() error=field_error("core") />
-                <Choice key="material" label="Material" value=material options=materials::materials().into_iter().map(|m| m.name).collect() error=field_error("material") />
-            </section>
-            <section class="panel results" aria-labelledby="res-h">
-                <h2 id="res-h">"Design"</h2>
-                <Results report=report />
-            </section>
+            <div class="col inputs">
+                <Panel id="spec" title="Specification" help="The converter this transformer serves. Values take SI prefixes (200k, 4.7u, 150m); every edit recomputes the design.">
+                    <SpecFields form=form outcome=outcome />
+                </Panel>
+                <Panel id="core" title="Core and material" help="The core set, its material, the flux limit and the wire, from the built-in libraries.">
+                    <CoreFields form=form outcome=outcome />
+                </Panel>
+            </div>
+            <div class="col outputs">
+                <Panel id="results" title="Results" help="What the engine designed from your entries: turns, flux, losses and fill, with its warnings.">
+                    <Results outcome=outcome />
+                </Panel>
+                <Panel id="files" title="Files" help="Save the design as a file, open one, copy a link that holds the design, or print a build sheet. Your last good design is also kept in this browser.">
+                    <FileActions form=form spec=spec status=status />
+                </Panel>
+            </div>
+            <div class="col pictures">
+                <Panel id="pictures" title="Pictures" help="The flux in the core over one period, and the losses if only the switching frequency changed.">
+                    <Pictures outcome=outcome spec=spec />
+                </Panel>
+                <Panel id="windings" title="Windings" help="What to wind with which wire, and the window it goes into.">
+                    <Windings outcome=outcome spec=spec />
+                </Panel>
+            </div>
         </main>
+        <BuildSheet outcome=outcome spec=spec />
     }
 }
 
-/// Why there is no report.
-#[derive(Debug, Clone, PartialEq)]
-enum Problem {
-    Fields(FieldErrors),
-    Engine(Error),
-}
-
-/// A drop-down choice from a library.
+/// Save, open, copy link, print, and their messages.
 #[component]
-fn Choice(
-    key: &'static str,
-    label: &'static str,
-    value: RwSignal<String>,
-    options: Vec<String>,
-    #[prop(into)] error: Signal<Option<String>>,
+fn FileActions(
+    form: Form,
+    spec: Memo<Result<Spec, form::FieldErrors>>,
+    status: RwSignal<Option<Status>>,
 ) -> impl IntoView {
-    let id = format!("f-{key}");
-    view! {
-        <div class="field" class:invalid=move || error.get().is_some()>
-            <label for=id.clone()>{label}</label>
-            <select id=id on:change:target=move |ev| value.set(ev.target().value())>
-                {options
-                    .into_iter()
-                    .map(|o| {
-                        let selected = o == value.get_untracked();
-                        view! { <option value=o.clone() selected=selected>{o.clone()}</option> }
-                    })
-                    .collect_view()}
-            </select>
-            <div class="msg" role="alert">{move || error.get().unwrap_or_default()}</div>
-        </div>
-    }
-}
+    let file_input = NodeRef::<Input>::new();
+    let link = RwSignal::new(None::<String>);
+    let current = move || spec.get_untracked().ok().map(|s| files::to_json(&s));
 
-/// One result line: label, formatted value, and the SI value for checks.
-fn row(id: &'static str, label: &'static str, v: f64, unit: &'static str, digits: usize) -> impl IntoView {
-    view! {
-        <tr>
-            <th scope="row">{label}</th>
-            <td data-testid=id data-si=format!("{v:e}")>{notation::format(v, unit, digits)}</td>
-        </tr>
-    }
-}
-
-/// A ratio shown in per cent; `data-si` keeps the plain ratio.
-fn pct(id: &'static str, label: &'static str, v: f64) -> impl IntoView {
-    view! {
-        <tr>
-            <th scope="row">{label}</th>
-            <td data-testid=id data-si=format!("{v:e}")>{format!("{:.1} %", v * 100.0)}</td>
-        </tr>
-    }
-}
-
-fn count(id: &'static str, label: &'static str, n: u32) -> impl IntoView {
-    view! {
-        <tr>
-            <th scope="row">{label}</th>
-            <td data-testid=id data-si=n.to_string()>{n.to_string()}</td>
-        </tr>
-    }
-}
-
-#[component]
-fn Results(report: Memo<Result<ForwardReport, Problem>>) -> impl IntoView {
-    let canvas = NodeRef::<Canvas>::new();
-    Effect::new(move |_| {
-        if let (Some(c), Ok(r)) = (canvas.get(), report.get()) {
-            if let Err(e) = plot::flux(&c, &r.flux_at_vin_min, &r.flux_at_vin_max, r.b_sat) {
-                leptos::logging::warn!("flux plot: {e}");
+    let save = move |_| match current() {
+        Some(text) => match browser::download(FILE_NAME, "application/json", &text) {
+            Ok(()) => status.set(Status::ok(format!("Saved the design as {FILE_NAME} (see your downloads)."))),
+            Err(e) => status.set(Status::err(format!("Could not save: {e}."))),
+        },
+        None => {
+            status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be saved."))
+        }
+    };
+    let choose = move |_| {
+        if let Some(i) = file_input.get() {
+            i.click();
+        }
+    };
+    let opened = move |ev: leptos::ev::Event| {
+        let Some(input) = ev.target().and_then(|t| t.dyn_into::<web_sys::HtmlInputElement>().ok()) else { return };
+        let Some(file) = input.files().and_then(|l| l.get(0)) else { return };
+        input.set_value(""); // choosing the same file again fires `change` again
+        let name = file.name();
+        spawn_local(async move {
+            let result = browser::read_text(file, files::MAX_BYTES)
+                .await
+                .and_then(|text| files::from_json::<Spec>(&text).map_err(|e| describe(&e)));
+            match result {
+                Ok(s) => {
+                    form.set(&s);
+                    status.set(Status::ok(format!("Opened {name}.")));
+                }
+                Err(m) => status.set(Status::err(format!("Could not open {name}: {m}. Nothing was changed."))),
             }
+        });
+    };
+    let copy = move |_| match current() {
+        Some(text) => {
+            let url = format!("{}{}", browser::url_without_hash(), persist::fragment(&text));
+            link.set(Some(url.clone()));
+            spawn_local(async move {
+                match browser::copy(&url).await {
+                    Ok(()) => status
+                        .set(Status::ok("Copied a link that holds this design. Anyone opening it sees this design.")),
+                    Err(e) => status.set(Status::ok(format!("The link is below; copy it from there ({e})."))),
+                }
+            });
         }
-    });
-    let body = move || match report.get() {
-        Err(p) => {
-            let lines = match p {
-                Problem::Fields(errs) => errs
-                    .iter()
-                    .map(|(k, m)| format!("{}: {m}", label_of(k)))
-                    .collect::<Vec<_>>(),
-                Problem::Engine(e) => vec![match e.field() {
-                    Some(k) => format!("{}: {}", label_of(k), e.message()),
-                    None => e.message().to_string(),
-                }],
-            };
-            view! {
-                <div class="missing" data-testid="missing">
-                    <p><strong>"No design yet."</strong>" Fix these entries:"</p>
-                    <ul>{lines.into_iter().map(|l| view! { <li>{l}</li> }).collect_view()}</ul>
-                </div>
-            }
-            .into_any()
+        None => {
+            status.set(Status::err("Fix the marked entries first: a design with unreadable entries cannot be shared."))
         }
-        Ok(r) => view! {
-            <table class="figures">
-                <tbody>
-                    {count("np", "Np (primary turns)", r.primary_turns)}
-                    {count("ns", "Ns (secondary turns)", r.secondary_turns)}
-                    {row("ratio", "Turns ratio Np/Ns", r.turns_ratio, "", 4)}
-                    {pct("duty-min", "Duty at Vin min", r.duty_at_vin_min)}
-                    {pct("duty-max", "Duty at Vin max", r.duty_at_vin_max)}
-                    {row("delta-b", "ΔB (= Bpk, unipolar)", r.delta_b, "T", 3)}
-                    {row("bsat", "Bsat at temperature", r.b_sat, "T", 3)}
-                    {row("pv", "Core loss density", r.core_loss_density, "W/m³", 3)}
-                    {row("core-loss", "Core loss", r.core_loss, "W", 3)}
-                    {row("ip", "Primary RMS current", r.primary_rms, "A", 3)}
-                    {row("is", "Secondary RMS current", r.secondary_rms, "A", 3)}
-                    {row("rp", "Primary Rdc", r.primary_rdc, "Ω", 3)}
-                    {row("rs", "Secondary Rdc", r.secondary_rdc, "Ω", 3)}
-                    {row("cu-loss", "Copper loss (DC)", r.copper_loss, "W", 3)}
-                    {row("total-loss", "Total loss", r.total_loss, "W", 3)}
-                    {pct("fill", "Window fill (copper)", r.window_fill)}
-                </tbody>
-            </table>
-            <p class="core-note" data-testid="core-params">
-                {format!(
-                    "{}: Ae {:.1} mm², le {:.1} mm, Ve {:.0} mm³, Wa {:.0} mm²",
-                    r.core.designation, r.core.ae * 1e6, r.core.le * 1e3, r.core.ve * 1e9, r.core.window_area * 1e6
-                )}
-            </p>
-            <ul class="warnings" data-testid="warnings">
-                {r.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}
-            </ul>
+    };
+    let print = move |_| {
+        if let Err(e) = browser::print() {
+            status.set(Status::err(format!("Could not print: {e}.")));
         }
-        .into_any(),
     };
     view! {
-        <div class="result-body">{body}</div>
-        <figure class="plot" class:hidden=move || report.get().is_err()>
-            <canvas node_ref=canvas width="560" height="260" data-testid="flux-plot" aria-label="Flux density over one period"></canvas>
-            <figcaption>"Flux density over one switching period, at Vin min and Vin max"</figcaption>
-        </figure>
+        <div class="actions" role="group" aria-label="Design file actions">
+            <button type="button" data-testid="save" on:click=save>"Save design"</button>
+            <button type="button" data-testid="open" on:click=choose>"Open design…"</button>
+            <button type="button" data-testid="copy-link" on:click=copy>"Copy link"</button>
+            <button type="button" data-testid="print" on:click=print>"Print build sheet"</button>
+        </div>
+        <input
+            type="file"
+            accept=".json,application/json"
+            class="file-input"
+            data-testid="open-file"
+            tabindex="-1"
+            aria-hidden="true"
+            node_ref=file_input
+            on:change=opened
+        />
+        <p
+            class="status"
+            class:bad=move || status.with(|s| s.as_ref().is_some_and(|s| !s.ok))
+            data-testid="file-status"
+            role="status"
+            aria-live="polite"
+        >
+            {move || status.get().map(|s| s.text).unwrap_or_default()}
+        </p>
+        {move || {
+            link.get().map(|url| view! {
+                <label class="link-label" for="share-link">"Link to this design"</label>
+                <input id="share-link" class="share-link" type="text" readonly data-testid="share-link" prop:value=url
+                    on:focus:target=move |ev| ev.target().select() />
+            })
+        }}
     }
-}
-
-fn label_of(key: &str) -> &'static str {
-    NUMS.iter().find(|d| d.key == key).map(|d| d.label).unwrap_or(match key {
-        "core" => "Core",
-        "material" => "Material",
-        _ => "Input",
-    })
 }

@@ -2,18 +2,35 @@
 //! edit and draws the result. No physics lives here: every number shown
 //! comes from `magwright_engine`.
 //!
-//! * [`app`]: the top-level component and its state (signals and memos).
-//! * [`field`]: a labelled text field holding exactly what the user typed.
-//! * [`plot`]: drawing on canvas with plotters.
+//! Design-type specific (the two modules to rewrite for a new design type):
+//! * [`form`]: the `Spec`/`Report` types, the input fields and the engine calls.
+//! * [`report_view`]: results, pictures, windings and the build sheet.
+//!
+//! Generic:
+//! * [`app`]: layout, where the design comes from, the Files actions.
+//! * [`files`]: the versioned design file (`{"schema":"magwright-design",...}`).
+//! * [`persist`]: localStorage and `#design=` share links (base64url).
+//! * [`browser`]: downloads, reading files, clipboard, print, the URL.
+//! * [`panic`]: the panic hook and its message over the page.
+//! * [`plot`]: line charts and to-scale cross-sections on canvas.
+//! * [`field`], [`ui`]: a text field holding what was typed; panels, canvases.
 
 pub mod app;
+pub mod browser;
 pub mod field;
+pub mod files;
+pub mod form;
+pub mod panic;
+pub mod persist;
 pub mod plot;
+pub mod report_view;
+pub mod ui;
 
 use wasm_bindgen::prelude::wasm_bindgen;
 
 /// Entry point, called once the wasm is instantiated.
 #[wasm_bindgen(start)]
 pub fn start() {
+    panic::install();
     leptos::mount::mount_to_body(app::App);
 }
