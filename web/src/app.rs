@@ -11,14 +11,20 @@
 
 use crate::browser;
 use crate::files;
-use crate::form::{self, CoreFields, Form, Outcome, Problem, Spec, SpecFields};
+use crate::form::{self, FluxFields, Form, Outcome, Problem, SpecFields};
+use crate::panels::library::Library;
+use crate::panels::pictures::Pictures;
+use crate::panels::results::Results;
+use crate::panels::sheet::BuildSheet;
+use crate::panels::suggest::Suggest;
+use crate::panels::windings::Windings;
 use crate::panic;
 use crate::persist;
-use crate::report_view::{BuildSheet, Pictures, Results, Windings};
 use crate::ui::Panel;
 use leptos::html::Input;
 use leptos::prelude::*;
 use leptos::task::spawn_local;
+use magwright_engine::design::Design;
 use magwright_engine::Error;
 use wasm_bindgen::JsCast;
 
@@ -52,18 +58,18 @@ impl Status {
 /// A file error for people: the message, and the field when serde named one.
 fn describe(e: &Error) -> String {
     match e.field() {
-        Some(f) if f.starts_with("spec.") => format!("{} [field {f}]", e.message()),
+        Some(f) => format!("{} [field {f}]", e.message()),
         _ => e.message().to_string(),
     }
 }
 
 /// The design from a `#design=` fragment, if the fragment is one.
-fn from_link(hash: &str) -> Option<Result<Spec, String>> {
-    persist::from_fragment(hash).map(|r| r.and_then(|text| files::from_json::<Spec>(&text).map_err(|e| describe(&e))))
+fn from_link(hash: &str) -> Option<Result<Design, String>> {
+    persist::from_fragment(hash).map(|r| r.and_then(|text| files::from_json(&text).map_err(|e| describe(&e))))
 }
 
 /// The first design: link, else storage, else demo; and a note to show.
-fn initial(hash: &str) -> (Spec, Source, Option<Status>) {
+fn initial(hash: &str) -> (Design, Source, Option<Status>) {
     let mut note = None;
     if let Some(link) = from_link(hash) {
         browser::clear_hash();
@@ -75,7 +81,7 @@ fn initial(hash: &str) -> (Spec, Source, Option<Status>) {
         }
     }
     if let Some(text) = persist::load() {
-        match files::from_json::<Spec>(&text) {
+        match files::from_json(&text) {
             Ok(spec) => return (spec, Source::Storage, note),
             Err(e) => {
                 note = note.or(Status::err(format!(
@@ -105,6 +111,8 @@ pub fn App() -> impl IntoView {
         (Ok(s), true) => Some(s),
         _ => None,
     });
+    // The design the pictures sweep: the last good one.
+    let design = good;
     let saved = RwSignal::new(true);
     Effect::new(move |_| {
         if let Some(s) = good.get() {
@@ -147,12 +155,13 @@ pub fn App() -> impl IntoView {
                 <Panel id="spec" title="Specification" help="The converter this transformer serves. Values take SI prefixes (200k, 4.7u, 150m); every edit recomputes the design.">
                     <SpecFields form=form outcome=outcome />
                 </Panel>
-                <Panel id="core" title="Core and material" help="The core set, its material, the flux limit and the wire, from the built-in libraries.">
-                    <CoreFields form=form outcome=outcome />
+                <Panel id="core" title="Core and material" help="The core set and its material from the built-in libraries, or your own; the flux limit and how turns are chosen.">
+                    <Library form=form outcome=outcome />
+                    <FluxFields form=form outcome=outcome />
                 </Panel>
             </div>
             <div class="col outputs">
-                <Panel id="results" title="Results" help="What the engine designed from your entries: turns, flux, losses and fill, with its warnings.">
+                <Panel id="results" title="Results" help="The checks that decide the design, with their margins and worst line corner, then the key figures and cautions.">
                     <Results outcome=outcome />
                 </Panel>
                 <Panel id="files" title="Files" help="Save the design as a file, open one, copy a link that holds the design, or print a build sheet. Your last good design is also kept in this browser.">
@@ -160,15 +169,18 @@ pub fn App() -> impl IntoView {
                 </Panel>
             </div>
             <div class="col pictures">
-                <Panel id="pictures" title="Pictures" help="The flux in the core over one period, and the losses if only the switching frequency changed.">
-                    <Pictures outcome=outcome spec=spec />
+                <Panel id="pictures" title="Pictures" help="The flux in the core over one period at both line corners, and the design redone across switching frequency.">
+                    <Pictures outcome=outcome design=design />
                 </Panel>
-                <Panel id="windings" title="Windings" help="What to wind with which wire, and the window it goes into.">
-                    <Windings outcome=outcome spec=spec />
+                <Panel id="windings" title="Windings" help="What to wind with which wire, the loss of each winding, and the window it goes into, to scale.">
+                    <Windings form=form outcome=outcome />
                 </Panel>
             </div>
         </main>
-        <BuildSheet outcome=outcome spec=spec />
+        <Panel id="suggest" title="Suggest a core" help="Designs this specification on every library core and material and ranks those that pass.">
+            <Suggest form=form />
+        </Panel>
+        <BuildSheet outcome=outcome />
     }
 }
 
@@ -176,7 +188,7 @@ pub fn App() -> impl IntoView {
 #[component]
 fn FileActions(
     form: Form,
-    spec: Memo<Result<Spec, form::FieldErrors>>,
+    spec: Memo<Result<Design, form::FieldErrors>>,
     status: RwSignal<Option<Status>>,
 ) -> impl IntoView {
     let file_input = NodeRef::<Input>::new();
@@ -205,7 +217,7 @@ fn FileActions(
         spawn_local(async move {
             let result = browser::read_text(file, files::MAX_BYTES)
                 .await
-                .and_then(|text| files::from_json::<Spec>(&text).map_err(|e| describe(&e)));
+                .and_then(|text| files::from_json(&text).map_err(|e| describe(&e)));
             match result {
                 Ok(s) => {
                     form.set(&s);

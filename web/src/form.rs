@@ -1,44 +1,36 @@
-//! The design being edited: its type, its input form, and the engine calls.
+//! The design being edited: the engine's [`Design`] file type, its input
+//! form, and the one engine call per edit.
 //!
-//! This module and [`crate::report_view`] are the only ones that know the
-//! design is a forward-converter transformer. Everything else (files,
-//! storage, links, the panic overlay, plots, layout) works on whatever
-//! [`Spec`] and [`Report`] are. To move the page to another design type:
-//!
-//! 1. point [`Spec`] and [`Report`] at the new types (serde, `Clone`,
-//!    `PartialEq`), [`demo`] and [`compute`] at the engine's functions;
-//! 2. rewrite the field table [`NUMS`], [`Form`]'s `values`/`parse` and the
-//!    two input panels below for the new fields;
-//! 3. rewrite the result panels in `report_view`.
-//!
-//! State is the text of each field as typed (a signal each); the parsed
-//! spec is derived from it (`Form::parse`, called inside a memo), so typing
-//! is never fought by reformatting.
+//! State is the text of each field as typed (a signal each) plus the
+//! choices made in drop-downs; the [`Design`] is derived from them
+//! (`Form::parse`, called inside a memo), so typing is never fought by
+//! reformatting. Every field's key is the engine's name for it (e.g.
+//! `outputs[1].voltage`, `choices.b_max`), so an engine error lands at the
+//! field it names.
 
 use crate::field::Field;
 use leptos::prelude::*;
-use magwright_engine::core::library as cores;
-use magwright_engine::design::forward::{self, ForwardReport, ForwardSpec};
-use magwright_engine::material::library as materials;
+use magwright_engine::design::file::{Insulation, Interleave, TurnsRule, WireOverride};
+use magwright_engine::design::{self, Choices, CoreChoice, Design, MaterialChoice};
+use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
+use magwright_engine::topology::{Bulk, FlybackOptions, FlybackRatio, Input, Isolation, Output, Spec, Topology};
 use magwright_engine::Error;
 
-/// The design the page edits, saves and shares.
-pub type Spec = ForwardSpec;
-/// What the engine says about it.
-pub type Report = ForwardReport;
+/// What the engine says about a design.
+pub type Report = design::Report;
 
 /// What the page designs, shown under its name.
-pub const TITLE: &str = "Forward converter transformer · single switch, 1:1 reset";
+pub const TITLE: &str = "Transformers and coupled inductors for forward, flyback and push-pull converters";
 
-/// The design shown to a first-time visitor.
-pub fn demo() -> Spec {
-    ForwardSpec::demo()
+/// The design shown to a first-time visitor: the forward demo, which passes.
+pub fn demo() -> Design {
+    Design::demo_forward()
 }
 
 /// The one engine call per edit.
-pub fn compute(spec: &Spec) -> Result<Report, Error> {
-    forward::design(spec)
+pub fn compute(d: &Design) -> Result<Report, Error> {
+    design::evaluate(d)
 }
 
 /// Parse errors, per field key.
@@ -49,7 +41,7 @@ pub type FieldErrors = Vec<(&'static str, String)>;
 pub enum Problem {
     /// Entries that are not numbers (or not whole where they must be).
     Fields(FieldErrors),
-    /// The engine refused the spec.
+    /// The engine refused the design.
     Engine(Error),
 }
 
@@ -58,8 +50,10 @@ impl Problem {
     pub fn about(&self, key: &str) -> Option<String> {
         match self {
             Problem::Fields(errs) => errs.iter().find(|e| e.0 == key).map(|e| e.1.clone()),
-            Problem::Engine(e) if e.field() == Some(key) => Some(e.message().to_string()),
-            _ => None,
+            Problem::Engine(e) => {
+                let f = e.field()?;
+                (f == key || f.strip_prefix("spec.") == Some(key)).then(|| e.message().to_string())
+            }
         }
     }
     /// One line per problem, each naming its field by label.
@@ -77,65 +71,152 @@ impl Problem {
 /// The result of one edit: the engine's report or why there is none.
 pub type Outcome = Result<Report, Problem>;
 
-/// A numeric entry: its spec key, label, unit and help.
+/// Which part of the form a numeric entry belongs to.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Group {
+    Dc,
+    Ac,
+    Converter,
+    Flyback,
+    Flux,
+    Winding,
+}
+
+/// A numeric entry: its engine key, label, unit and help.
 pub struct NumDef {
     pub key: &'static str,
     pub label: &'static str,
     pub unit: &'static str,
     pub help: &'static str,
-    /// Whole numbers only (wire gauges).
+    pub group: Group,
+    /// Whole numbers only.
     pub whole: bool,
     /// Shown with an SI prefix when loaded ("200k", "150m").
     pub prefixed: bool,
+    /// May be left empty (then "automatic").
+    pub optional: bool,
 }
 
-const fn num(key: &'static str, label: &'static str, unit: &'static str, help: &'static str) -> NumDef {
-    NumDef { key, label, unit, help, whole: false, prefixed: false }
+const fn num(key: &'static str, label: &'static str, unit: &'static str, group: Group, help: &'static str) -> NumDef {
+    NumDef { key, label, unit, help, group, whole: false, prefixed: false, optional: false }
 }
 
-/// The numeric fields, in form order.
-pub const NUMS: [NumDef; 11] = [
-    num("vin_min", "Vin min", "V", "Lowest DC input voltage"),
-    num("vin_max", "Vin max", "V", "Highest DC input voltage"),
-    num("vout", "Vout", "V", "Output voltage"),
-    num("iout", "Iout", "A", "Full-load output current"),
-    num("rectifier_drop", "Vf rectifier", "V", "Forward drop of the output rectifier"),
-    NumDef { prefixed: true, ..num("frequency", "fsw", "Hz", "Switching frequency, e.g. 200k") },
-    num("duty_max", "Duty max", "", "Largest duty the controller allows (≤ 0.5 with a 1:1 reset winding)"),
-    NumDef { prefixed: true, ..num("b_max", "Bpk max", "T", "Peak flux density the design may reach, e.g. 150m") },
-    num("temperature", "Temperature", "°C", "Core and winding temperature for the loss figures"),
-    NumDef { whole: true, ..num("awg_primary", "Primary wire", "AWG", "Primary wire gauge") },
-    NumDef { whole: true, ..num("awg_secondary", "Secondary wire", "AWG", "Secondary wire gauge") },
+/// Indices of the entries in [`NUMS`], by name.
+pub mod ix {
+    pub const DC_MIN: usize = 0;
+    pub const DC_NOM: usize = 1;
+    pub const DC_MAX: usize = 2;
+    pub const VAC_MIN: usize = 3;
+    pub const VAC_NOM: usize = 4;
+    pub const VAC_MAX: usize = 5;
+    pub const LINE_F: usize = 6;
+    pub const BULK: usize = 7;
+    pub const BRIDGE: usize = 8;
+    pub const FREQ: usize = 9;
+    pub const DUTY: usize = 10;
+    pub const EFF: usize = 11;
+    pub const AMBIENT: usize = 12;
+    pub const HOT: usize = 13;
+    pub const CHOKE: usize = 14;
+    pub const FLY_VALUE: usize = 15;
+    pub const FLY_RIPPLE: usize = 16;
+    pub const B_MAX: usize = 17;
+    pub const MARGIN: usize = 18;
+    pub const TURNS: usize = 19;
+    pub const KU: usize = 20;
+    pub const EDGE: usize = 21;
+    pub const SW_RATING: usize = 22;
+    pub const WRAPS: usize = 23;
+    pub const OUTER_WRAPS: usize = 24;
+    pub const LAYER_WRAPS: usize = 25;
+    pub const TAPE: usize = 26;
+    pub const FLANGE: usize = 27;
+    pub const COUNT: usize = 28;
+}
+
+/// Every numeric entry except the outputs, in [`ix`] order.
+pub const NUMS: [NumDef; ix::COUNT] = [
+    num("input.min", "Vin min", "V", Group::Dc, "Lowest DC input voltage"),
+    num("input.nominal", "Vin nominal", "V", Group::Dc, "Usual DC input voltage"),
+    num("input.max", "Vin max", "V", Group::Dc, "Highest DC input voltage"),
+    num("input.vac_min", "Vac min", "V", Group::Ac, "Lowest line voltage, RMS"),
+    num("input.vac_nominal", "Vac nominal", "V", Group::Ac, "Usual line voltage, RMS"),
+    num("input.vac_max", "Vac max", "V", Group::Ac, "Highest line voltage, RMS"),
+    num("input.line_frequency", "Line frequency", "Hz", Group::Ac, "Lowest line frequency the product accepts"),
+    NumDef {
+        prefixed: true,
+        ..num("input.bulk.farads", "Bulk capacitor", "F", Group::Ac, "Capacitance on the rectified line, e.g. 68u")
+    },
+    num("input.bridge_drop", "Bridge drop", "V", Group::Ac, "Drop of two bridge diodes in series"),
+    NumDef { prefixed: true, ..num("frequency", "fsw", "Hz", Group::Converter, "Switching frequency, e.g. 200k") },
+    num("duty_max", "Duty max", "", Group::Converter, "Largest on-time of one switch over its period"),
+    num("efficiency", "Efficiency", "", Group::Converter, "Estimated Pout/Pin of the converter"),
+    num("ambient", "Ambient", "°C", Group::Converter, "Air temperature around the magnetic"),
+    num("hot_spot_max", "Hot spot max", "°C", Group::Converter, "Highest temperature the magnetic may reach"),
+    num("choke_ripple_ratio", "Choke ripple", "", Group::Converter, "Output choke ripple ΔI/Iout at Vin max (forward, push-pull)"),
+    num("flyback.ratio", "Ratio value", "", Group::Flyback, "Reflected voltage (V) or turns ratio Np/Ns, as chosen"),
+    num("flyback.ripple_ratio", "Ripple ratio", "", Group::Flyback, "ΔIp/Ip,centre at Vin min: below 2 CCM, 2 boundary, above DCM"),
+    NumDef {
+        prefixed: true,
+        optional: true,
+        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the hot-spot limit less the margin")
+    },
+    num("choices.saturation_margin", "Bsat margin", "", Group::Flux, "Fraction kept below Bsat, e.g. 0.2"),
+    NumDef {
+        whole: true,
+        ..num("choices.turns.turns", "Primary turns", "", Group::Flux, "Used when the turns rule is 'fixed'")
+    },
+    num("choices.window_utilisation", "Window use Ku", "", Group::Winding, "Copper share of the window for automatic wire"),
+    NumDef {
+        prefixed: true,
+        ..num("choices.edge_time", "Edge time", "s", Group::Winding, "Switching rise/fall time; 0 takes ideal steps (conservative)")
+    },
+    NumDef {
+        optional: true,
+        ..num("choices.switch_voltage_rating", "Switch rating", "V", Group::Converter, "Checked against the switch's off-state voltage; empty: not checked")
+    },
+    NumDef { whole: true, ..num("choices.insulation.section_wraps", "Tape between sections", "wraps", Group::Winding, "") },
+    NumDef { whole: true, ..num("choices.insulation.outer_wraps", "Tape over the top", "wraps", Group::Winding, "") },
+    NumDef { whole: true, ..num("choices.insulation.interlayer_wraps", "Tape between layers", "wraps", Group::Winding, "") },
+    NumDef { prefixed: true, ..num("choices.insulation.tape_thickness", "Tape thickness", "m", Group::Winding, "One wrap, e.g. 50u") },
+    NumDef {
+        prefixed: true,
+        optional: true,
+        ..num("choices.insulation.margin", "Flange margin", "m", Group::Winding, "Margin tape at each flange; empty: from the isolation class")
+    },
 ];
 
-/// Indices into [`NUMS`] of the fields shown in the "Core and material"
-/// panel (the rest are the electrical specification).
-const CORE_PANEL: [usize; 4] = [7, 8, 9, 10];
+/// The outputs' keys: voltage, current, rectifier drop, for up to four.
+pub const OUT_KEYS: [[&str; 3]; 4] = [
+    ["outputs[0].voltage", "outputs[0].current", "outputs[0].rectifier_drop"],
+    ["outputs[1].voltage", "outputs[1].current", "outputs[1].rectifier_drop"],
+    ["outputs[2].voltage", "outputs[2].current", "outputs[2].rectifier_drop"],
+    ["outputs[3].voltage", "outputs[3].current", "outputs[3].rectifier_drop"],
+];
 
 /// The label of a field key.
-pub fn label_of(key: &str) -> &'static str {
-    NUMS.iter().find(|d| d.key == key).map(|d| d.label).unwrap_or(match key {
-        "core" => "Core",
-        "material" => "Material",
-        _ => "Input",
-    })
-}
-
-/// The numeric values of a spec, in [`NUMS`] order.
-pub fn values(s: &Spec) -> [f64; 11] {
-    [
-        s.vin_min,
-        s.vin_max,
-        s.vout,
-        s.iout,
-        s.rectifier_drop,
-        s.frequency,
-        s.duty_max,
-        s.b_max,
-        s.temperature,
-        f64::from(s.awg_primary),
-        f64::from(s.awg_secondary),
-    ]
+pub fn label_of(key: &str) -> String {
+    let key = key.strip_prefix("spec.").unwrap_or(key);
+    if let Some(d) = NUMS.iter().find(|d| d.key == key) {
+        return d.label.to_string();
+    }
+    for (i, ks) in OUT_KEYS.iter().enumerate() {
+        for (j, k) in ks.iter().enumerate() {
+            if *k == key {
+                return format!("Output {} {}", i + 1, ["V", "I", "Vf"][j]);
+            }
+        }
+    }
+    match key.split(['.', '[']).next().unwrap_or(key) {
+        "core" => "Core".into(),
+        "material" => "Material".into(),
+        "outputs" => "Outputs".into(),
+        "topology" => "Topology".into(),
+        "turns" => "Turns".into(),
+        "gap" => "Gap".into(),
+        "choices" => "Choices".into(),
+        _ => "Input".into(),
+    }
 }
 
 /// The shortest text that reads back as exactly `v`: with an SI prefix
@@ -152,203 +233,452 @@ pub fn text_of(v: f64, prefixed: bool) -> String {
     format!("{v}")
 }
 
-/// The form's state: the text of every field as typed.
+/// DC bus or rectified AC line.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum InputKind {
+    Dc,
+    Ac,
+}
+
+/// How the flyback's turns ratio is set.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RatioKind {
+    FromDuty,
+    Reflected,
+    Turns,
+}
+
+/// How the primary turns are chosen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum RuleKind {
+    LeastLoss,
+    Fewest,
+    Fixed,
+}
+
+/// The form's state: the text of every field as typed, and every choice.
 #[derive(Clone, Copy)]
 pub struct Form {
-    pub texts: [RwSignal<String>; 11],
-    pub core: RwSignal<String>,
-    pub material: RwSignal<String>,
+    pub name: RwSignal<String>,
+    pub topology: RwSignal<Topology>,
+    pub input: RwSignal<InputKind>,
+    pub isolation: RwSignal<Isolation>,
+    pub ratio: RwSignal<RatioKind>,
+    pub rule: RwSignal<RuleKind>,
+    pub gap: RwSignal<GapPlacement>,
+    pub interleave: RwSignal<Interleave>,
+    pub texts: [RwSignal<String>; ix::COUNT],
+    /// How many outputs are in use (1 to 4).
+    pub outputs: RwSignal<usize>,
+    pub out_texts: [[RwSignal<String>; 3]; 4],
+    /// The core: a library designation or the user's own.
+    pub core: RwSignal<CoreChoice>,
+    pub material: RwSignal<MaterialChoice>,
+    /// Conductors the user fixed per winding (the stack-up editor).
+    pub wires: RwSignal<Vec<WireOverride>>,
+}
+
+/// The numeric values of a design, in [`NUMS`] order (entries the design
+/// does not use keep the demo's values, so switching input kind or
+/// topology shows sensible numbers).
+fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
+    let fly = Design::demo_flyback().spec;
+    let ac_demo = match fly.input {
+        Input::Ac { vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop } => {
+            (vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop)
+        }
+        Input::Dc { .. } => (85.0, 230.0, 265.0, 50.0, Bulk::Capacitance { farads: 68e-6 }, 1.6),
+    };
+    let s = &d.spec;
+    let (dc_min, dc_nom, dc_max) = match s.input {
+        Input::Dc { min, nominal, max } => (min, nominal, max),
+        Input::Ac { .. } => (36.0, 48.0, 60.0),
+    };
+    let (vmin, vnom, vmax, lf, bulk, bridge) = match s.input {
+        Input::Ac { vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop } => {
+            (vac_min, vac_nominal, vac_max, line_frequency, bulk, bridge_drop)
+        }
+        Input::Dc { .. } => ac_demo,
+    };
+    let farads = match bulk {
+        Bulk::Capacitance { farads } => farads,
+        Bulk::RippleRatio { .. } => 68e-6,
+    };
+    let fly_value = match s.flyback.ratio {
+        FlybackRatio::FromDutyMax => 100.0,
+        FlybackRatio::ReflectedVoltage(v) => v,
+        FlybackRatio::TurnsRatio(n) => n,
+    };
+    let ch = &d.choices;
+    let fixed = match ch.turns {
+        TurnsRule::Primary { turns } => turns,
+        _ => 10,
+    };
+    [
+        Some(dc_min),
+        Some(dc_nom),
+        Some(dc_max),
+        Some(vmin),
+        Some(vnom),
+        Some(vmax),
+        Some(lf),
+        Some(farads),
+        Some(bridge),
+        Some(s.frequency),
+        Some(s.duty_max),
+        Some(s.efficiency),
+        Some(s.ambient),
+        Some(s.hot_spot_max),
+        Some(s.choke_ripple_ratio),
+        Some(fly_value),
+        Some(s.flyback.ripple_ratio),
+        ch.b_max,
+        Some(ch.saturation_margin),
+        Some(f64::from(fixed)),
+        Some(ch.window_utilisation),
+        Some(ch.edge_time),
+        ch.switch_voltage_rating,
+        Some(f64::from(ch.insulation.section_wraps)),
+        Some(f64::from(ch.insulation.outer_wraps)),
+        Some(f64::from(ch.insulation.interlayer_wraps)),
+        Some(ch.insulation.tape_thickness),
+        ch.insulation.margin,
+    ]
+}
+
+fn out_values(d: &Design) -> [[f64; 3]; 4] {
+    let demo = [[12.0, 1.0, 0.5], [5.0, 0.5, 0.4], [15.0, 0.2, 0.7], [3.3, 0.5, 0.4]];
+    std::array::from_fn(|i| match d.spec.outputs.get(i) {
+        Some(o) => [o.voltage, o.current, o.rectifier_drop],
+        None => demo[i],
+    })
 }
 
 impl Form {
-    pub fn new(s: &Spec) -> Self {
-        Form {
-            texts: std::array::from_fn(|i| RwSignal::new(text_of(values(s)[i], NUMS[i].prefixed))),
-            core: RwSignal::new(s.core.clone()),
-            material: RwSignal::new(s.material.clone()),
-        }
+    pub fn new(d: &Design) -> Self {
+        let vals = values(d);
+        let outs = out_values(d);
+        let f = Form {
+            name: RwSignal::new(String::new()),
+            topology: RwSignal::new(d.spec.topology),
+            input: RwSignal::new(InputKind::Dc),
+            isolation: RwSignal::new(d.spec.isolation),
+            ratio: RwSignal::new(RatioKind::FromDuty),
+            rule: RwSignal::new(RuleKind::LeastLoss),
+            gap: RwSignal::new(d.choices.gap_placement),
+            interleave: RwSignal::new(d.choices.interleave),
+            texts: std::array::from_fn(|i| RwSignal::new(vals[i].map(|v| text_of(v, NUMS[i].prefixed)).unwrap_or_default())),
+            outputs: RwSignal::new(d.spec.outputs.len().clamp(1, 4)),
+            out_texts: std::array::from_fn(|i| std::array::from_fn(|j| RwSignal::new(text_of(outs[i][j], false)))),
+            core: RwSignal::new(d.core.clone()),
+            material: RwSignal::new(d.material.clone()),
+            wires: RwSignal::new(d.choices.wires.clone()),
+        };
+        f.set_choices(d);
+        f
     }
 
-    /// Replaces every field's text with the values of `s` (opening a file).
-    pub fn set(&self, s: &Spec) {
-        for ((sig, v), d) in self.texts.iter().zip(values(s)).zip(&NUMS) {
-            sig.set(text_of(v, d.prefixed));
-        }
-        self.core.set(s.core.clone());
-        self.material.set(s.material.clone());
+    fn set_choices(&self, d: &Design) {
+        self.name.set(d.name.clone());
+        self.topology.set(d.spec.topology);
+        self.input.set(match d.spec.input {
+            Input::Dc { .. } => InputKind::Dc,
+            Input::Ac { .. } => InputKind::Ac,
+        });
+        self.isolation.set(d.spec.isolation);
+        self.ratio.set(match d.spec.flyback.ratio {
+            FlybackRatio::FromDutyMax => RatioKind::FromDuty,
+            FlybackRatio::ReflectedVoltage(_) => RatioKind::Reflected,
+            FlybackRatio::TurnsRatio(_) => RatioKind::Turns,
+        });
+        self.rule.set(match d.choices.turns {
+            TurnsRule::LeastLoss => RuleKind::LeastLoss,
+            TurnsRule::FewestTurns => RuleKind::Fewest,
+            TurnsRule::Primary { .. } => RuleKind::Fixed,
+        });
+        self.gap.set(d.choices.gap_placement);
+        self.interleave.set(d.choices.interleave);
+        self.outputs.set(d.spec.outputs.len().clamp(1, 4));
+        self.core.set(d.core.clone());
+        self.material.set(d.material.clone());
+        self.wires.set(d.choices.wires.clone());
     }
 
-    /// The spec the texts describe, or every field that does not read.
+    /// Replaces every field with the values of `d` (opening a file).
+    pub fn set(&self, d: &Design) {
+        for ((sig, v), def) in self.texts.iter().zip(values(d)).zip(&NUMS) {
+            sig.set(v.map(|v| text_of(v, def.prefixed)).unwrap_or_default());
+        }
+        for (row, vals) in self.out_texts.iter().zip(out_values(d)) {
+            for (sig, v) in row.iter().zip(vals) {
+                sig.set(text_of(v, false));
+            }
+        }
+        self.set_choices(d);
+    }
+
+    /// The design the form describes, or every field that does not read.
     /// Reactive: call inside a memo.
-    pub fn parse(&self) -> Result<Spec, FieldErrors> {
-        let mut errs = Vec::new();
-        let mut vals = [0.0; 11];
+    pub fn parse(&self) -> Result<Design, FieldErrors> {
+        let mut errs: FieldErrors = Vec::new();
+        let topology = self.topology.get();
+        let input_kind = self.input.get();
+        let ratio = self.ratio.get();
+        let rule = self.rule.get();
+        let used = |d: &NumDef| match d.group {
+            Group::Dc => input_kind == InputKind::Dc,
+            Group::Ac => input_kind == InputKind::Ac,
+            Group::Flyback => topology == Topology::Flyback && (d.key != "flyback.ratio" || ratio != RatioKind::FromDuty),
+            _ => d.key != "choices.turns.turns" || rule == RuleKind::Fixed,
+        };
+        let mut vals: [Option<f64>; ix::COUNT] = [None; ix::COUNT];
         for (i, d) in NUMS.iter().enumerate() {
-            match self.texts[i].with(|t| notation::parse(t, d.unit)) {
-                Ok(v) if d.whole && v.fract() != 0.0 => {
-                    errs.push((d.key, "a wire gauge is a whole number".to_string()))
-                }
-                Ok(v) => vals[i] = v,
+            if !used(d) {
+                vals[i] = self.texts[i].with_untracked(|t| notation::parse(t, d.unit).ok());
+                continue;
+            }
+            let text = self.texts[i].get();
+            if d.optional && text.trim().is_empty() {
+                continue;
+            }
+            match notation::parse(&text, d.unit) {
+                Ok(v) if d.whole && v.fract() != 0.0 => errs.push((d.key, "a whole number".to_string())),
+                Ok(v) => vals[i] = Some(v),
                 Err(e) => errs.push((d.key, e.to_string())),
             }
+        }
+        let n_out = self.outputs.get().clamp(1, 4);
+        let mut outputs = Vec::with_capacity(n_out);
+        for (row, keys) in self.out_texts.iter().zip(&OUT_KEYS).take(n_out) {
+            let mut v = [0.0; 3];
+            for j in 0..3 {
+                match notation::parse(&row[j].get(), ["V", "A", "V"][j]) {
+                    Ok(x) => v[j] = x,
+                    Err(e) => errs.push((keys[j], e.to_string())),
+                }
+            }
+            outputs.push(Output { voltage: v[0], current: v[1], rectifier_drop: v[2] });
         }
         if !errs.is_empty() {
             return Err(errs);
         }
-        // Out-of-range gauges stay out of range after the clamp, so the
-        // engine still names the field.
-        let awg = |v: f64| v.clamp(-100.0, 100.0) as i32;
-        Ok(ForwardSpec {
-            vin_min: vals[0],
-            vin_max: vals[1],
-            vout: vals[2],
-            iout: vals[3],
-            rectifier_drop: vals[4],
-            frequency: vals[5],
-            duty_max: vals[6],
-            b_max: vals[7],
-            temperature: vals[8],
-            awg_primary: awg(vals[9]),
-            awg_secondary: awg(vals[10]),
+        let g = |i: usize| vals[i].unwrap_or(0.0);
+        let whole = |i: usize| g(i).clamp(0.0, 1e6) as u32;
+        let input = match input_kind {
+            InputKind::Dc => Input::Dc { min: g(ix::DC_MIN), nominal: g(ix::DC_NOM), max: g(ix::DC_MAX) },
+            InputKind::Ac => Input::Ac {
+                vac_min: g(ix::VAC_MIN),
+                vac_nominal: g(ix::VAC_NOM),
+                vac_max: g(ix::VAC_MAX),
+                line_frequency: g(ix::LINE_F),
+                bulk: Bulk::Capacitance { farads: g(ix::BULK) },
+                bridge_drop: g(ix::BRIDGE),
+            },
+        };
+        let spec = Spec {
+            topology,
+            input,
+            outputs,
+            frequency: g(ix::FREQ),
+            duty_max: g(ix::DUTY),
+            efficiency: g(ix::EFF),
+            ambient: g(ix::AMBIENT),
+            hot_spot_max: g(ix::HOT),
+            isolation: self.isolation.get(),
+            flyback: FlybackOptions {
+                ratio: match ratio {
+                    RatioKind::FromDuty => FlybackRatio::FromDutyMax,
+                    RatioKind::Reflected => FlybackRatio::ReflectedVoltage(g(ix::FLY_VALUE)),
+                    RatioKind::Turns => FlybackRatio::TurnsRatio(g(ix::FLY_VALUE)),
+                },
+                ripple_ratio: g(ix::FLY_RIPPLE),
+            },
+            choke_ripple_ratio: g(ix::CHOKE),
+        };
+        let choices = Choices {
+            b_max: vals[ix::B_MAX],
+            saturation_margin: g(ix::MARGIN),
+            turns: match rule {
+                RuleKind::LeastLoss => TurnsRule::LeastLoss,
+                RuleKind::Fewest => TurnsRule::FewestTurns,
+                RuleKind::Fixed => TurnsRule::Primary { turns: whole(ix::TURNS) },
+            },
+            gap_placement: self.gap.get(),
+            interleave: self.interleave.get(),
+            window_utilisation: g(ix::KU),
+            wires: self.wires.get(),
+            insulation: Insulation {
+                section_wraps: whole(ix::WRAPS),
+                outer_wraps: whole(ix::OUTER_WRAPS),
+                interlayer_wraps: whole(ix::LAYER_WRAPS),
+                tape_thickness: g(ix::TAPE),
+                margin: vals[ix::FLANGE],
+            },
+            edge_time: g(ix::EDGE),
+            switch_voltage_rating: vals[ix::SW_RATING],
+        };
+        Ok(Design {
+            schema: design::file::SCHEMA.into(),
+            version: design::file::VERSION,
+            name: self.name.get(),
+            spec,
             core: self.core.get(),
             material: self.material.get(),
+            choices,
         })
     }
 }
 
 /// The message for one field, derived from the outcome.
-fn field_error(outcome: Memo<Outcome>, key: &'static str) -> Signal<Option<String>> {
+pub fn field_error(outcome: Memo<Outcome>, key: &'static str) -> Signal<Option<String>> {
     Signal::derive(move || outcome.with(|o| o.as_ref().err().and_then(|p| p.about(key))))
 }
 
-fn num_fields(form: Form, outcome: Memo<Outcome>, which: impl Fn(usize) -> bool) -> impl IntoView {
+/// The numeric fields of one group.
+pub fn num_fields(form: Form, outcome: Memo<Outcome>, group: Group) -> impl IntoView {
     NUMS.iter()
         .enumerate()
-        .filter(|(i, _)| which(*i))
+        .filter(|(_, d)| d.group == group)
         .map(|(i, d)| {
             view! { <Field key=d.key label=d.label unit=d.unit text=form.texts[i] error=field_error(outcome, d.key) help=d.help /> }
         })
         .collect_view()
 }
 
-/// The electrical specification: voltages, current, frequency, duty.
+/// A drop-down over a small enum: `(value, label)` pairs.
 #[component]
-pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
-    view! { <div class="fields">{num_fields(form, outcome, |i| !CORE_PANEL.contains(&i))}</div> }
-}
-
-/// Core, material, flux limit, temperature and wire.
-#[component]
-pub fn CoreFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
-    let core_names: Vec<String> = cores::cores().into_iter().map(|c| c.designation).collect();
-    let material_names: Vec<String> = materials::materials().into_iter().map(|m| m.name).collect();
-    view! {
-        <div class="fields">
-            <Choice key="core" label="Core" value=form.core options=core_names error=field_error(outcome, "core") />
-            <Choice key="material" label="Material" value=form.material options=material_names error=field_error(outcome, "material") />
-            {num_fields(form, outcome, |i| CORE_PANEL.contains(&i))}
-        </div>
-    }
-}
-
-/// A drop-down choice from a library. A value the library does not know
-/// (from an opened file) is kept and shown as such, so the engine's message
-/// about it stays visible.
-#[component]
-fn Choice(
+pub fn Pick<T>(
     key: &'static str,
     label: &'static str,
-    value: RwSignal<String>,
-    options: Vec<String>,
-    #[prop(into)] error: Signal<Option<String>>,
-) -> impl IntoView {
+    value: RwSignal<T>,
+    options: Vec<(T, &'static str)>,
+    #[prop(optional)] help: &'static str,
+) -> impl IntoView
+where
+    T: Copy + PartialEq + Send + Sync + 'static,
+{
     let id = format!("f-{key}");
-    let err_id = format!("e-{key}");
-    let known = options.clone();
-    let stray = move || {
-        let v = value.get();
-        (!known.contains(&v)).then(|| {
-            let text = format!("{v} (not in the library)");
-            view! { <option value=v.clone() prop:selected=true>{text}</option> }
-        })
-    };
+    let opts = options.clone();
     view! {
-        <div class="field" class:invalid=move || error.get().is_some()>
-            <label for=id.clone()>{label}</label>
+        <div class="field">
+            <label for=id.clone() title=help>{label}</label>
             <select
                 id=id
-                aria-describedby=err_id.clone()
-                aria-invalid=move || if error.get().is_some() { "true" } else { "false" }
-                on:change:target=move |ev| value.set(ev.target().value())
+                on:change:target=move |ev| {
+                    if let Ok(i) = ev.target().value().parse::<usize>() {
+                        if let Some((v, _)) = opts.get(i) {
+                            value.set(*v);
+                        }
+                    }
+                }
             >
-                {stray}
                 {options
                     .into_iter()
-                    .map(|o| {
-                        let me = o.clone();
-                        view! { <option value=o.clone() prop:selected=move || value.get() == me>{o.clone()}</option> }
-                    })
+                    .enumerate()
+                    .map(|(i, (v, l))| view! { <option value=i.to_string() prop:selected=move || value.get() == v>{l}</option> })
                     .collect_view()}
             </select>
-            <div class="msg" id=err_id role="alert">{move || error.get().unwrap_or_default()}</div>
+            <div class="msg"></div>
         </div>
     }
 }
 
-/// One point of a frequency sweep: the engine's design at that frequency,
-/// or None where it finds none.
-#[derive(Debug, Clone, PartialEq)]
-pub struct SweepPoint {
-    pub frequency: f64,
-    pub core_loss: f64,
-    pub copper_loss: f64,
-    pub total_loss: f64,
-    pub secondary_turns: f64,
-    /// Peak flux density, T.
-    pub b_peak: f64,
-    pub ok: bool,
+/// Topology, input, outputs and the converter's numbers.
+#[component]
+pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
+    let topologies = vec![
+        (Topology::Forward, "Forward, single switch with reset winding"),
+        (Topology::TwoSwitchForward, "Forward, two switch"),
+        (Topology::Flyback, "Flyback"),
+        (Topology::PushPull, "Push-pull"),
+        (Topology::HalfBridge, "Half bridge"),
+        (Topology::FullBridge, "Full bridge"),
+    ];
+    let is_ac = move || form.input.get() == InputKind::Ac;
+    let is_flyback = move || form.topology.get() == Topology::Flyback;
+    let needs_value = move || form.ratio.get() != RatioKind::FromDuty;
+    view! {
+        <div class="fields">
+            <Pick key="topology" label="Topology" value=form.topology options=topologies />
+            <Pick key="input-kind" label="Input" value=form.input options=vec![(InputKind::Dc, "DC bus"), (InputKind::Ac, "AC line, rectified")] />
+        </div>
+        <div class="fields" class:hidden=is_ac>{num_fields(form, outcome, Group::Dc)}</div>
+        <div class="fields" class:hidden=move || !is_ac()>{num_fields(form, outcome, Group::Ac)}</div>
+        <Outputs form=form outcome=outcome />
+        <div class="fields">
+            {num_fields(form, outcome, Group::Converter)}
+            <Pick key="isolation" label="Isolation" value=form.isolation
+                options=vec![(Isolation::Functional, "Functional"), (Isolation::Basic, "Basic"), (Isolation::Reinforced, "Reinforced")]
+                help="Sets the insulation Magwright suggests and the cautions it shows" />
+        </div>
+        <div class="fields" class:hidden=move || !is_flyback()>
+            <Pick key="flyback-ratio" label="Flyback ratio from" value=form.ratio
+                options=vec![(RatioKind::FromDuty, "Duty max at Vin min"), (RatioKind::Reflected, "Reflected voltage"), (RatioKind::Turns, "Turns ratio Np/Ns")] />
+            {NUMS.iter().enumerate().filter(|(_, d)| d.group == Group::Flyback).map(|(i, d)| {
+                let hide = d.key == "flyback.ratio";
+                view! {
+                    <div class:hidden=move || hide && !needs_value()>
+                        <Field key=d.key label=d.label unit=d.unit text=form.texts[i] error=field_error(outcome, d.key) help=d.help />
+                    </div>
+                }
+            }).collect_view()}
+        </div>
+    }
 }
 
-/// The engine's design at `n` frequencies from a tenth to ten times the
-/// spec's (within the engine's 1 kHz–10 MHz), log-spaced. Only orchestration:
-/// every number is the engine's. (The lead's full solver will provide its
-/// own sweep; this one goes then.)
-pub fn sweep(spec: &Spec, n: usize) -> Vec<SweepPoint> {
-    let f0 = spec.frequency;
-    if !(f0.is_finite() && f0 > 0.0) || n < 2 {
-        return Vec::new();
-    }
-    let (lo, hi) = ((f0 / 10.0).max(1e3), (f0 * 10.0).min(10e6));
-    if hi <= lo {
-        return Vec::new();
-    }
-    let mut s = spec.clone();
-    (0..n)
+/// One to four outputs, each with V, I and the rectifier drop.
+#[component]
+fn Outputs(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
+    let rows = (0..4)
         .map(|i| {
-            let f = lo * (hi / lo).powf(i as f64 / (n - 1) as f64);
-            s.frequency = f;
-            match compute(&s) {
-                Ok(r) => SweepPoint {
-                    frequency: f,
-                    core_loss: r.core_loss,
-                    copper_loss: r.copper_loss,
-                    total_loss: r.total_loss,
-                    secondary_turns: f64::from(r.secondary_turns),
-                    b_peak: r.b_peak,
-                    ok: true,
-                },
-                Err(_) => SweepPoint {
-                    frequency: f,
-                    core_loss: 0.0,
-                    copper_loss: 0.0,
-                    total_loss: 0.0,
-                    secondary_turns: 0.0,
-                    b_peak: 0.0,
-                    ok: false,
-                },
+            let keys = OUT_KEYS[i];
+            let t = form.out_texts[i];
+            view! {
+                <div class="output-row" class:hidden=move || { form.outputs.get() <= i } data-testid=format!("output-{i}")>
+                    <span class="output-name">{format!("Output {}", i + 1)}</span>
+                    <Field key=keys[0] label="V" unit="V" text=t[0] error=field_error(outcome, keys[0]) help="Output voltage" />
+                    <Field key=keys[1] label="I" unit="A" text=t[1] error=field_error(outcome, keys[1]) help="Full-load output current" />
+                    <Field key=keys[2] label="Vf" unit="V" text=t[2] error=field_error(outcome, keys[2]) help="Rectifier forward drop" />
+                </div>
             }
         })
-        .collect()
+        .collect_view();
+    view! {
+        <fieldset class="outputs">
+            <legend>"Outputs (the first is regulated)"</legend>
+            {rows}
+            <div class="msg" role="alert">{move || field_error(outcome, "outputs").get().unwrap_or_default()}</div>
+            <div class="row-actions">
+                <button type="button" data-testid="add-output" disabled=move || { form.outputs.get() >= 4 }
+                    on:click=move |_| form.outputs.update(|n| *n = (*n + 1).min(4))>"Add output"</button>
+                <button type="button" data-testid="remove-output" disabled=move || { form.outputs.get() <= 1 }
+                    on:click=move |_| form.outputs.update(|n| *n = n.saturating_sub(1).max(1))>"Remove last"</button>
+            </div>
+        </fieldset>
+    }
+}
+
+/// Flux limit, turns rule and gap.
+#[component]
+pub fn FluxFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
+    let fixed = move || form.rule.get() == RuleKind::Fixed;
+    view! {
+        <div class="fields">
+            <Pick key="turns-rule" label="Turns" value=form.rule
+                options=vec![(RuleKind::LeastLoss, "Least loss"), (RuleKind::Fewest, "Fewest within Bpk"), (RuleKind::Fixed, "Fixed primary turns")]
+                help="Least loss balances core and copper loss; fewest uses the flux limit alone" />
+            {NUMS.iter().enumerate().filter(|(_, d)| d.group == Group::Flux).map(|(i, d)| {
+                let is_turns = d.key == "choices.turns.turns";
+                view! {
+                    <div class:hidden=move || is_turns && !fixed()>
+                        <Field key=d.key label=d.label unit=d.unit text=form.texts[i] error=field_error(outcome, d.key) help=d.help />
+                    </div>
+                }
+            }).collect_view()}
+            <Pick key="gap-placement" label="Gap (flyback)" value=form.gap
+                options=vec![(GapPlacement::CentreLeg, "Centre leg"), (GapPlacement::Spacer, "Spacer, all legs")] />
+        </div>
+    }
 }
 
 #[cfg(test)]
@@ -364,6 +694,14 @@ mod tests {
         }
         assert_eq!(text_of(200e3, true), "200k");
         assert_eq!(text_of(0.15, true), "150m");
-        assert_eq!(text_of(0.45, false), "0.45");
+    }
+
+    #[test]
+    fn every_key_has_a_label() {
+        for d in &NUMS {
+            assert_eq!(label_of(d.key), d.label);
+        }
+        assert_eq!(label_of("outputs[1].current"), "Output 2 I");
+        assert_eq!(label_of("spec.frequency"), "fsw");
     }
 }

@@ -4,7 +4,8 @@
 //!
 //! Design-type specific (the two modules to rewrite for a new design type):
 //! * [`form`]: the `Spec`/`Report` types, the input fields and the engine calls.
-//! * [`report_view`]: results, pictures, windings and the build sheet.
+//! * [`panels`]: one module per panel (library, results, pictures, windings,
+//!   suggest, build sheet).
 //!
 //! Generic:
 //! * [`app`]: layout, where the design comes from, the Files actions.
@@ -20,10 +21,10 @@ pub mod browser;
 pub mod field;
 pub mod files;
 pub mod form;
+pub mod panels;
 pub mod panic;
 pub mod persist;
 pub mod plot;
-pub mod report_view;
 pub mod ui;
 
 use wasm_bindgen::prelude::wasm_bindgen;

@@ -167,6 +167,13 @@ impl Default for Choices {
     }
 }
 
+fn foreign(why: &str) -> Error {
+    Error::format(
+        Some("schema"),
+        format!("this is not a Magwright design file: {why}; a design file starts with \"schema\": \"{SCHEMA}\""),
+    )
+}
+
 impl Design {
     fn new(name: &str, spec: Spec, core: &str, material: &str) -> Design {
         Design {
@@ -195,8 +202,31 @@ impl Design {
         Design::new("24 V push-pull", Spec::demo_push_pull(), "ETD 34", "MnZn-200k")
     }
 
-    /// Reads a design file, refusing foreign and future files.
+    /// Reads a design file, refusing foreign and future files with a
+    /// message that says which: not JSON, not ours (no or another
+    /// `schema`), a newer `version`, or a design that does not fit the
+    /// schema (the error names the field, e.g. `spec.outputs[0].voltage`).
     pub fn from_json(text: &str) -> Result<Design> {
+        let value: serde_json::Value = crate::json::from_str(text)?;
+        let Some(obj) = value.as_object() else {
+            return Err(foreign("the file holds no JSON object"));
+        };
+        match obj.get("schema") {
+            Some(serde_json::Value::String(s)) if s == SCHEMA => {}
+            Some(serde_json::Value::String(s)) => return Err(foreign(&format!("its \"schema\" is \"{s}\""))),
+            Some(_) => return Err(foreign("its \"schema\" is not a string")),
+            None => return Err(foreign("it has no \"schema\" key")),
+        }
+        match obj.get("version").and_then(serde_json::Value::as_u64) {
+            Some(v) if v == u64::from(VERSION) => {}
+            Some(v) if v > u64::from(VERSION) => {
+                return Err(Error::format(
+                    Some("version"),
+                    format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
+                ))
+            }
+            _ => return Err(Error::format(Some("version"), format!("the file's \"version\" must be {VERSION}"))),
+        }
         crate::json::from_str(text)
     }
 
