@@ -54,12 +54,15 @@ need_python_packages() {
 
 # Builds dist/magwright.html: the web crate to wasm, then the bundler
 # (wasm-bindgen as a library, same pinned version) inlines glue and wasm.
+# MAGWRIGHT_WASM_PROFILE=wasm-dev builds faster for iterating (bigger file).
 build_page() {
   need_wasm_target
-  say "building the web client (wasm)"
-  cargo build --quiet -p magwright-web --target wasm32-unknown-unknown --profile wasm
+  local profile="${MAGWRIGHT_WASM_PROFILE:-wasm}"
+  local target="${CARGO_TARGET_DIR:-$ROOT/target}"
+  say "building the web client (wasm, profile $profile)"
+  cargo build --quiet -p magwright-web --target wasm32-unknown-unknown --profile "$profile"
   say "bundling dist/magwright.html"
   cargo run --quiet -p magwright-bundle -- \
-    target/wasm32-unknown-unknown/wasm/magwright_web.wasm index.html dist/magwright.html
+    "$target/wasm32-unknown-unknown/$profile/magwright_web.wasm" index.html dist/magwright.html
   cp dist/magwright.html dist/index.html
 }
