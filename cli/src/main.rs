@@ -9,12 +9,11 @@
 //! magwright stackup FILE|-                   the design's winding stack-up in its JSON schema
 //! magwright cores                            the core library (effective parameters, provenance)
 //! magwright materials                        the material library (provenance)
-//! magwright forward FILE|-                   the first-slice forward transformer (ForwardSpec JSON)
 //! ```
 //! Output is JSON on stdout (CSV for `sweep --csv`). Bad input: a message on
 //! stderr and exit code 2.
 
-use magwright_engine::design::{self, forward, optimise, sweep, Design};
+use magwright_engine::design::{self, optimise, sweep, Design};
 use magwright_engine::{core::library as cores, json, material::library as materials, notation};
 use std::io::Read;
 use std::process::ExitCode;
@@ -33,7 +32,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials  |  forward FILE|-";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials";
 
 fn run(args: &[String]) -> Result<String, String> {
     let cmd = args.first().map(String::as_str).ok_or(USAGE)?;
@@ -77,13 +76,6 @@ fn run(args: &[String]) -> Result<String, String> {
             "push-pull" => Ok(Design::demo_push_pull().to_json()),
             other => Err(format!("no demo \"{other}\" (forward, flyback, push-pull)")),
         },
-        "forward" => {
-            let path = args.get(1).ok_or("forward needs a spec file (or - for stdin)")?;
-            let text = read_input(path)?;
-            let spec: forward::ForwardSpec = json::from_str(&text).map_err(|e| format!("{path}: {e}"))?;
-            Ok(json::to_string_pretty(&forward::design(&spec).map_err(|e| e.to_string())?))
-        }
-        "forward-demo" => Ok(json::to_string_pretty(&forward::ForwardSpec::demo())),
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),
         "-h" | "--help" | "help" => Ok(USAGE.to_string()),

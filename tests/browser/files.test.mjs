@@ -7,6 +7,8 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { launch, openPage, cli, shown, typeInto, close, formState, waitChanged, OUT } from './harness.mjs';
 
+const R = { np: (r) => r.turns.primary, ns: (r) => r.turns.secondaries[0], 'total-loss': (r) => r.losses.total };
+
 let browser;
 before(async () => { browser = await launch(); });
 after(async () => { await browser?.close(); });
@@ -30,11 +32,11 @@ async function openWithKeyboard(page, name, text) {
 
 test('save then open gives the same design', async () => {
   const { context, page, requests, errors } = await openPage(browser);
-  const demo = cli(['demo']);
+  const demo = cli(['demo', 'forward']);
   const ns0 = await shown(page, 'ns');
   await typeInto(page, 'frequency', '150k');
-  await typeInto(page, 'vout', '15');
-  await page.selectOption('#f-core', { index: 0 });
+  await typeInto(page, 'outputs[0].voltage', '15');
+  await page.selectOption('#f-core', 'ETD 39');
   await waitChanged(page, 'ns', ns0);
   const edited = await formState(page);
   const saved = await saveWithKeyboard(page);
@@ -42,21 +44,22 @@ test('save then open gives the same design', async () => {
   assert.equal(file.schema, 'magwright-design');
   assert.equal(file.version, 1);
   assert.equal(file.spec.frequency, 150e3);
-  assert.equal(file.spec.vout, 15);
-  const want = cli(['forward', '-'], JSON.stringify(file.spec));
-  assert.ok(close(await shown(page, 'np'), want.primary_turns));
+  assert.equal(file.spec.outputs[0].voltage, 15);
+  assert.equal(file.core.designation, 'ETD 39');
+  const want = cli(['evaluate', '-'], saved);
+  assert.ok(close(await shown(page, 'np'), R.np(want)));
   await page.screenshot({ path: join(OUT, 'files-edited.png'), fullPage: true });
 
   // Change the design, then open the saved file: everything comes back.
-  await typeInto(page, 'vout', '5');
-  await typeInto(page, 'iout', '2');
-  await page.waitForFunction(() => document.querySelector('#f-iout').value === '2');
+  await typeInto(page, 'outputs[0].voltage', '5');
+  await typeInto(page, 'outputs[0].current', '2');
+  await page.waitForFunction(() => document.getElementById('f-outputs[0].current').value === '2');
   assert.notDeepEqual(await formState(page), edited);
   const msg = await openWithKeyboard(page, 'magwright-design.json', saved);
   assert.match(msg, /Opened magwright-design\.json/);
   assert.deepEqual(await formState(page), edited, 'every field as it was saved');
-  for (const [id, key] of [['np', 'primary_turns'], ['ns', 'secondary_turns'], ['total-loss', 'total_loss']]) {
-    assert.ok(close(await shown(page, id), want[key]), `${id} after opening`);
+  for (const id of ['np', 'ns', 'total-loss']) {
+    assert.ok(close(await shown(page, id), R[id](want)), `${id} after opening`);
   }
   assert.deepEqual(JSON.parse(await saveWithKeyboard(page)), file, 'saving again gives the same file');
   await page.screenshot({ path: join(OUT, 'files-opened.png'), fullPage: true });
@@ -68,20 +71,20 @@ test('save then open gives the same design', async () => {
 
 test('malformed, foreign and ill-fitting files are refused and change nothing', async () => {
   const { context, page, requests, errors } = await openPage(browser);
-  await typeInto(page, 'vin_min', '30');
-  await page.waitForFunction(() => document.querySelector('#f-vin_min').value === '30');
+  await typeInto(page, 'input.min', '30');
+  await page.waitForFunction(() => document.getElementById('f-input.min').value === '30');
   const before = await formState(page);
   const np = await shown(page, 'np');
   const stored = await page.evaluate(() => localStorage.getItem('magwright.design'));
 
   const cases = [
-    ['broken.json', '{\n  "schema": "magwright-design",\n  "version": 1,\n  "spec": { "vin_min": 36,, }\n}', /not valid JSON.*line 4/],
+    ['broken.json', '{\n  "schema": "magwright-design",\n  "version": 1,\n  "spec": { "frequency": 36,, }\n}', /not valid JSON.*line 4/],
     ['shopping.json', '{"name": "shopping list", "items": ["milk", "eggs"]}', /not a Magwright design file.*no "schema"/],
     ['other.json', '{"schema": "someone-else", "version": 1, "spec": {}}', /not a Magwright design file.*"someone-else"/],
     ['newer.json', '{"schema": "magwright-design", "version": 7, "spec": {}}', /newer Magwright/],
-    ['wrongtype.json', JSON.stringify({ schema: 'magwright-design', version: 1, spec: { ...cli(['demo']), vout: 'twelve' } }, null, 2),
-      /does not fit: invalid type: string "twelve".*line \d+.*spec\.vout|does not fit: invalid type: string "twelve".*line \d+/],
-    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 1, spec: { vin_min: 36 } }), /missing field `vin_max`.*\[field spec\.vin_max\]/],
+    ['wrongtype.json', (() => { const d = cli(['demo', 'forward']); d.spec.outputs[0].voltage = 'twelve'; return JSON.stringify(d, null, 2); })(),
+      /invalid type: string "twelve".*\[field spec\.outputs\[0\]\.voltage\]/],
+    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 1, spec: { topology: 'forward' } }), /missing field `\w+`.*\[field spec\]/],
   ];
   for (const [name, text, re] of cases) {
     const msg = await openWithKeyboard(page, name, text);

@@ -64,7 +64,7 @@ export async function shown(page, id) {
 
 // Replaces a field's text by typing it with the keyboard, as a user would.
 export async function typeInto(page, key, text) {
-  const sel = `#f-${key}`;
+  const sel = `[id="f-${key}"]`;
   await page.click(sel, { clickCount: 3 });
   await page.keyboard.press('Control+A');
   await page.keyboard.press('Backspace');
@@ -91,6 +91,21 @@ export async function canvasInk(page, testid) {
     }
     return { ink: ink / (c.width * c.height), colours: colours.size };
   });
+}
+
+// The engine's report (native CLI) for the design the page has saved.
+export async function engineFor(page) {
+  const text = await page.evaluate(() => localStorage.getItem('magwright.design'));
+  if (!text) throw new Error('the page saved no design');
+  return { design: JSON.parse(text), report: cli(['evaluate', '-'], text) };
+}
+
+// Waits until the page's saved design satisfies `pred` (run in the page).
+export async function waitSaved(page, pred, arg) {
+  await page.waitForFunction(([src, a]) => {
+    const d = JSON.parse(localStorage.getItem('magwright.design') || '{}');
+    return new Function('d', 'a', 'return (' + src + ')(d, a)')(d, a);
+  }, [pred.toString(), arg]);
 }
 
 // Waits until a result shows a value other than `old`.

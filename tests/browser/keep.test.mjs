@@ -4,7 +4,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
-import { launch, openPage, attach, cli, shown, typeInto, close, formState, waitChanged, OUT, PAGE_URL } from './harness.mjs';
+import { launch, openPage, attach, cli, shown, typeInto, close, formState, waitChanged, engineFor, OUT, PAGE_URL } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -15,18 +15,20 @@ test('a reload keeps the last good design, not an invalid entry', async () => {
   const ns0 = await shown(page, 'ns');
   await typeInto(page, 'frequency', '100k');
   await waitChanged(page, 'ns', ns0);
-  await typeInto(page, 'iout', '8');
-  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.iout === 8);
+  await typeInto(page, 'outputs[0].current', '8');
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.outputs?.[0]?.current === 8);
   const good = await formState(page);
   // An unreadable entry is not saved: the reload brings back the last good design.
-  await typeInto(page, 'vout', '12x');
+  await typeInto(page, 'outputs[0].voltage', '12x');
   await page.waitForSelector('[data-testid="missing"]');
   await page.reload();
   await page.waitForSelector('[data-testid="np"]');
   assert.deepEqual(await formState(page), good);
-  const want = cli(['forward', '-'], JSON.stringify({ ...cli(['demo']), frequency: 100e3, iout: 8 }));
-  assert.ok(close(await shown(page, 'ns'), want.secondary_turns));
-  assert.ok(close(await shown(page, 'total-loss'), want.total_loss));
+  const { design, report: want } = await engineFor(page);
+  assert.equal(design.spec.frequency, 100e3);
+  assert.equal(design.spec.outputs[0].current, 8);
+  assert.ok(close(await shown(page, 'ns'), want.turns.secondaries[0]));
+  assert.ok(close(await shown(page, 'total-loss'), want.losses.total));
   await page.screenshot({ path: join(OUT, 'keep-reloaded.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
@@ -35,14 +37,14 @@ test('a reload keeps the last good design, not an invalid entry', async () => {
 
 test('a share link restores the design in a fresh browser', async () => {
   const { context, page, requests, errors } = await openPage(browser);
-  await typeInto(page, 'vin_max', '72');
-  await typeInto(page, 'b_max', '120m');
+  await typeInto(page, 'input.max', '72');
+  await typeInto(page, 'choices.b_max', '120m');
   // Choose the next core with the keyboard.
   await page.focus('#f-core');
   await page.keyboard.press('ArrowDown');
   await page.waitForFunction(() => {
-    const s = JSON.parse(localStorage.getItem('magwright.design') || '{}').spec;
-    return s?.b_max === 0.12 && s?.core === 'ETD 34';
+    const d = JSON.parse(localStorage.getItem('magwright.design') || '{}');
+    return d?.choices?.b_max === 0.12 && d?.core?.designation === 'ETD 39';
   });
   const state = await formState(page);
   await page.focus('[data-testid="copy-link"]');
@@ -52,15 +54,15 @@ test('a share link restores the design in a fresh browser', async () => {
   assert.ok(link.startsWith(PAGE_URL + '#design='), link);
   assert.match(await page.textContent('[data-testid="file-status"]'), /link/i);
   await page.screenshot({ path: join(OUT, 'keep-copy-link.png') });
-  const spec = JSON.parse(await page.evaluate(() => localStorage.getItem('magwright.design'))).spec;
+  const saved = await page.evaluate(() => localStorage.getItem('magwright.design'));
   await context.close();
 
   // A new context: empty storage, as on another machine.
   const other = await openPage(browser, { url: link });
   assert.deepEqual(await formState(other.page), state);
-  const want = cli(['forward', '-'], JSON.stringify(spec));
-  for (const [id, key] of [['np', 'primary_turns'], ['ns', 'secondary_turns'], ['core-loss', 'core_loss']]) {
-    assert.ok(close(await shown(other.page, id), want[key]), id);
+  const want = cli(['evaluate', '-'], saved);
+  for (const [id, v] of [['np', want.turns.primary], ['ns', want.turns.secondaries[0]], ['core-loss', want.losses.core]]) {
+    assert.ok(close(await shown(other.page, id), v), id);
   }
   assert.match(await other.page.textContent('[data-testid="file-status"]'), /Opened the design from the link/);
   assert.ok(!other.page.url().includes('#'), 'the fragment is dropped once read, so a reload shows later edits');
@@ -70,8 +72,8 @@ test('a share link restores the design in a fresh browser', async () => {
   const bad = await attach(other.context, PAGE_URL + '#design=eyJzY2hlbWEiOiAibWFn');
   assert.match(await bad.page.textContent('[data-testid="file-status"]'), /link's design could not be read: this is not valid JSON/);
   // A link pasted into the open page (only the fragment changes) opens its design too.
-  await typeInto(bad.page, 'vout', '7');
-  await bad.page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).spec.vout === 7);
+  await typeInto(bad.page, 'outputs[0].voltage', '7');
+  await bad.page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).spec.outputs[0].voltage === 7);
   assert.notDeepEqual(await formState(bad.page), state);
   await bad.page.evaluate((h) => { location.hash = h; }, link.slice(link.indexOf('#')));
   await bad.page.waitForFunction(() => document.querySelector('[data-testid="file-status"]').textContent.includes('Opened the design from the link'));
@@ -84,9 +86,9 @@ test('a share link restores the design in a fresh browser', async () => {
 test('test-only panic route: message shown, design kept, reload continues', async () => {
   const { context, page, requests } = await openPage(browser);
   const ns0 = await shown(page, 'ns');
-  await typeInto(page, 'vout', '5');
+  await typeInto(page, 'outputs[0].voltage', '5');
   await waitChanged(page, 'ns', ns0);
-  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.vout === 5);
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.outputs?.[0]?.voltage === 5);
   const state = await formState(page);
   const np = await shown(page, 'np');
   await page.close();
@@ -99,7 +101,7 @@ test('test-only panic route: message shown, design kept, reload continues', asyn
   assert.ok(p.errors.some((e) => /Magwright panicked: .*deliberate test panic/s.test(e)), 'the panic is logged');
   assert.deepEqual(await formState(p.page), state, 'the last good design stays on screen');
   assert.equal(await shown(p.page, 'np'), np);
-  assert.equal(JSON.parse(await p.page.evaluate(() => localStorage.getItem('magwright.design'))).spec.vout, 5);
+  assert.equal(JSON.parse(await p.page.evaluate(() => localStorage.getItem('magwright.design'))).spec.outputs[0].voltage, 5);
   assert.equal(await p.page.evaluate(() => document.activeElement?.textContent), 'Reload', 'focus on the Reload button');
   await p.page.screenshot({ path: join(OUT, 'panic.png') });
 

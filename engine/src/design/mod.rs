@@ -5,10 +5,8 @@
 //!   corners, thermal equilibrium and the pass/fail checks.
 //! * [`sweep`]: loss against frequency and against flux density.
 //! * [`optimise`]: every library core × material ranked, with the Pareto front.
-//! * [`forward`]: the first, self-contained forward-transformer slice.
 
 pub mod file;
-pub mod forward;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;
