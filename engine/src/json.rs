@@ -14,7 +14,13 @@ pub const MAX_LEN: usize = 4 << 20;
 /// Parses `text` into `T`; the error names the field path and line.
 pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
     if text.len() > MAX_LEN {
-        return Err(Error::format(None, format!("the file is too large ({} kB); a design is a few kB", text.len() / 1024)));
+        return Err(Error::format(
+            None,
+            format!(
+                "the file is too large ({} kB); a design is a few kB",
+                text.len() / 1024
+            ),
+        ));
     }
     if text.trim().is_empty() {
         return Err(Error::format(None, "the file is empty"));
@@ -23,11 +29,22 @@ pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
     let value: std::result::Result<T, _> = serde_path_to_error::deserialize(&mut de);
     match value {
         Ok(v) => {
-            de.end().map_err(|e| Error::format(None, format!("text after the end of the JSON document: {e}")))?;
+            de.end().map_err(|e| {
+                Error::format(
+                    None,
+                    format!("text after the end of the JSON document: {e}"),
+                )
+            })?;
             Ok(v)
         }
         Err(e) => {
-            let path = e.path().to_string();
+            // Inside an internally tagged enum the path tracker cannot see
+            // the key and writes "?": keep the known prefix only.
+            let full = e.path().to_string();
+            let path = match full.find('?') {
+                Some(i) => full[..i].trim_end_matches('.').to_string(),
+                None => full,
+            };
             let inner = e.into_inner();
             let msg = match inner.classify() {
                 serde_json::error::Category::Syntax | serde_json::error::Category::Eof => {
@@ -35,7 +52,11 @@ pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
                 }
                 _ => inner.to_string(),
             };
-            let field = if path == "." || path.is_empty() { None } else { Some(path.as_str()) };
+            let field = if path == "." || path.is_empty() {
+                None
+            } else {
+                Some(path.as_str())
+            };
             Err(Error::format(field, msg))
         }
     }
@@ -71,6 +92,21 @@ mod tests {
         let e = from_str::<Outer>(r#"{"inner":[{"x":1}"#).unwrap_err();
         assert!(e.message().contains("not valid JSON"), "{e}");
         assert!(from_str::<Outer>("").is_err());
+        // Regression (fuzz): a syntax error inside a tagged enum gave the
+        // field "spec.?"; now the known prefix.
+        #[derive(Debug, Deserialize)]
+        #[allow(dead_code)]
+        struct Tagged {
+            spec: Kind,
+        }
+        #[derive(Debug, Deserialize)]
+        #[serde(tag = "kind")]
+        #[allow(dead_code)]
+        enum Kind {
+            A { x: f64 },
+        }
+        let e = from_str::<Tagged>(r#"{"spec": {"kind": "A", "x": 1,"#).unwrap_err();
+        assert!(e.field().is_none_or(|f| !f.contains('?')), "{e:?}");
         assert!(from_str::<Outer>(r#"{"inner":[]} x"#).is_err());
     }
 }

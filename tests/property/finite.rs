@@ -123,7 +123,13 @@ impl<'a> ser::Serializer for &'a mut Checker {
     fn serialize_newtype_struct<T: ?Sized + Serialize>(self, _: &'static str, v: &T) -> R {
         v.serialize(self)
     }
-    fn serialize_newtype_variant<T: ?Sized + Serialize>(self, _: &'static str, _: u32, var: &'static str, v: &T) -> R {
+    fn serialize_newtype_variant<T: ?Sized + Serialize>(
+        self,
+        _: &'static str,
+        _: u32,
+        var: &'static str,
+        v: &T,
+    ) -> R {
         self.path.push(var.to_string());
         let r = v.serialize(&mut *self);
         self.path.pop();
@@ -141,7 +147,13 @@ impl<'a> ser::Serializer for &'a mut Checker {
         self.index.push(0);
         Ok(self)
     }
-    fn serialize_tuple_variant(self, _: &'static str, _: u32, _: &'static str, _: usize) -> Result<Self, Never> {
+    fn serialize_tuple_variant(
+        self,
+        _: &'static str,
+        _: u32,
+        _: &'static str,
+        _: usize,
+    ) -> Result<Self, Never> {
         self.index.push(0);
         Ok(self)
     }
@@ -151,7 +163,13 @@ impl<'a> ser::Serializer for &'a mut Checker {
     fn serialize_struct(self, _: &'static str, _: usize) -> Result<Self, Never> {
         Ok(self)
     }
-    fn serialize_struct_variant(self, _: &'static str, _: u32, _: &'static str, _: usize) -> Result<Self, Never> {
+    fn serialize_struct_variant(
+        self,
+        _: &'static str,
+        _: u32,
+        _: &'static str,
+        _: usize,
+    ) -> Result<Self, Never> {
         Ok(self)
     }
 }
@@ -189,7 +207,12 @@ macro_rules! seq_like {
         }
     )*};
 }
-seq_like!(SerializeSeq::serialize_element, SerializeTuple::serialize_element, SerializeTupleStruct::serialize_field, SerializeTupleVariant::serialize_field);
+seq_like!(
+    SerializeSeq::serialize_element,
+    SerializeTuple::serialize_element,
+    SerializeTupleStruct::serialize_field,
+    SerializeTupleVariant::serialize_field
+);
 
 macro_rules! struct_like {
     ($($t:ident),*) => {$(
@@ -237,8 +260,18 @@ fn checker_finds_nan_and_inf_but_not_none() {
     struct Inner {
         x: f64,
     }
-    let s = S { a: 1.0, b: None, c: vec![0.0, f64::NAN], d: Some(Inner { x: f64::NEG_INFINITY }) };
+    let s = S {
+        a: 1.0,
+        b: None,
+        c: vec![0.0, f64::NAN],
+        d: Some(Inner {
+            x: f64::NEG_INFINITY,
+        }),
+    };
     let (bad, n) = non_finite(&s);
     assert_eq!(n, 4);
-    assert_eq!(bad, vec!["c.[1] = NaN".to_string(), "d.x = -inf".to_string()]);
+    assert_eq!(
+        bad,
+        vec!["c.[1] = NaN".to_string(), "d.x = -inf".to_string()]
+    );
 }

@@ -29,7 +29,8 @@ use magwright_engine::error::Error;
 /// (`spec.outputs[0].voltage`, `choices.wires`, `items[3].conductor`).
 pub fn well_formed_field(f: &str) -> bool {
     !f.is_empty()
-        && f.chars().all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || "_.[]".contains(c))
+        && f.chars()
+            .all(|c| c.is_ascii_lowercase() || c.is_ascii_digit() || "_.[]".contains(c))
         && !f.starts_with('.')
         && !f.ends_with('.')
 }
@@ -42,6 +43,11 @@ pub fn check_error(e: &Error) -> Result<(), String> {
     }
     match (e, e.field()) {
         (Error::Input { .. } | Error::Unknown { .. }, None) => Err(format!("no field: {e:?}")),
+        // A file's own (unknown) keys may be any text; engine-made names not.
+        (Error::Format { .. }, Some(f)) if f.is_empty() || f.contains('?') => {
+            Err(format!("bad field \"{f}\": {e:?}"))
+        }
+        (Error::Format { .. }, _) => Ok(()),
         (_, Some(f)) if !well_formed_field(f) => Err(format!("malformed field \"{f}\": {e:?}")),
         _ => Ok(()),
     }
