@@ -14,13 +14,7 @@ pub const MAX_LEN: usize = 4 << 20;
 /// Parses `text` into `T`; the error names the field path and line.
 pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
     if text.len() > MAX_LEN {
-        return Err(Error::format(
-            None,
-            format!(
-                "the file is too large ({} kB); a design is a few kB",
-                text.len() / 1024
-            ),
-        ));
+        return Err(Error::format(None, format!("the file is too large ({} kB); a design is a few kB", text.len() / 1024)));
     }
     if text.trim().is_empty() {
         return Err(Error::format(None, "the file is empty"));
@@ -29,12 +23,7 @@ pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
     let value: std::result::Result<T, _> = serde_path_to_error::deserialize(&mut de);
     match value {
         Ok(v) => {
-            de.end().map_err(|e| {
-                Error::format(
-                    None,
-                    format!("text after the end of the JSON document: {e}"),
-                )
-            })?;
+            de.end().map_err(|e| Error::format(None, format!("text after the end of the JSON document: {e}")))?;
             Ok(v)
         }
         Err(e) => {
@@ -52,11 +41,7 @@ pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
                 }
                 _ => inner.to_string(),
             };
-            let field = if path == "." || path.is_empty() {
-                None
-            } else {
-                Some(path.as_str())
-            };
+            let field = if path == "." || path.is_empty() { None } else { Some(path.as_str()) };
             Err(Error::format(field, msg))
         }
     }
