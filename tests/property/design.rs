@@ -564,3 +564,31 @@ fn fr_below_one_with_long_edges() {
         assert!(w.fr >= 1.0 - 1e-9, "{}: Fr {}", w.name, w.fr);
     }
 }
+
+/// Regression (found by `evaluate_never_panics_and_reports_are_sound`):
+/// errors about a user core named the field "le", "winding_height"…
+/// instead of its design-file path.
+#[test]
+fn user_core_errors_name_their_design_file_path() {
+    let k = &cores::all()[0];
+    let mut p = Effective {
+        family: k.family.clone(),
+        ae: k.ae,
+        le: f64::NAN,
+        ve: None,
+        amin: None,
+        window_area: k.window_area,
+        window_height: Some(k.window_height),
+        winding_breadth: k.winding_breadth,
+        winding_height: k.winding_height,
+        turn_length_inner: k.turn_length_inner,
+        surface_area: k.surface_area,
+        mass: None,
+    };
+    let mut d = Design::demo_forward();
+    d.core = CoreChoice::Effective { designation: "mine".into(), parameters: p.clone() };
+    assert_eq!(evaluate(&d).unwrap_err().field(), Some("core.parameters.le"));
+    p.le = k.le;
+    d.core = CoreChoice::Effective { designation: " ".into(), parameters: p };
+    assert_eq!(evaluate(&d).unwrap_err().field(), Some("core.designation"));
+}
