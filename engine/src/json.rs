@@ -27,7 +27,13 @@ pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
             Ok(v)
         }
         Err(e) => {
-            let path = e.path().to_string();
+            // Inside an internally tagged enum the path tracker cannot see
+            // the key and writes "?": keep the known prefix only.
+            let full = e.path().to_string();
+            let path = match full.find('?') {
+                Some(i) => full[..i].trim_end_matches('.').to_string(),
+                None => full,
+            };
             let inner = e.into_inner();
             let msg = match inner.classify() {
                 serde_json::error::Category::Syntax | serde_json::error::Category::Eof => {
@@ -71,6 +77,21 @@ mod tests {
         let e = from_str::<Outer>(r#"{"inner":[{"x":1}"#).unwrap_err();
         assert!(e.message().contains("not valid JSON"), "{e}");
         assert!(from_str::<Outer>("").is_err());
+        // Regression (fuzz): a syntax error inside a tagged enum gave the
+        // field "spec.?"; now the known prefix.
+        #[derive(Debug, Deserialize)]
+        #[allow(dead_code)]
+        struct Tagged {
+            spec: Kind,
+        }
+        #[derive(Debug, Deserialize)]
+        #[serde(tag = "kind")]
+        #[allow(dead_code)]
+        enum Kind {
+            A { x: f64 },
+        }
+        let e = from_str::<Tagged>(r#"{"spec": {"kind": "A", "x": 1,"#).unwrap_err();
+        assert!(e.field().is_none_or(|f| !f.contains('?')), "{e:?}");
         assert!(from_str::<Outer>(r#"{"inner":[]} x"#).is_err());
     }
 }

@@ -3,6 +3,7 @@
 
 mod conductors;
 mod cores;
+mod design;
 mod materials;
 mod topologies;
 mod transformer;

@@ -249,12 +249,32 @@ impl Design {
         Ok(())
     }
 
-    /// The core this design uses.
+    /// The core this design uses. Errors about the user's own core name
+    /// the field by its path in the design file (`core.parameters.le`,
+    /// `core.shape.a`, `core.designation`): the core module names them
+    /// relative to the core.
     pub fn resolve_core(&self) -> Result<Core> {
+        let under = |prefix: &str, e: Error| -> Error {
+            let field = match e.field() {
+                Some("designation") => "core.designation".to_string(),
+                Some(f) => format!("{prefix}.{f}"),
+                None => return e,
+            };
+            match e {
+                Error::Input { message, .. } => Error::Input { field, message },
+                Error::Unknown { message, .. } => Error::Unknown { field, message },
+                Error::Infeasible { message, .. } => Error::Infeasible { field: Some(field), message },
+                Error::Format { message, .. } => Error::Format { field: Some(field), message },
+            }
+        };
         match &self.core {
             CoreChoice::Library { designation } => cores::find(designation),
-            CoreChoice::Shape { designation, shape } => Core::from_shape(designation, shape.clone()),
-            CoreChoice::Effective { designation, parameters } => Core::from_effective(designation, parameters),
+            CoreChoice::Shape { designation, shape } => {
+                Core::from_shape(designation, shape.clone()).map_err(|e| under("core", e))
+            }
+            CoreChoice::Effective { designation, parameters } => {
+                Core::from_effective(designation, parameters).map_err(|e| under("core.parameters", e))
+            }
         }
     }
 
