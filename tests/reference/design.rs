@@ -319,7 +319,18 @@ fn flyback_design_by_hand() {
     // the two corners at the design's reflected voltage.
     let i_pk = ipk(vor, dc.min).max(ipk(vor, dc.max));
     let bl = b_limit(&d, &r);
-    let np = (lp * i_pk / (bl * r.core.ae)).ceil() as u32;
+    let mut np = (lp * i_pk / (bl * r.core.ae)).ceil() as u32;
+    // Ns = ⌈Np/n⌉ lowers the ratio as wound, which raises Ipk: the solver
+    // adds primary turns until Bpk as wound is within the limit.
+    loop {
+        let ns = (np as f64 / n).ceil() as u32;
+        let vor_w = np as f64 / ns as f64 * v1(s);
+        let b = lp * ipk(vor_w, dc.min).max(ipk(vor_w, dc.max)) / (np as f64 * r.core.ae);
+        if b <= bl * (1.0 + 1e-9) {
+            break;
+        }
+        np += 1;
+    }
     assert_eq!(r.turns.primary, np);
     let ns = (np as f64 / n).ceil() as u32;
     assert_eq!(r.turns.secondaries, vec![ns]);
@@ -412,6 +423,14 @@ fn flux_sweep_minimum_near_two_over_beta() {
         );
         let ratio = s.ratio_at_minimum.unwrap();
         assert!(rel(ratio, v.core / v.copper) < 1e-12);
+        // The 2/β optimum assumes only B varies along the sweep. A flyback
+        // breaks that: its gap changes with the turns, and its loss corner
+        // switches (copper-heavy designs peak at Vin min, core-heavy ones at
+        // Vin max, where the DCM ripple is larger), so its ratio jumps at the
+        // switch. Only the forward-type designs are held to 2/β.
+        if d.spec.topology == magwright_engine::topology::Topology::Flyback {
+            continue;
+        }
         let n0 = v.primary_turns as f64;
         // The nearest turn counts below and above the minimum's.
         let ns: Vec<f64> = s

@@ -206,7 +206,22 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
             reason = "primary turns fixed by the user".into();
             build(design, core, material, prep, n, lp_target, *turns)?
         }
-        _ => build_at_least(design, core, material, prep, n, lp_target, np_flux, &mut reason)?,
+        _ => {
+            let mut c = build_at_least(design, core, material, prep, n, lp_target, np_flux, &mut reason)?;
+            // Rounding the secondaries up lowers the ratio as wound, which for a
+            // flyback raises the peak current: add turns until Bpk as wound is
+            // within the limit.
+            for _ in 0..8 {
+                let b = c.waves.get("b_peak").map_or(0.0, |w| w.value);
+                if b <= b_limit * (1.0 + 1e-9) || c.turns.primary >= topology::MAX_TURNS {
+                    break;
+                }
+                let np = c.turns.primary + 1;
+                c = build(design, core, material, prep, n, lp_target, np)?;
+                reason = format!("fewest turns within Bpk ≤ {:.0} mT as wound", b_limit * 1e3);
+            }
+            c
+        }
     };
     let mut best = first;
     if ch.turns == TurnsRule::LeastLoss {
@@ -710,7 +725,10 @@ fn finish(
     thermal.iterations = iterations;
     thermal.history = history;
     let t_op = thermal.temperature;
-    let core_loss = loss::core_loss_with(&prep.igse, material, &op.flux, t_op, core.ve)?;
+    // In runaway the iteration stops at the Curie temperature, where the
+    // loss model is undefined: report the loss just below it.
+    let t_loss = if thermal.runaway { t_op.min(material.curie_c - 1.0) } else { t_op };
+    let core_loss = loss::core_loss_with(&prep.igse, material, &op.flux, t_loss, core.ve)?;
     let copper_dc: f64 = copper.windings.iter().map(|w| w.dc_loss).sum();
     let losses = Losses {
         core: core_loss.watts,
