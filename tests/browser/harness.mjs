@@ -55,6 +55,11 @@ export function cli(args, input) {
   return JSON.parse(out);
 }
 
+// Runs the native CLI; returns its stdout as text.
+export function cliText(args, input) {
+  return execFileSync(CLI, args, { input, encoding: 'utf8' });
+}
+
 // The SI value the page shows for a result (its data-si attribute).
 export async function shown(page, id) {
   const v = await page.getAttribute(`[data-testid="${id}"]`, 'data-si');
