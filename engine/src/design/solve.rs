@@ -8,7 +8,8 @@
 //!    volt-seconds (forward: unipolar, ΔB = Bpk; push-pull and bridges:
 //!    bipolar, ΔB = 2·Bpk); flyback Np = Lp·Ipk/(Bpk·Ae), Lp from the ripple
 //!    ratio. The Bpk limit is Bsat at the hot-spot limit less the
-//!    saturation margin unless the user sets one.
+//!    saturation margin unless the user sets one, and it applies to the flux
+//!    density in the smallest section Amin (Bpk·Ae/Amin where Amin < Ae).
 //! 3. **Least loss** (the default rule): with the window filled, copper loss
 //!    goes as N² ∝ ΔB⁻² and core loss as ΔB^β, so total loss is least where
 //!    Pcore/Pcu = 2/β (Erickson & Maksimovic 2nd ed. §15.3, the ΔB that
@@ -199,7 +200,11 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
     let b_limit = ch.b_max.unwrap_or(b_auto);
     let lp_target = if spec.topology == Topology::Flyback { Some(sizing::flyback_lp(spec, n)?) } else { None };
 
-    let np_flux = flux_limited_turns(spec, n, lp_target, b_limit, core.ae)?;
+    // Saturation is decided where the flux crowds most: the smallest
+    // section Amin (IEC 60205 defines it for this), not the effective Ae,
+    // whenever Amin < Ae (common practice, no source). Core loss uses Ae, Ve.
+    let sat_scale = sat_scale(core);
+    let np_flux = flux_limited_turns(spec, n, lp_target, b_limit, core.ae / sat_scale)?;
     let mut reason = format!("fewest turns within Bpk ≤ {:.0} mT", b_limit * 1e3);
     let first = match &ch.turns {
         TurnsRule::Primary { turns } => {
@@ -212,7 +217,7 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
             // flyback raises the peak current: add turns until Bpk as wound is
             // within the limit.
             for _ in 0..8 {
-                let b = c.waves.get("b_peak").map_or(0.0, |w| w.value);
+                let b = c.waves.get("b_peak").map_or(0.0, |w| w.value) * sat_scale;
                 if b <= b_limit * (1.0 + 1e-9) || c.turns.primary >= topology::MAX_TURNS {
                     break;
                 }
@@ -256,6 +261,16 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
         }
     }
     finish(design, core, material, prep, best, n, b_limit, reason)
+}
+
+/// Ae/Amin where the smallest section is narrower than Ae (1 otherwise, as
+/// for a ring, whose IEC Ae is below its physical section).
+pub fn sat_scale(core: &Core) -> f64 {
+    if core.amin > 0.0 && core.amin < core.ae {
+        core.ae / core.amin
+    } else {
+        1.0
+    }
 }
 
 fn check_choices(ch: &Choices) -> Result<()> {
@@ -750,13 +765,13 @@ fn finish(
 
     // Checks.
     let mut checks = Vec::new();
-    let b_pk = c.waves.get("b_peak").map_or(0.0, |w| w.value);
+    let b_pk = c.waves.get("b_peak").map_or(0.0, |w| w.value) * sat_scale(core);
     let b_corner = c.waves.get("b_peak").map(|w| w.corner);
     let b_sat = material.bsat_at(t_op);
     let b_allowed = b_sat * (1.0 - ch.saturation_margin);
     checks.push(check(
         "saturation",
-        "Bpk against Bsat at temperature",
+        "Bpk (in Amin) against Bsat at temperature",
         b_pk,
         b_allowed,
         "T",
