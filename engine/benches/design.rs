@@ -38,7 +38,7 @@ fn main() {
         println!("{}", workloads::to_json(&format!("native {}", std::env::consts::ARCH), &samples));
         return;
     }
-    println!("{:<24} {:>12} {:>12}  {}", "workload", "best", "mean", "calls; note");
+    println!("{:<24} {:>12} {:>12}  calls; note", "workload", "best", "mean");
     for s in &samples {
         println!(
             "{:<24} {:>12} {:>12}  {}; {}",

@@ -12,6 +12,7 @@
 //
 // node tests/browser/bench/run.mjs --native native.json --wasm-page bench.html
 //   [--page dist/magwright.html] [--scale 1] [--edits 20] [--loads 5] [--out results.json]
+//   [--load-start L]  (the 1-minute load average before the native run, for the report)
 //
 // How the page is measured (an init script, instrument() below, runs before
 // the page's own scripts):
@@ -28,6 +29,7 @@
 import { launch } from '../harness.mjs';
 import { readFileSync, statSync, writeFileSync } from 'node:fs';
 import { gzipSync } from 'node:zlib';
+import { cpus, loadavg } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 
@@ -37,12 +39,13 @@ const root = resolve(here, '..', '..', '..');
 function options(argv) {
   const o = {
     native: null, wasmPage: null, page: join(root, 'dist', 'magwright.html'), scale: 1, edits: 20, loads: 5, out: null,
+    loadStart: null,
     field: process.env.BENCH_FIELD || 'frequency', result: process.env.BENCH_RESULT || '[data-si]',
   };
   for (let i = 2; i < argv.length; i += 2) {
     const k = argv[i].replace(/^--/, '').replace(/-([a-z])/g, (_, c) => c.toUpperCase());
     if (!(k in o) || argv[i + 1] === undefined) throw new Error(`unknown or incomplete option ${argv[i]}`);
-    o[k] = ['scale', 'edits', 'loads'].includes(k) ? Number(argv[i + 1]) : argv[i + 1];
+    o[k] = ['scale', 'edits', 'loads', 'loadStart'].includes(k) ? Number(argv[i + 1]) : argv[i + 1];
   }
   if (!o.native || !o.wasmPage) throw new Error('need --native FILE and --wasm-page FILE');
   return o;
@@ -129,11 +132,11 @@ const median = (xs) => { const s = [...xs].sort((a, b) => a - b); const m = s.le
 async function pageTimings(browser, o) {
   const url = pathToFileURL(resolve(o.page)).href;
   const loads = [];
-  for (let i = 0; i < o.loads; i++) {
-    const p = await openInstrumented(browser, url, o);
-    loads.push(p.ready);
-    if (i < o.loads - 1) await p.context.close();
-    else var last = p; // keep the last page for the edits
+  let last = null; // the last load stays open for the edits
+  for (let i = 0; i < Math.max(1, o.loads); i++) {
+    if (last) await last.context.close();
+    last = await openInstrumented(browser, url, o);
+    loads.push(last.ready);
   }
   const { context, page, requests, watch } = last;
   // The field to edit: #f-<field>, else the first field whose text starts with a digit 1-9.
@@ -195,6 +198,7 @@ const verdict = (ok) => (ok ? 'met' : 'MISSED');
 
 async function main() {
   const o = options(process.argv);
+  const loadAtStart = loadavg()[0];
   const native = JSON.parse(readFileSync(o.native, 'utf8'));
   const browser = await launch();
   const version = browser.version();
@@ -218,7 +222,12 @@ async function main() {
       target: targetText[n.workload], nativeMet: n.best_s < limits[n.workload], ratioMet: ratio <= 2 };
   });
 
+  // Other work on the machine slows one side more than the other: say so.
+  const cores = cpus().length;
+  const load = [o.loadStart ?? loadAtStart, loadAtStart, loadavg()[0]].filter(Number.isFinite);
   const lines = [];
+  lines.push(`load average (1 min) ${load.map((l) => l.toFixed(1)).join(' → ')} on ${cores} cores${
+    Math.max(...load) > 0.75 * cores ? ': the machine was busy, figures (above all the ratios) are unreliable' : ''}`);
   lines.push(`native: ${native.platform}, release profile · wasm: ${wasm.platform}, wasm profile, Chromium ${version} headless`);
   lines.push('engine workloads (best batch mean per call; absolute targets on native, and wasm within 2× of native)');
   lines.push(`${pad('workload', 30)}${lpad('native', 10)}${lpad('wasm', 11)}${lpad('wasm/native', 13)}  ${pad('target', 9)}${pad('native', 8)}${pad('≤ 2×', 8)}note`);
