@@ -1,42 +1,52 @@
 //! Benchmark (not a test): whole designs. Prints the time per run of one
 //! full evaluation (all windings, both line corners, thermal loop), a
-//! 200-point frequency sweep, and the optimiser over the whole library.
-//! Run with `cargo bench -p magwright-engine --bench design`.
+//! 200-point frequency sweep, and the optimiser over the whole library,
+//! for each of the three demo designs.
+//!
+//! Run with `cargo bench -p magwright-engine --bench design`; add
+//! `-- --json` for one line of JSON (what `scripts/bench` reads), and
+//! `--scale X` to multiply every time budget (0.25 for a quick look).
+//!
+//! The workloads and the timing loop are in `shared/workloads.rs`, which
+//! `tools/bench-wasm` compiles to wasm too, so `scripts/bench` can put the
+//! native and browser times side by side.
 
-use magwright_engine::design::{evaluate, optimise::Optimiser, sweep, Design};
-use std::hint::black_box;
-use std::time::{Duration, Instant};
+#[path = "shared/workloads.rs"]
+mod workloads;
 
-/// Runs `f` repeatedly for about `budget` and returns the mean time per call.
-fn time<T>(budget: Duration, mut f: impl FnMut() -> T) -> Duration {
-    black_box(f());
-    let start = Instant::now();
-    let mut n = 0u32;
-    while start.elapsed() < budget || n < 3 {
-        black_box(f());
-        n += 1;
-    }
-    start.elapsed() / n
-}
+use std::time::Instant;
 
 fn main() {
-    let demos = [("forward", Design::demo_forward()), ("flyback", Design::demo_flyback()), ("push-pull", Design::demo_push_pull())];
-    println!("{:<28} {:>14}", "workload", "time per run");
-    for (name, d) in &demos {
-        let t = time(Duration::from_millis(400), || evaluate(black_box(d)).map(|r| r.losses.total));
-        println!("{:<28} {:>11.1} µs", format!("evaluate {name}"), t.as_secs_f64() * 1e6);
+    let args: Vec<String> = std::env::args().skip(1).collect();
+    let json = args.iter().any(|a| a == "--json");
+    let scale = args
+        .iter()
+        .position(|a| a == "--scale")
+        .and_then(|i| args.get(i + 1))
+        .and_then(|v| v.parse::<f64>().ok())
+        .filter(|v| v.is_finite() && *v > 0.0)
+        .unwrap_or(1.0);
+    let origin = Instant::now();
+    let now = move || origin.elapsed().as_secs_f64();
+    let mut progress = |w: &str, d: &str| {
+        if json {
+            eprintln!("native: {w} {d}");
+        }
+    };
+    let samples = workloads::run_all(&now, scale, &mut progress);
+    if json {
+        println!("{}", workloads::to_json(&format!("native {}", std::env::consts::ARCH), &samples));
+        return;
     }
-    for (name, d) in &demos {
-        let t = time(Duration::from_millis(800), || sweep::frequency(black_box(d), 20e3, 1e6, 200).map(|s| s.minimum));
-        println!("{:<28} {:>11.2} ms", format!("200-point sweep {name}"), t.as_secs_f64() * 1e3);
-    }
-    for (name, d) in &demos {
-        let t = time(Duration::from_millis(1500), || {
-            let mut o = Optimiser::over_library(black_box(d)).expect("demo spec is valid");
-            o.step(usize::MAX);
-            o.ranking().passed
-        });
-        let o = Optimiser::over_library(d).expect("demo spec is valid");
-        println!("{:<28} {:>11.1} ms  ({} candidates)", format!("optimiser {name}"), t.as_secs_f64() * 1e3, o.total());
+    println!("{:<24} {:>12} {:>12}  calls; note", "workload", "best", "mean");
+    for s in &samples {
+        println!(
+            "{:<24} {:>12} {:>12}  {}; {}",
+            format!("{} {}", s.workload, s.demo),
+            workloads::human(s.best),
+            workloads::human(s.mean),
+            s.calls,
+            s.note
+        );
     }
 }
