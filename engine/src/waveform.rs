@@ -119,25 +119,29 @@ impl Pwl {
     /// from `t = T` back to `t = 0` is the event at `t = 0`. Events with
     /// neither a step nor a kink are dropped.
     pub fn events(&self) -> Vec<Event> {
+        let mut out = Vec::with_capacity(self.points.len());
+        self.for_each_event(|e| out.push(e));
+        out
+    }
+
+    /// [`Pwl::events`] without collecting them.
+    fn for_each_event(&self, mut f: impl FnMut(Event)) {
         // Positive-duration segments: (t0, y0, y1, slope).
-        let segs: Vec<(f64, f64, f64, f64)> = self
-            .segments()
-            .map(|(t0, y0, t1, y1)| (t0, y0, y1, (y1 - y0) / (t1 - t0)))
-            .collect();
-        let mut out = Vec::with_capacity(segs.len());
-        let n = segs.len();
-        for i in 0..n {
-            // Event at the start of segment i, after segment i-1 (wrapping).
-            let prev = segs[(i + n - 1) % n];
-            let next = segs[i];
+        let seg = |(t0, y0, t1, y1): (f64, f64, f64, f64)| (t0, y0, y1, (y1 - y0) / (t1 - t0));
+        // Event at the start of each segment, after the previous one
+        // (the first one after the last: the wrap at t = T).
+        let Some(mut prev) = self.segments().last().map(seg) else {
+            return;
+        };
+        for (i, next) in self.segments().map(seg).enumerate() {
             let t = if i == 0 { 0.0 } else { next.0 };
             let dy = next.1 - prev.2;
             let ds = next.3 - prev.3;
             if dy != 0.0 || ds != 0.0 {
-                out.push(Event { t, dy, ds });
+                f(Event { t, dy, ds });
             }
+            prev = next;
         }
-        out
     }
 
     /// Complex Fourier coefficient c_n = (1/T)∫₀ᵀ y(t)·e^(−jnωt) dt, ω = 2π/T,
@@ -186,20 +190,22 @@ impl Pwl {
     /// pulse of the ramp's slope). Zero keeps ideal steps.
     pub fn spectrum(&self, edge_time: f64) -> Spectrum {
         let w1 = 2.0 * std::f64::consts::PI / self.period;
-        let events = self
-            .events()
-            .into_iter()
-            .map(|e| {
-                let (s, c) = (w1 * e.t).sin_cos();
-                SpectrumEvent { dy: e.dy, ds: e.ds, base: (c, -s), cur: (1.0, 0.0) }
-            })
-            .collect();
+        let mut events = Vec::with_capacity(self.points.len());
+        self.for_each_event(|e| {
+            let (s, c) = (w1 * e.t).sin_cos();
+            events.push(SpectrumEvent { t: e.t, dy: e.dy, ds: e.ds, base: (c, -s), cur: (1.0, 0.0) });
+        });
+        let half_edge = if edge_time.is_finite() && edge_time > 0.0 { 0.5 * edge_time } else { 0.0 };
+        let theta = w1 * half_edge;
+        let (s, c) = theta.sin_cos();
         Spectrum {
             events,
             n: 0,
             w1,
             period: self.period,
-            half_edge: if edge_time.is_finite() && edge_time > 0.0 { 0.5 * edge_time } else { 0.0 },
+            theta,
+            edge_base: (c, s),
+            edge_cur: (1.0, 0.0),
         }
     }
 
@@ -221,6 +227,7 @@ pub struct Event {
 
 #[derive(Debug, Clone)]
 struct SpectrumEvent {
+    t: f64,
     dy: f64,
     ds: f64,
     /// e^(−jω₁t).
@@ -231,19 +238,36 @@ struct SpectrumEvent {
 
 /// Iterator over the complex Fourier coefficients c₁, c₂, … of a [`Pwl`];
 /// made by [`Pwl::spectrum`]. Each item is `(re, im)` of cₙ.
+///
+/// Speed: per harmonic one complex multiplication per event (the phasor
+/// e^(−jnω₁tₖ) by recurrence), one division, and with a finite edge time
+/// one more complex multiplication for sin(nθ) of the sinc (θ = ω₁·t_r/2):
+/// no sine, cosine or exponential after construction. The recurrences
+/// lose about one rounding (1e−16) per harmonic in absolute terms, far
+/// below the loss tolerance at any harmonic count the winding model uses.
 #[derive(Debug, Clone)]
 pub struct Spectrum {
     events: Vec<SpectrumEvent>,
     n: u32,
     w1: f64,
     period: f64,
-    half_edge: f64,
+    /// ω₁·t_r/2 (0: ideal steps).
+    theta: f64,
+    /// e^(jθ) and e^(jnθ) for the current n.
+    edge_base: (f64, f64),
+    edge_cur: (f64, f64),
 }
 
 impl Spectrum {
     /// Harmonic number of the coefficient the last `next()` returned.
     pub fn harmonic(&self) -> u32 {
         self.n
+    }
+
+    /// The steps of the waveform, `(t, Δy)` (every event, Δy = 0 for a
+    /// pure slope change), as [`Pwl::events`] gives them.
+    pub fn steps(&self) -> impl Iterator<Item = (f64, f64)> + '_ {
+        self.events.iter().map(|e| (e.t, e.dy))
     }
 }
 
@@ -252,13 +276,21 @@ impl Iterator for Spectrum {
 
     fn next(&mut self) -> Option<(f64, f64)> {
         self.n = self.n.checked_add(1)?;
-        let w = self.w1 * self.n as f64;
-        let sinc = if self.half_edge > 0.0 {
-            let x = w * self.half_edge;
-            if x.abs() < 1e-8 { 1.0 } else { x.sin() / x }
+        let nf = self.n as f64;
+        let w = self.w1 * nf;
+        let sinc = if self.theta > 0.0 {
+            // sin(nθ) by rotation: e^(j(n+1)θ) = e^(jnθ)·e^(jθ).
+            let (cr, ci) = self.edge_cur;
+            let (br, bi) = self.edge_base;
+            self.edge_cur = (cr * br - ci * bi, cr * bi + ci * br);
+            let x = nf * self.theta;
+            if x.abs() < 1e-8 { 1.0 } else { self.edge_cur.1 / x }
         } else {
             1.0
         };
+        let inv_w = 1.0 / w;
+        let inv_w2 = inv_w * inv_w;
+        let b_scale = sinc * inv_w;
         let (mut re, mut im) = (0.0, 0.0);
         for e in &mut self.events {
             // Advance the phasor: cur ← cur·base.
@@ -266,12 +298,13 @@ impl Iterator for Spectrum {
             let (br, bi) = e.base;
             e.cur = (cr * br - ci * bi, cr * bi + ci * br);
             let (c, ms) = e.cur; // c − j·s, ms = −s
-            let a = e.ds / (w * w);
-            let b = sinc * e.dy / w;
+            let a = e.ds * inv_w2;
+            let b = e.dy * b_scale;
             re += c * a - ms * b;
             im += c * b + ms * a;
         }
-        Some((-re / self.period, -im / self.period))
+        let k = -1.0 / self.period;
+        Some((k * re, k * im))
     }
 }
 

@@ -51,6 +51,11 @@ pub fn dpsi(delta: f64) -> (f64, f64) {
         let p2 = 0.5 + d4 * (-7.0 / 180.0 + d4 * (127.0 / 75600.0 + d4 * (-1_414_477.0 / 20_432_412_000.0)));
         return (p1, p2);
     }
+    if d > 40.0 {
+        // Δψ₂ ≈ Δ·e^(−Δ)·√2 < 2e−16 and ψ₁ = 1 to rounding: no
+        // transcendental call (most of the analytic tail's nodes).
+        return (d, 0.0);
+    }
     if d > 20.0 {
         let (s, c) = d.sin_cos();
         return (d, d * (-d).exp() * (c + s));
