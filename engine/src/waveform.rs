@@ -191,9 +191,11 @@ impl Pwl {
     pub fn spectrum(&self, edge_time: f64) -> Spectrum {
         let w1 = 2.0 * std::f64::consts::PI / self.period;
         let mut events = Vec::with_capacity(self.points.len());
+        // cₙ = (1/n)·Σ e^(−jnω₁t)·(−j·Δy/(ω₁T)) + (1/n²)·Σ e^(−jnω₁t)·(−Δs/(ω₁²T)).
+        let (ky, ks) = (-1.0 / (w1 * self.period), -1.0 / (w1 * w1 * self.period));
         self.for_each_event(|e| {
             let (s, c) = (w1 * e.t).sin_cos();
-            events.push(SpectrumEvent { t: e.t, dy: e.dy, ds: e.ds, base: (c, -s), cur: (1.0, 0.0) });
+            events.push(SpectrumEvent { t: e.t, dy: e.dy, y: e.dy * ky, s: e.ds * ks, base: (c, -s), cur: (1.0, 0.0) });
         });
         let half_edge = if edge_time.is_finite() && edge_time > 0.0 { 0.5 * edge_time } else { 0.0 };
         let theta = w1 * half_edge;
@@ -201,9 +203,8 @@ impl Pwl {
         Spectrum {
             events,
             n: 0,
-            w1,
-            period: self.period,
             theta,
+            inv_theta: if theta > 0.0 { 1.0 / theta } else { 0.0 },
             edge_base: (c, s),
             edge_cur: (1.0, 0.0),
         }
@@ -229,7 +230,9 @@ pub struct Event {
 struct SpectrumEvent {
     t: f64,
     dy: f64,
-    ds: f64,
+    /// −Δy/(ω₁T) and −Δs/(ω₁²T): the step's and the kink's weights.
+    y: f64,
+    s: f64,
     /// e^(−jω₁t).
     base: (f64, f64),
     /// e^(−jnω₁t) for the current n.
@@ -249,10 +252,9 @@ struct SpectrumEvent {
 pub struct Spectrum {
     events: Vec<SpectrumEvent>,
     n: u32,
-    w1: f64,
-    period: f64,
-    /// ω₁·t_r/2 (0: ideal steps).
+    /// ω₁·t_r/2 (0: ideal steps) and its inverse (0 if θ = 0).
     theta: f64,
+    inv_theta: f64,
     /// e^(jθ) and e^(jnθ) for the current n.
     edge_base: (f64, f64),
     edge_cur: (f64, f64),
@@ -277,34 +279,32 @@ impl Iterator for Spectrum {
     fn next(&mut self) -> Option<(f64, f64)> {
         self.n = self.n.checked_add(1)?;
         let nf = self.n as f64;
-        let w = self.w1 * nf;
+        let inv_n = 1.0 / nf;
         let sinc = if self.theta > 0.0 {
             // sin(nθ) by rotation: e^(j(n+1)θ) = e^(jnθ)·e^(jθ).
             let (cr, ci) = self.edge_cur;
             let (br, bi) = self.edge_base;
             self.edge_cur = (cr * br - ci * bi, cr * bi + ci * br);
-            let x = nf * self.theta;
-            if x.abs() < 1e-8 { 1.0 } else { self.edge_cur.1 / x }
+            if nf * self.theta < 1e-8 { 1.0 } else { self.edge_cur.1 * inv_n * self.inv_theta }
         } else {
             1.0
         };
-        let inv_w = 1.0 / w;
-        let inv_w2 = inv_w * inv_w;
-        let b_scale = sinc * inv_w;
-        let (mut re, mut im) = (0.0, 0.0);
+        // cₙ = Σₖ e^(−jnω₁tₖ)·(sₖ/n² + j·sinc·yₖ/n): the sums of the
+        // phasors weighted by y and by s, then the factors.
+        let (mut yr, mut yi, mut sr, mut si) = (0.0, 0.0, 0.0, 0.0);
         for e in &mut self.events {
             // Advance the phasor: cur ← cur·base.
             let (cr, ci) = e.cur;
             let (br, bi) = e.base;
-            e.cur = (cr * br - ci * bi, cr * bi + ci * br);
-            let (c, ms) = e.cur; // c − j·s, ms = −s
-            let a = e.ds * inv_w2;
-            let b = e.dy * b_scale;
-            re += c * a - ms * b;
-            im += c * b + ms * a;
+            let (c, ms) = (cr * br - ci * bi, cr * bi + ci * br); // cos − j·sin
+            e.cur = (c, ms);
+            yr += c * e.y;
+            yi += ms * e.y;
+            sr += c * e.s;
+            si += ms * e.s;
         }
-        let k = -1.0 / self.period;
-        Some((k * re, k * im))
+        let (ky, ks) = (sinc * inv_n, inv_n * inv_n);
+        Some((ks * sr - ky * yi, ks * si + ky * yr))
     }
 }
 
