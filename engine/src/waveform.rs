@@ -364,6 +364,31 @@ mod tests {
         }
     }
 
+    // A step smoothed into a linear ramp of duration t_r centred on it is
+    // the step convolved with a unit-area rectangle of width t_r, so its
+    // coefficients are the step's times sinc(nω·t_r/2) (convolution
+    // theorem; Bracewell, The Fourier Transform and Its Applications). The
+    // ramped waveform is itself piecewise linear: its exact coefficients
+    // check the spectrum's sinc recurrence over thousands of harmonics.
+    #[test]
+    fn edge_time_is_a_ramp() {
+        let tr = 0.02;
+        let stepped =
+            Pwl::new(1.0, vec![(0.0, -1.0), (0.25, -1.0), (0.25, 1.0), (0.75, 1.0), (0.75, -1.0), (1.0, -1.0)]).unwrap();
+        let h = 0.5 * tr;
+        let ramped = Pwl::new(
+            1.0,
+            vec![(0.0, -1.0), (0.25 - h, -1.0), (0.25 + h, 1.0), (0.75 - h, 1.0), (0.75 + h, -1.0), (1.0, -1.0)],
+        )
+        .unwrap();
+        let mut worst = 0.0_f64;
+        for (i, (re, im)) in stepped.spectrum(tr).take(5000).enumerate() {
+            let (r0, i0) = ramped.fourier_coefficient(i as u32 + 1);
+            worst = worst.max((re - r0).abs()).max((im - i0).abs());
+        }
+        assert!(worst < 1e-13, "{worst}");
+    }
+
     // Parseval: mean² + Σ harmonic RMS² = RMS², for a continuous
     // (kinks only) waveform whose terms fall as n⁻⁴.
     #[test]

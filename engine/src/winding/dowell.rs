@@ -54,6 +54,7 @@ pub fn skin_depth(rho: f64, f: f64) -> Result<f64> {
 /// Δ·ψ₁(Δ) and Δ·ψ₂(Δ) (see the module docs), the two functions that the
 /// per-layer loss needs. Both tend to 1 and 1/2 as Δ → 0. `Δ ≥ 0`; a
 /// negative or non-finite Δ is treated as 0 (no loss beyond DC).
+#[inline]
 pub fn dpsi(delta: f64) -> (f64, f64) {
     let d = if delta.is_finite() && delta > 0.0 { delta } else { 0.0 };
     if d < 0.5 {
