@@ -119,25 +119,29 @@ impl Pwl {
     /// from `t = T` back to `t = 0` is the event at `t = 0`. Events with
     /// neither a step nor a kink are dropped.
     pub fn events(&self) -> Vec<Event> {
+        let mut out = Vec::with_capacity(self.points.len());
+        self.for_each_event(|e| out.push(e));
+        out
+    }
+
+    /// [`Pwl::events`] without collecting them.
+    fn for_each_event(&self, mut f: impl FnMut(Event)) {
         // Positive-duration segments: (t0, y0, y1, slope).
-        let segs: Vec<(f64, f64, f64, f64)> = self
-            .segments()
-            .map(|(t0, y0, t1, y1)| (t0, y0, y1, (y1 - y0) / (t1 - t0)))
-            .collect();
-        let mut out = Vec::with_capacity(segs.len());
-        let n = segs.len();
-        for i in 0..n {
-            // Event at the start of segment i, after segment i-1 (wrapping).
-            let prev = segs[(i + n - 1) % n];
-            let next = segs[i];
+        let seg = |(t0, y0, t1, y1): (f64, f64, f64, f64)| (t0, y0, y1, (y1 - y0) / (t1 - t0));
+        // Event at the start of each segment, after the previous one
+        // (the first one after the last: the wrap at t = T).
+        let Some(mut prev) = self.segments().last().map(seg) else {
+            return;
+        };
+        for (i, next) in self.segments().map(seg).enumerate() {
             let t = if i == 0 { 0.0 } else { next.0 };
             let dy = next.1 - prev.2;
             let ds = next.3 - prev.3;
             if dy != 0.0 || ds != 0.0 {
-                out.push(Event { t, dy, ds });
+                f(Event { t, dy, ds });
             }
+            prev = next;
         }
-        out
     }
 
     /// Complex Fourier coefficient c_n = (1/T)∫₀ᵀ y(t)·e^(−jnωt) dt, ω = 2π/T,
@@ -186,20 +190,23 @@ impl Pwl {
     /// pulse of the ramp's slope). Zero keeps ideal steps.
     pub fn spectrum(&self, edge_time: f64) -> Spectrum {
         let w1 = 2.0 * std::f64::consts::PI / self.period;
-        let events = self
-            .events()
-            .into_iter()
-            .map(|e| {
-                let (s, c) = (w1 * e.t).sin_cos();
-                SpectrumEvent { dy: e.dy, ds: e.ds, base: (c, -s), cur: (1.0, 0.0) }
-            })
-            .collect();
+        let mut events = Vec::with_capacity(self.points.len());
+        // cₙ = (1/n)·Σ e^(−jnω₁t)·(−j·Δy/(ω₁T)) + (1/n²)·Σ e^(−jnω₁t)·(−Δs/(ω₁²T)).
+        let (ky, ks) = (-1.0 / (w1 * self.period), -1.0 / (w1 * w1 * self.period));
+        self.for_each_event(|e| {
+            let (s, c) = (w1 * e.t).sin_cos();
+            events.push(SpectrumEvent { t: e.t, dy: e.dy, y: e.dy * ky, s: e.ds * ks, base: (c, -s), cur: (1.0, 0.0) });
+        });
+        let half_edge = if edge_time.is_finite() && edge_time > 0.0 { 0.5 * edge_time } else { 0.0 };
+        let theta = w1 * half_edge;
+        let (s, c) = theta.sin_cos();
         Spectrum {
             events,
             n: 0,
-            w1,
-            period: self.period,
-            half_edge: if edge_time.is_finite() && edge_time > 0.0 { 0.5 * edge_time } else { 0.0 },
+            theta,
+            inv_theta: if theta > 0.0 { 1.0 / theta } else { 0.0 },
+            edge_base: (c, s),
+            edge_cur: (1.0, 0.0),
         }
     }
 
@@ -221,8 +228,11 @@ pub struct Event {
 
 #[derive(Debug, Clone)]
 struct SpectrumEvent {
+    t: f64,
     dy: f64,
-    ds: f64,
+    /// −Δy/(ω₁T) and −Δs/(ω₁²T): the step's and the kink's weights.
+    y: f64,
+    s: f64,
     /// e^(−jω₁t).
     base: (f64, f64),
     /// e^(−jnω₁t) for the current n.
@@ -231,19 +241,35 @@ struct SpectrumEvent {
 
 /// Iterator over the complex Fourier coefficients c₁, c₂, … of a [`Pwl`];
 /// made by [`Pwl::spectrum`]. Each item is `(re, im)` of cₙ.
+///
+/// Speed: per harmonic one complex multiplication per event (the phasor
+/// e^(−jnω₁tₖ) by recurrence), one division, and with a finite edge time
+/// one more complex multiplication for sin(nθ) of the sinc (θ = ω₁·t_r/2):
+/// no sine, cosine or exponential after construction. The recurrences
+/// lose about one rounding (1e−16) per harmonic in absolute terms, far
+/// below the loss tolerance at any harmonic count the winding model uses.
 #[derive(Debug, Clone)]
 pub struct Spectrum {
     events: Vec<SpectrumEvent>,
     n: u32,
-    w1: f64,
-    period: f64,
-    half_edge: f64,
+    /// ω₁·t_r/2 (0: ideal steps) and its inverse (0 if θ = 0).
+    theta: f64,
+    inv_theta: f64,
+    /// e^(jθ) and e^(jnθ) for the current n.
+    edge_base: (f64, f64),
+    edge_cur: (f64, f64),
 }
 
 impl Spectrum {
     /// Harmonic number of the coefficient the last `next()` returned.
     pub fn harmonic(&self) -> u32 {
         self.n
+    }
+
+    /// The steps of the waveform, `(t, Δy)` (every event, Δy = 0 for a
+    /// pure slope change), as [`Pwl::events`] gives them.
+    pub fn steps(&self) -> impl Iterator<Item = (f64, f64)> + '_ {
+        self.events.iter().map(|e| (e.t, e.dy))
     }
 }
 
@@ -252,26 +278,33 @@ impl Iterator for Spectrum {
 
     fn next(&mut self) -> Option<(f64, f64)> {
         self.n = self.n.checked_add(1)?;
-        let w = self.w1 * self.n as f64;
-        let sinc = if self.half_edge > 0.0 {
-            let x = w * self.half_edge;
-            if x.abs() < 1e-8 { 1.0 } else { x.sin() / x }
+        let nf = self.n as f64;
+        let inv_n = 1.0 / nf;
+        let sinc = if self.theta > 0.0 {
+            // sin(nθ) by rotation: e^(j(n+1)θ) = e^(jnθ)·e^(jθ).
+            let (cr, ci) = self.edge_cur;
+            let (br, bi) = self.edge_base;
+            self.edge_cur = (cr * br - ci * bi, cr * bi + ci * br);
+            if nf * self.theta < 1e-8 { 1.0 } else { self.edge_cur.1 * inv_n * self.inv_theta }
         } else {
             1.0
         };
-        let (mut re, mut im) = (0.0, 0.0);
+        // cₙ = Σₖ e^(−jnω₁tₖ)·(sₖ/n² + j·sinc·yₖ/n): the sums of the
+        // phasors weighted by y and by s, then the factors.
+        let (mut yr, mut yi, mut sr, mut si) = (0.0, 0.0, 0.0, 0.0);
         for e in &mut self.events {
             // Advance the phasor: cur ← cur·base.
             let (cr, ci) = e.cur;
             let (br, bi) = e.base;
-            e.cur = (cr * br - ci * bi, cr * bi + ci * br);
-            let (c, ms) = e.cur; // c − j·s, ms = −s
-            let a = e.ds / (w * w);
-            let b = sinc * e.dy / w;
-            re += c * a - ms * b;
-            im += c * b + ms * a;
+            let (c, ms) = (cr * br - ci * bi, cr * bi + ci * br); // cos − j·sin
+            e.cur = (c, ms);
+            yr += c * e.y;
+            yi += ms * e.y;
+            sr += c * e.s;
+            si += ms * e.s;
         }
-        Some((-re / self.period, -im / self.period))
+        let (ky, ks) = (sinc * inv_n, inv_n * inv_n);
+        Some((ks * sr - ky * yi, ks * si + ky * yr))
     }
 }
 
@@ -329,6 +362,31 @@ mod tests {
             let (r2, i2) = s_tri.next().unwrap();
             assert!((r2 - re).abs() < 1e-12 && (i2 - im).abs() < 1e-12);
         }
+    }
+
+    // A step smoothed into a linear ramp of duration t_r centred on it is
+    // the step convolved with a unit-area rectangle of width t_r, so its
+    // coefficients are the step's times sinc(nω·t_r/2) (convolution
+    // theorem; Bracewell, The Fourier Transform and Its Applications). The
+    // ramped waveform is itself piecewise linear: its exact coefficients
+    // check the spectrum's sinc recurrence over thousands of harmonics.
+    #[test]
+    fn edge_time_is_a_ramp() {
+        let tr = 0.02;
+        let stepped =
+            Pwl::new(1.0, vec![(0.0, -1.0), (0.25, -1.0), (0.25, 1.0), (0.75, 1.0), (0.75, -1.0), (1.0, -1.0)]).unwrap();
+        let h = 0.5 * tr;
+        let ramped = Pwl::new(
+            1.0,
+            vec![(0.0, -1.0), (0.25 - h, -1.0), (0.25 + h, 1.0), (0.75 - h, 1.0), (0.75 + h, -1.0), (1.0, -1.0)],
+        )
+        .unwrap();
+        let mut worst = 0.0_f64;
+        for (i, (re, im)) in stepped.spectrum(tr).take(5000).enumerate() {
+            let (r0, i0) = ramped.fourier_coefficient(i as u32 + 1);
+            worst = worst.max((re - r0).abs()).max((im - i0).abs());
+        }
+        assert!(worst < 1e-13, "{worst}");
     }
 
     // Parseval: mean² + Σ harmonic RMS² = RMS², for a continuous
