@@ -147,7 +147,8 @@ pub struct Report {
     pub waveforms: WorstCase,
     pub wires: Vec<WireSummary>,
     pub stackup: StackUp,
-    /// The stack-up in its JSON schema (what the page exports).
+    /// The stack-up in its JSON schema (what the page exports); filled by
+    /// [`evaluate`], empty from [`evaluate_with`].
     pub stackup_json: String,
     pub fit: FitReport,
     /// Leakage inductance referred to the primary, H (`None` with one winding).
@@ -173,7 +174,9 @@ pub fn evaluate(design: &Design) -> Result<Report> {
     design.check_envelope()?;
     let core = design.resolve_core()?;
     let material = design.resolve_material()?;
-    evaluate_with(design, &core, &material, &Prepared::new(&material)?)
+    let mut r = evaluate_with(design, &core, &material, &Prepared::new(&material)?)?;
+    r.stackup_json = to_json(&r.stackup);
+    Ok(r)
 }
 
 /// What depends only on the material and is reused across a sweep.
@@ -432,9 +435,8 @@ fn build_corners(
     let t_sel = spec.hot_spot_max;
     let rho = copper_resistivity(t_sel)?;
     let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
-    let (stackup, wires) = choose_stackup(design, core, &names, delta)?;
-    let fit = fit(core, &stackup)?;
-    let model = LossModel::new(core, &stackup, t_sel)?;
+    let (stackup, fit, wires) = choose_stackup(design, core, &names, delta)?;
+    let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
     let opts = LossOptions { edge_time: ch.edge_time, ..LossOptions::default() };
     let mut corners = Vec::with_capacity(2);
     for (corner, op) in [(Corner::VinMin, &waves.at_vin_min), (Corner::VinMax, &waves.at_vin_max)] {
@@ -487,7 +489,12 @@ fn core_sense(topo: Topology, name: &str) -> f64 {
 }
 
 /// Step 5: conductors and the stack-up.
-fn choose_stackup(design: &Design, core: &Core, windings: &[(String, u32, f64)], delta: f64) -> Result<(StackUp, Vec<WireSummary>)> {
+fn choose_stackup(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+) -> Result<(StackUp, FitReport, Vec<WireSummary>)> {
     let spec = &design.spec;
     let ch = &design.choices;
     for o in &ch.wires {
@@ -578,10 +585,10 @@ fn choose_stackup(design: &Design, core: &Core, windings: &[(String, u32, f64)],
                     }
                 }
             }
-            fit(core, &st).map(|_| st)
+            fit(core, &st).map(|f| (st, f))
         });
         match built {
-            Ok(st) => return Ok((st, wires)),
+            Ok((st, f)) => return Ok((st, f, wires)),
             Err(e) => {
                 last_err = Some(e);
                 if ch.wires.len() == windings.len() {
@@ -730,7 +737,7 @@ fn finish(
         let runaway = e.runaway;
         t_k = e.temperature.min(250.0);
         thermal = Some(e);
-        copper = LossModel::new(core, &c.stackup, t_k)?.evaluate(&currents, &opts)?;
+        copper = LossModel::from_fit(&c.stackup, &c.fit, t_k)?.evaluate(&currents, &opts)?;
         anchor = copper.clone();
         if runaway || moved < 0.5 || pass == 2 {
             break;
@@ -850,7 +857,8 @@ fn finish(
     } else {
         None
     };
-    let stackup_json = to_json(&c.stackup);
+    // Filled in by `evaluate` (sweeps and the optimiser do not need it).
+    let stackup_json = String::new();
     let n_actual = c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
     let _ = n_design;
     Ok(Report {

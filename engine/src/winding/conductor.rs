@@ -178,18 +178,28 @@ impl Conductor {
 
     /// Checks every dimension; `field` prefixes the error's field name.
     pub fn validate(&self, field: &str) -> Result<()> {
+        // Field names are built only on the error path: this runs on every
+        // fit of every design the solver tries.
         let f = |k: &str| format!("{field}.{k}");
         let at_least_1um = |k: &str, v: f64| -> Result<()> {
-            positive(k, v, "m")?;
-            if v < 1e-6 {
-                return Err(Error::input(k, format!("{v} m is under 1 µm; lengths are in metres")));
+            if v.is_finite() && v >= 1e-6 {
+                return Ok(());
             }
-            Ok(())
+            let k = f(k);
+            positive(&k, v, "m")?;
+            Err(Error::input(&k, format!("{v} m is under 1 µm; lengths are in metres")))
+        };
+        let pos = |k: &str, v: f64| -> Result<()> {
+            if v.is_finite() && v > 0.0 {
+                Ok(())
+            } else {
+                positive(&f(k), v, "m").map(|_| ())
+            }
         };
         match self {
             Conductor::Round(w) | Conductor::TripleInsulated(w) => {
-                at_least_1um(&f("bare_diameter_m"), w.bare_diameter)?;
-                positive(&f("overall_diameter_m"), w.overall_diameter, "m")?;
+                at_least_1um("bare_diameter_m", w.bare_diameter)?;
+                pos("overall_diameter_m", w.overall_diameter)?;
                 if w.overall_diameter < w.bare_diameter {
                     return Err(Error::input(
                         &f("overall_diameter_m"),
@@ -213,8 +223,8 @@ impl Conductor {
                         "more than 100000 strands is not a litz bundle",
                     ));
                 }
-                at_least_1um(&f("strand_diameter_m"), l.strand_diameter)?;
-                positive(&f("strand_overall_diameter_m"), l.strand_overall_diameter, "m")?;
+                at_least_1um("strand_diameter_m", l.strand_diameter)?;
+                pos("strand_overall_diameter_m", l.strand_overall_diameter)?;
                 if l.strand_overall_diameter < l.strand_diameter {
                     return Err(Error::input(
                         &f("strand_overall_diameter_m"),
@@ -239,8 +249,8 @@ impl Conductor {
                 crate::error::non_negative(&f("serving_m"), l.serving, "m")?;
             }
             Conductor::Foil(fo) => {
-                at_least_1um(&f("thickness_m"), fo.thickness)?;
-                at_least_1um(&f("width_m"), fo.width)?;
+                at_least_1um("thickness_m", fo.thickness)?;
+                at_least_1um("width_m", fo.width)?;
                 if fo.thickness > 0.01 {
                     return Err(Error::input(
                         &f("thickness_m"),

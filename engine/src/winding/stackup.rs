@@ -188,55 +188,67 @@ impl StackUp {
             }
         }
         for (i, it) in self.items.iter().enumerate() {
-            let p = format!("items[{i}]");
+            let p = || format!("items[{i}]");
             match it {
                 Item::Section(s) => {
                     if self.winding_index(&s.winding).is_none() {
                         return Err(Error::input(
-                            &format!("{p}.winding"),
+                            &format!("{}.winding", p()),
                             format!("the winding \"{}\" is not declared in \"windings\"", s.winding),
                         ));
                     }
                     if s.turns == 0 {
-                        return Err(Error::input(&format!("{p}.turns"), "a section needs at least one turn"));
+                        return Err(Error::input(&format!("{}.turns", p()), "a section needs at least one turn"));
                     }
                     if s.turns > 100_000 {
                         return Err(Error::input(
-                            &format!("{p}.turns"),
+                            &format!("{}.turns", p()),
                             "more than 100000 turns in one section",
                         ));
                     }
                     if s.parallel > 1000 {
                         return Err(Error::input(
-                            &format!("{p}.parallel"),
+                            &format!("{}.parallel", p()),
                             "more than 1000 conductors in hand",
                         ));
                     }
                     if s.parallel == 0 {
-                        return Err(Error::input(&format!("{p}.parallel"), "at least one conductor in hand"));
+                        return Err(Error::input(&format!("{}.parallel", p()), "at least one conductor in hand"));
                     }
                     if s.layers == Some(0) {
-                        return Err(Error::input(&format!("{p}.layers"), "at least one layer"));
+                        return Err(Error::input(&format!("{}.layers", p()), "at least one layer"));
                     }
                     if s.turns_per_layer == Some(0) {
                         return Err(Error::input(
-                            &format!("{p}.turns_per_layer"),
+                            &format!("{}.turns_per_layer", p()),
                             "at least one turn per layer",
                         ));
                     }
-                    s.conductor.validate(&format!("{p}.conductor"))?;
-                    non_negative(&format!("{p}.margin_left_m"), s.margin_left, "m")?;
-                    non_negative(&format!("{p}.margin_right_m"), s.margin_right, "m")?;
+                    if s.conductor.validate("").is_err() {
+                        s.conductor.validate(&format!("{}.conductor", p()))?;
+                    }
+                    if !(s.margin_left.is_finite() && s.margin_left >= 0.0) {
+                        non_negative(&format!("{}.margin_left_m", p()), s.margin_left, "m")?;
+                    }
+                    if !(s.margin_right.is_finite() && s.margin_right >= 0.0) {
+                        non_negative(&format!("{}.margin_right_m", p()), s.margin_right, "m")?;
+                    }
                     if let Some(t) = &s.interlayer {
-                        validate_tape(&format!("{p}.interlayer_tape"), t)?;
+                        if validate_tape("", t).is_err() {
+                            validate_tape(&format!("{}.interlayer_tape", p()), t)?;
+                        }
                     }
                 }
-                Item::Tape(t) => validate_tape(&p, t)?,
+                Item::Tape(t) => {
+                    if validate_tape("", t).is_err() {
+                        validate_tape(&p(), t)?;
+                    }
+                }
                 Item::Screen(sc) => {
-                    positive(&format!("{p}.thickness_m"), sc.thickness, "m")?;
+                    positive(&format!("{}.thickness_m", p()), sc.thickness, "m")?;
                     if sc.thickness > 0.01 {
                         return Err(Error::input(
-                            &format!("{p}.thickness_m"),
+                            &format!("{}.thickness_m", p()),
                             "a screen over 10 mm thick is not a screen",
                         ));
                     }
@@ -256,7 +268,9 @@ impl StackUp {
 }
 
 fn validate_tape(p: &str, t: &Tape) -> Result<()> {
-    positive(&format!("{p}.thickness_m"), t.thickness, "m")?;
+    if !(t.thickness.is_finite() && t.thickness > 0.0) {
+        positive(&format!("{p}.thickness_m"), t.thickness, "m")?;
+    }
     if t.thickness > 0.005 {
         return Err(Error::input(
             &format!("{p}.thickness_m"),
