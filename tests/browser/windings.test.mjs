@@ -98,7 +98,7 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   await changed(page, 'loss-secondary-1', loss0);
   const fixed = await matchesCli(page, 'fixed secondary');
   assert.deepEqual(fixed.design.choices.wires, [{ winding: 'secondary 1', wire: { kind: 'round', awg: 20, parallel: 2 } }]);
-  assert.match(await page.textContent('[data-testid="wire-of-secondary-1"]'), /round 0\.812 mm.*\(fixed\)/);
+  assert.match(await page.textContent('[data-testid="wire-of-secondary-1"]'), /^round 0\.812 mm \(fixed\)$/);
   await page.locator('[data-testid="panel-windings"]').screenshot({ path: join(OUT, 'windings-edited.png') });
   const { ink, colours } = await canvasInk(page, 'window-plot');
   assert.ok(ink > 0.05 && colours > 5, `the window is drawn (ink ${ink}, ${colours} colours)`);
@@ -210,7 +210,7 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   assert.equal(first.id, 'check-temperature');
   const [r, g, b] = first.colour.match(/\d+/g).map(Number);
   assert.ok(r > 130 && g < 60 && b < 60, `failing row is red (${first.colour})`);
-  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Hot-spot temperature/);
+  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Hot spot \(-\d+ %\)/);
   await page.locator('[data-testid="panel-results"]').screenshot({ path: join(OUT, 'results-failing.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);

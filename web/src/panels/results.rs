@@ -6,7 +6,7 @@
 //! Every number is a report field or an engine call (the ungapped AL);
 //! nothing is computed here beyond unit changes for display.
 
-use super::{row, Missing};
+use super::Missing;
 use crate::form::{Outcome, Report};
 use leptos::prelude::*;
 use magwright_engine::design::solve::{Check, RESIDUAL_GAP};
@@ -38,6 +38,11 @@ const CSS: &str = r#"
 .results table.key td.extra { color:var(--muted); font-size:.88em; text-align:right; padding-left:.5rem; }
 .results .turns-line { margin:.1rem 0 .3rem; display:flex; flex-wrap:wrap; gap:.2rem .9rem; font-variant-numeric:tabular-nums; }
 .results .turns-line .lbl { color:var(--muted); }
+.results .tiles { display:grid; grid-template-columns:repeat(auto-fill, minmax(7.6rem, 1fr)); gap:.3rem; margin:.2rem 0 .3rem; }
+.results .tile { border:1px solid #e3e7ec; border-radius:4px; padding:.2rem .4rem; display:flex; flex-direction:column; min-width:0; }
+.results .tile .k { color:var(--muted); font-size:.78em; line-height:1.2; }
+.results .tile .v { font-weight:600; font-variant-numeric:tabular-nums; font-size:1.02em; }
+.results .tile .s { color:var(--muted); font-size:.74em; line-height:1.2; min-height:1.2em; }
 .results .thermal-note { color:var(--muted); margin:.3rem 0 0; font-size:.86em; }
 "#;
 
@@ -65,7 +70,15 @@ fn check_texts(c: &Check) -> (String, String) {
 fn ordered(checks: &[Check]) -> Vec<&Check> {
     let mut v: Vec<&Check> = checks.iter().collect();
     v.sort_by(|a, b| {
-        let rank = |c: &Check| if !c.pass { 0 } else if c.binding { 1 } else { 2 };
+        let rank = |c: &Check| {
+            if !c.pass {
+                0
+            } else if c.binding {
+                1
+            } else {
+                2
+            }
+        };
         rank(a).cmp(&rank(b)).then(a.margin.total_cmp(&b.margin))
     });
     v
@@ -79,30 +92,60 @@ fn verdict(r: &Report) -> (String, String) {
         let sub = tight
             .map(|c| {
                 let at = corner_name(c.corner);
-                format!(" — tightest: {}, {:.0} % margin{}{}", c.label, c.margin * 100.0, if at.is_empty() { "" } else { " " }, at)
+                format!(
+                    " — tightest: {}, {:.0} % margin{}{}",
+                    short_label(c),
+                    c.margin * 100.0,
+                    if at.is_empty() { "" } else { " " },
+                    at
+                )
             })
             .unwrap_or_default();
         ("Passes every check".into(), sub)
     } else {
-        let names: Vec<String> = failing.iter().map(|c| format!("{} ({:+.0} %)", c.label, c.margin * 100.0)).collect();
+        let names: Vec<String> = failing
+            .iter()
+            .map(|c| format!("{} ({:+.0} %)", short_label(c), c.margin * 100.0))
+            .collect();
         let n = failing.len();
-        (format!("Fails {n} check{}", if n == 1 { "" } else { "s" }), format!(" — {}", names.join(", ")))
+        (
+            format!("Fails {n} check{}", if n == 1 { "" } else { "s" }),
+            format!(" — {}", names.join(", ")),
+        )
+    }
+}
+
+/// A short name for a check, read at a glance (the engine's label is the tooltip).
+fn short_label(c: &Check) -> String {
+    match c.key.as_str() {
+        "saturation" => "Bpk vs Bsat (hot)".into(),
+        "temperature" => "Hot spot".into(),
+        "window" => "Window build".into(),
+        "duty" => "Duty".into(),
+        "switch_voltage" => "Switch voltage".into(),
+        "curie" => "Curie − 20 K".into(),
+        _ => c.label.clone(),
     }
 }
 
 fn check_row(c: &Check) -> impl IntoView {
     let (v, l) = check_texts(c);
     let at = corner_name(c.corner);
-    let note = c.note.clone();
-    let show_note = !c.pass && !note.is_empty();
+    let note = if c.note.is_empty() {
+        c.label.clone()
+    } else {
+        format!("{}: {}", c.label, c.note)
+    };
+    let inline = c.note.clone();
+    let show_note = !c.pass && !inline.is_empty();
     view! {
         <tr class:fail=!c.pass class:binding=c.binding data-testid=format!("check-{}", c.key)
             data-pass=c.pass.to_string() data-binding=c.binding.to_string() title=note.clone()>
             <th scope="row">
-                {c.label.clone()}
+                {short_label(c)}
                 {(!c.pass).then(|| view! { <span class="tag failing">"FAIL"</span> })}
                 {(c.pass && c.binding).then(|| view! { <span class="tag binding" title="This check limits the design">"binding"</span> })}
-                {show_note.then(|| view! { <span class="note">{note.clone()}</span> })}
+                {show_note.then(|| view! { <span class="note">{inline}</span> })}
             </th>
             <td data-si=format!("{:e}", c.value)>{v}</td>
             <td>{l}</td>
@@ -132,19 +175,63 @@ pub fn gap_text(r: &Report) -> String {
         Some(g) => match r.gap_placement {
             GapPlacement::CentreLeg => format!("{:.3} mm ground in the centre leg", g.gap * 1e3),
             GapPlacement::Spacer => {
-                format!("{:.3} mm spacer in every leg ({:.3} mm in the path)", g.gap * 1e3, g.path_gap * 1e3)
+                format!(
+                    "{:.3} mm spacer in every leg ({:.3} mm in the path)",
+                    g.gap * 1e3,
+                    g.path_gap * 1e3
+                )
             }
         },
         None => format!("none: mated halves ({:.0} µm residual assumed)", RESIDUAL_GAP * 1e6),
     }
 }
 
+/// One key figure: label, value (with its SI value), a line under it.
+fn tile(id: &'static str, label: &'static str, value: String, si: f64, sub: String) -> impl IntoView {
+    view! {
+        <div class="tile">
+            <span class="k">{label}</span>
+            <span class="v" data-testid=id data-si=format!("{si:e}")>{value}</span>
+            <span class="s">{sub}</span>
+        </div>
+    }
+}
+
+fn mm(x: f64) -> String {
+    format!("{:.2} mm", x * 1e3)
+}
+
+/// Where the gap is (the tile's second line).
+fn gap_place(r: &Report) -> String {
+    match (&r.gap, r.gap_placement) {
+        (None, _) => format!("mated halves, {:.0} µm residual", RESIDUAL_GAP * 1e6),
+        (Some(_), GapPlacement::CentreLeg) => "ground in the centre leg".into(),
+        (Some(g), GapPlacement::Spacer) => format!("spacer in every leg ({:.3} mm in the path)", g.path_gap * 1e3),
+    }
+}
+
 /// Every winding's turns: "Np 6 · Ns1 5 · Nr 6" (push-pull: per half).
 fn turns_line(r: &Report) -> Vec<(String, String, u32)> {
-    let half = matches!(r.topology, Topology::PushPull | Topology::HalfBridge | Topology::FullBridge);
-    let mut v = vec![("np".to_string(), if r.topology == Topology::PushPull { "Np (each half)" } else { "Np" }.to_string(), r.turns.primary)];
+    let half = matches!(
+        r.topology,
+        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge
+    );
+    let mut v = vec![(
+        "np".to_string(),
+        if r.topology == Topology::PushPull {
+            "Np (each half)"
+        } else {
+            "Np"
+        }
+        .to_string(),
+        r.turns.primary,
+    )];
     for (i, n) in r.turns.secondaries.iter().enumerate() {
-        let id = if i == 0 { "ns".to_string() } else { format!("ns-{}", i + 1) };
+        let id = if i == 0 {
+            "ns".to_string()
+        } else {
+            format!("ns-{}", i + 1)
+        };
         v.push((id, format!("Ns{}{}", i + 1, if half { " (each half)" } else { "" }), *n));
     }
     if let Some(nr) = r.turns.reset {
@@ -171,13 +258,19 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
             let worst = |q: &str| w.get(q).map(|x| (x.value, x.corner));
             let sw_v = worst("switch_voltage");
             let sw_i = worst("switch_peak_current");
-            let duty = worst("duty");
             let al = al_of(&r);
             let is_flyback = r.topology == Topology::Flyback;
-            let l_label = if is_flyback { "Primary inductance Lp" } else { "Magnetising inductance" };
+            let l_label = if is_flyback {
+                "Primary inductance Lp"
+            } else {
+                "Magnetising inductance"
+            };
             let t = &r.thermal;
             let thermal_note = if t.runaway {
-                format!("Thermal runaway: no equilibrium below the Curie limit after {} iterations.", t.iterations)
+                format!(
+                    "Thermal runaway: no equilibrium below the Curie limit after {} iterations.",
+                    t.iterations
+                )
             } else {
                 let first = t.history.first().copied().unwrap_or(t.temperature);
                 format!(
@@ -189,6 +282,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                 )
             };
             let fit = &r.fit;
+            let b_pk = worst("b_peak");
             view! {
                 <p class="verdict-line" class:fail=!r.pass data-testid="verdict" data-pass=r.pass.to_string()>
                     {head}<span class="sub">{sub}</span>
@@ -199,31 +293,21 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                     <tbody>{checks}</tbody>
                 </table>
                 <p class="turns-line" data-testid="turns">{turns}</p>
-                <table class="figures key">
-                    <tbody>
-                        {row("ratio", "Turns ratio Np/Ns1", r.turns_ratio, "", 4)}
-                        {row("inductance", l_label, r.inductance, "H", 3)}
-                        <tr><th scope="row">"Gap"</th><td data-testid="gap" data-si=format!("{:e}", r.gap.as_ref().map_or(0.0, |g| g.gap))>{gap_text(&r)}</td></tr>
-                        {al.map(|a| view! { <tr><th scope="row">"AL"</th><td data-testid="al" data-si=format!("{a:e}")>{format!("{} /turn²", notation::format(a, "H", 3))}</td></tr> })}
-                        {r.leakage.map(|l| row("leakage", "Leakage, referred to the primary", l, "H", 3))}
-                        <tr><th scope="row">"Peak flux density"</th><td data-testid="b-peak">{worst("b_peak").map(|(b, c)| format!("{:.0} mT {}", b * 1e3, corner_name(Some(c)))).unwrap_or_default()}</td></tr>
-                        {row("core-loss", "Core loss", r.losses.core, "W", 3)}
-                        <tr>
-                            <th scope="row">"Copper loss"</th>
-                            <td data-testid="cu-loss" data-si=format!("{:e}", r.losses.copper)>
-                                {notation::format(r.losses.copper, "W", 3)}
-                                <span class="extra">{format!(" (DC {}, AC extra {})", notation::format(r.losses.copper_dc, "W", 2), notation::format(r.losses.copper_ac_extra, "W", 2))}</span>
-                            </td>
-                        </tr>
-                        {row("total-loss", "Total loss", r.losses.total, "W", 3)}
-                        {row("efficiency", "Efficiency of the magnetic", r.power.magnetic_efficiency * 100.0, "%", 4)}
-                        <tr><th scope="row">"Hot spot / rise"</th><td data-testid="temperature" data-si=format!("{:e}", t.temperature)>{format!("{:.1} °C / {:.1} K", t.temperature, t.rise)}</td></tr>
-                        <tr><th scope="row">"Window: build / copper fill"</th><td data-testid="fill" data-si=format!("{:e}", fit.fill_factor)>{format!("{:.0} % / {:.0} %", fit.build_fraction * 100.0, fit.fill_factor * 100.0)}</td></tr>
-                        {sw_v.map(|(v, c)| view! { <tr><th scope="row">"Switch off-state voltage"</th><td data-testid="switch-voltage" data-si=format!("{v:e}")>{format!("{} {}", notation::format(v, "V", 3), corner_name(Some(c)))}</td></tr> })}
-                        {sw_i.map(|(i, c)| view! { <tr><th scope="row">"Switch peak current"</th><td data-testid="switch-peak" data-si=format!("{i:e}")>{format!("{} {}", notation::format(i, "A", 3), corner_name(Some(c)))}</td></tr> })}
-                        {duty.map(|(d, c)| view! { <tr><th scope="row">"Duty"</th><td data-testid="duty" data-si=format!("{d:e}")>{format!("{:.1} % {}", d * 100.0, corner_name(Some(c)))}</td></tr> })}
-                    </tbody>
-                </table>
+                <div class="tiles" data-testid="key-figures">
+                    {tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new())}
+                    {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, al.map(|a| format!("AL {} /turn²", notation::format(a, "H", 3))).unwrap_or_default())}
+                    {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
+                    {tile("gap", "Gap", r.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), r.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(&r))}
+                    {tile("b-peak", "Peak flux density", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, c)| corner_name(Some(c)).to_string()))}
+                    {tile("core-loss", "Core loss", notation::format(r.losses.core, "W", 3), r.losses.core, String::new())}
+                    {tile("cu-loss", "Copper loss", notation::format(r.losses.copper, "W", 3), r.losses.copper, format!("DC {} + AC {}", notation::format(r.losses.copper_dc, "W", 2), notation::format(r.losses.copper_ac_extra, "W", 2)))}
+                    {tile("total-loss", "Total loss", notation::format(r.losses.total, "W", 3), r.losses.total, corner_name(Some(r.loss_corner)).to_string())}
+                    {tile("efficiency", "Efficiency of the magnetic", format!("{:.2} %", r.power.magnetic_efficiency * 100.0), r.power.magnetic_efficiency * 100.0, String::new())}
+                    {tile("temperature", "Hot spot", format!("{:.1} °C", t.temperature), t.temperature, format!("rise {:.1} K", t.rise))}
+                    {tile("fill", "Window build / copper fill", format!("{:.0} % / {:.0} %", fit.build_fraction * 100.0, fit.fill_factor * 100.0), fit.fill_factor, format!("{} of {}", mm(fit.total_build), mm(fit.available_build)))}
+                    {sw_v.map(|(v, c)| tile("switch-voltage", "Switch off-state voltage", notation::format(v, "V", 3), v, format!("flat top, {}", corner_name(Some(c)))))}
+                    {sw_i.map(|(i, c)| tile("switch-peak", "Switch peak current", notation::format(i, "A", 3), i, corner_name(Some(c)).to_string()))}
+                </div>
                 <p class="core-note" data-testid="turns-reason">{format!("Turns: {}.", r.turns_reason)}</p>
                 <p class="thermal-note" data-testid="thermal-note">{thermal_note}</p>
                 <Warnings warnings=r.warnings.clone() />

@@ -20,8 +20,9 @@ use magwright_engine::winding::stackup::Item;
 /// overlays), so the sheet is all that prints.
 const CSS: &str = r#"
 @media print {
+  @page { margin:11mm 12mm; }
   body > *:not(.sheet) { display:none !important; }
-  .sheet { display:block !important; font-size:9.5pt; line-height:1.3; }
+  .sheet { display:block !important; font-size:9pt; line-height:1.25; }
   .sheet * { print-color-adjust:exact; -webkit-print-color-adjust:exact; }
   .sheet .sheet-head { display:flex; justify-content:space-between; align-items:baseline; border-bottom:2px solid #000; margin-bottom:.2rem; }
   .sheet .sheet-head h1 { margin:0; }
@@ -33,23 +34,28 @@ const CSS: &str = r#"
   .sheet table.stack { width:100%; border-collapse:collapse; font-size:8.8pt; }
   .sheet table.stack th, .sheet table.stack td { border-bottom:1px solid #bbb; padding:.08rem .3rem .08rem 0; text-align:left; vertical-align:top; font-weight:normal; }
   .sheet table.stack thead th { font-weight:600; border-bottom:1px solid #000; }
-  .sheet table.stack td.n { text-align:right; font-variant-numeric:tabular-nums; }
+  .sheet table.stack td.n { text-align:right; font-variant-numeric:tabular-nums; white-space:nowrap; }
   .sheet table.stack tr.tape td { color:#444; font-style:italic; }
   .sheet .swatch { display:inline-block; width:.7em; height:.7em; margin-right:.3em; border:1px solid #000; vertical-align:-1px; }
   .sheet .turns { margin:.25rem 0 0; font-weight:600; }
   .sheet .verdict { font-weight:600; margin:.1rem 0; }
   .sheet .verdict.fail { color:#a00; }
   .sheet ul { margin:.1rem 0; padding-left:1rem; }
-  .sheet .cautions li { margin:.05rem 0; }
-  .sheet .sign { display:grid; grid-template-columns:1fr 1fr; gap:.9rem 1.6rem; margin-top:.7rem; break-inside:avoid; }
-  .sheet .sign div { border-bottom:1px solid #000; padding-top:1.1rem; font-size:8.5pt; color:#333; }
+  .sheet .cautions { font-size:8.3pt; }
+  .sheet .cautions li { margin:.03rem 0; }
+  .sheet .cautions li.caution { font-weight:600; }
+  .sheet .sign { display:grid; grid-template-columns:1fr 1fr 1fr; gap:.2rem 1.2rem; margin-top:.4rem; break-inside:avoid; }
+  .sheet .sign div { border-top:1px solid #000; margin-top:1.3rem; padding-top:.05rem; font-size:8pt; color:#333; }
 }
 "#;
 
 fn spec_rows(r: &Report) -> impl IntoView {
     let op = &r.waveforms.at_vin_min;
     let outs: Vec<String> = op.output_voltages.iter().map(|v| format!("{v:.2} V")).collect();
-    let duty = r.waveforms.get("duty").map(|d| format!("{:.1} % {}", d.value * 100.0, corner_name(Some(d.corner))));
+    let duty = r
+        .waveforms
+        .get("duty")
+        .map(|d| format!("{:.1} % {}", d.value * 100.0, corner_name(Some(d.corner))));
     view! {
         <table class="sheet-table"><tbody>
             <tr><th scope="row">"Topology"</th><td data-testid="sheet-topology">{r.topology.name()}</td></tr>
@@ -64,7 +70,10 @@ fn spec_rows(r: &Report) -> impl IntoView {
 
 fn core_rows(r: &Report) -> impl IntoView {
     let flyback = r.topology == Topology::Flyback;
-    let al = r.gap.as_ref().map(|g| format!("{} /turn²", notation::format(g.al, "H", 3)));
+    let al = r
+        .gap
+        .as_ref()
+        .map(|g| format!("{} /turn²", notation::format(g.al, "H", 3)));
     view! {
         <table class="sheet-table"><tbody>
             <tr><th scope="row">"Core"</th><td data-testid="sheet-core">{r.core.designation.clone()}</td></tr>
@@ -133,21 +142,40 @@ fn stack_rows(r: &Report) -> impl IntoView {
 fn body(r: &Report) -> impl IntoView {
     let mut turns = vec![("sheet-np".to_string(), "Np", r.turns.primary)];
     for (i, n) in r.turns.secondaries.iter().enumerate() {
-        turns.push((if i == 0 { "sheet-ns".to_string() } else { format!("sheet-ns-{}", i + 1) }, "Ns", *n));
+        turns.push((
+            if i == 0 {
+                "sheet-ns".to_string()
+            } else {
+                format!("sheet-ns-{}", i + 1)
+            },
+            "Ns",
+            *n,
+        ));
     }
     if let Some(nr) = r.turns.reset {
         turns.push(("sheet-nreset".to_string(), "Nreset", nr));
     }
     let n_sec = r.turns.secondaries.len();
-    let failing: Vec<String> =
-        r.checks.iter().filter(|c| !c.pass).map(|c| format!("{} ({:+.0} %)", c.label, c.margin * 100.0)).collect();
+    let failing: Vec<String> = r
+        .checks
+        .iter()
+        .filter(|c| !c.pass)
+        .map(|c| format!("{} ({:+.0} %)", c.label, c.margin * 100.0))
+        .collect();
     let verdict = if failing.is_empty() {
         "Passes every check Magwright makes.".to_string()
     } else {
         format!("FAILS: {}.", failing.join(", "))
     };
-    let b_pk = r.waveforms.get("b_peak").map(|b| format!("{:.0} mT {}", b.value * 1e3, corner_name(Some(b.corner))));
-    let name = if r.name.trim().is_empty() { "unnamed design".to_string() } else { r.name.clone() };
+    let b_pk = r
+        .waveforms
+        .get("b_peak")
+        .map(|b| format!("{:.0} mT {}", b.value * 1e3, corner_name(Some(b.corner))));
+    let name = if r.name.trim().is_empty() {
+        "unnamed design".to_string()
+    } else {
+        r.name.clone()
+    };
     view! {
         <div class="sheet-head">
             <h1 data-testid="sheet-name">{format!("Build sheet: {name}")}</h1>
@@ -194,7 +222,7 @@ fn body(r: &Report) -> impl IntoView {
         </div>
         <h2>"Cautions"</h2>
         <ul class="cautions" data-testid="sheet-cautions">
-            {r.cautions.iter().map(|w| view! { <li><strong>{w.clone()}</strong></li> }).collect_view()}
+            {r.cautions.iter().map(|w| view! { <li class="caution">{w.clone()}</li> }).collect_view()}
             {r.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}
             <li>"Magwright computes; it does not certify. Core and material data are typical values: check them against your supplier's data, and measure the first part."</li>
         </ul>

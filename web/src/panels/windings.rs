@@ -37,6 +37,7 @@ const CSS: &str = r#"
 .windings .swatch { display:inline-block; width:.8em; height:.8em; border-radius:2px; margin-right:.35em; vertical-align:-1px; border:1px solid rgba(0,0,0,.35); }
 .windings table.windings-table td.cond { text-align:left; white-space:normal; font-size:.92em; }
 .windings table.windings-table tfoot th, .windings table.windings-table tfoot td { font-weight:600; color:var(--ink); border-top:1px solid var(--line); }
+.windings table.windings-table tbody th { white-space:nowrap; }
 .windings .auto { color:var(--muted); font-size:.85em; }
 .windings details { margin:.1rem 0 .5rem; font-size:.88em; }
 .windings details summary { cursor:pointer; color:var(--accent); }
@@ -81,7 +82,15 @@ pub fn css_colour(i: usize) -> String {
 
 /// A name as it goes into a test id or element id: "secondary 1" → "secondary-1".
 pub fn slug(name: &str) -> String {
-    name.chars().map(|c| if c.is_ascii_alphanumeric() { c.to_ascii_lowercase() } else { '-' }).collect()
+    name.chars()
+        .map(|c| {
+            if c.is_ascii_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
+            }
+        })
+        .collect()
 }
 
 /// Millimetres, two decimals.
@@ -110,7 +119,11 @@ pub fn margins_text(s: &Section) -> String {
     } else if (s.margin_left - s.margin_right).abs() < 1e-9 {
         format!("{:.1} mm each flange", s.margin_left * 1e3)
     } else {
-        format!("{:.1} mm left, {:.1} mm right", s.margin_left * 1e3, s.margin_right * 1e3)
+        format!(
+            "{:.1} mm left, {:.1} mm right",
+            s.margin_left * 1e3,
+            s.margin_right * 1e3
+        )
     }
 }
 
@@ -200,8 +213,8 @@ fn table(r: &Report) -> impl IntoView {
                 <tr data-testid=format!("winding-{s}")>
                     <th scope="row"><span class="swatch" style=css_colour(ci)></span>{w.winding.clone()}</th>
                     <td data-testid=format!("turns-{s}") data-si=w.turns.to_string()>{w.turns}</td>
-                    <td class="cond" data-testid=format!("wire-of-{s}")>
-                        {w.conductor.clone()}
+                    <td class="cond" data-testid=format!("wire-of-{s}") title=w.conductor.clone()>
+                        {w.conductor.split(" (").next().unwrap_or_default().to_string()}
                         {(!w.automatic).then(|| view! { <span class="auto">" (fixed)"</span> })}
                     </td>
                     <td data-testid=format!("parallel-{s}") data-si=w.parallel.to_string()>{w.parallel}</td>
@@ -216,7 +229,11 @@ fn table(r: &Report) -> impl IntoView {
     let mut layers: Vec<(f64, String, usize, u32, f64)> = copper
         .windings
         .iter()
-        .flat_map(|w| w.layers.iter().map(move |l| (l.h_bottom, w.name.clone(), l.item, l.layer, l.loss)))
+        .flat_map(|w| {
+            w.layers
+                .iter()
+                .map(move |l| (l.h_bottom, w.name.clone(), l.item, l.layer, l.loss))
+        })
         .collect();
     layers.sort_by(|a, b| a.0.total_cmp(&b.0));
     let layer_rows = layers
@@ -290,7 +307,10 @@ fn default_of(k: WireKind) -> Option<WireChoice> {
     match k {
         WireKind::Auto => None,
         WireKind::Round => Some(WireChoice::Round { awg: 24, parallel: 1 }),
-        WireKind::Litz => Some(WireChoice::Litz { strands: 60, strand_awg: 38 }),
+        WireKind::Litz => Some(WireChoice::Litz {
+            strands: 60,
+            strand_awg: 38,
+        }),
         WireKind::Foil => Some(WireChoice::Foil { thickness: 0.1e-3 }),
         WireKind::TripleInsulated => Some(WireChoice::TripleInsulated { awg: 24, parallel: 1 }),
     }
@@ -326,31 +346,43 @@ fn whole(t: &str, what: &str) -> Result<i64, String> {
 
 /// The conductor the two entries describe (ranges are the engine's to check).
 fn read(k: WireKind, a: &str, b: &str) -> Result<Option<WireChoice>, String> {
-    let count = |t: &str, what: &str| whole(t, what).and_then(|v| u32::try_from(v).map_err(|_| format!("{what}: not below 0")));
+    let count =
+        |t: &str, what: &str| whole(t, what).and_then(|v| u32::try_from(v).map_err(|_| format!("{what}: not below 0")));
     Ok(match k {
         WireKind::Auto => None,
-        WireKind::Round => Some(WireChoice::Round { awg: whole(a, "AWG")? as i32, parallel: count(b, "In hand")? }),
-        WireKind::TripleInsulated => {
-            Some(WireChoice::TripleInsulated { awg: whole(a, "AWG")? as i32, parallel: count(b, "In hand")? })
-        }
-        WireKind::Litz => Some(WireChoice::Litz { strands: count(a, "Strands")?, strand_awg: whole(b, "Strand AWG")? as i32 }),
-        WireKind::Foil => {
-            Some(WireChoice::Foil { thickness: notation::parse(a, "m").map_err(|e| format!("Thickness: {e}"))? })
-        }
+        WireKind::Round => Some(WireChoice::Round {
+            awg: whole(a, "AWG")? as i32,
+            parallel: count(b, "In hand")?,
+        }),
+        WireKind::TripleInsulated => Some(WireChoice::TripleInsulated {
+            awg: whole(a, "AWG")? as i32,
+            parallel: count(b, "In hand")?,
+        }),
+        WireKind::Litz => Some(WireChoice::Litz {
+            strands: count(a, "Strands")?,
+            strand_awg: whole(b, "Strand AWG")? as i32,
+        }),
+        WireKind::Foil => Some(WireChoice::Foil {
+            thickness: notation::parse(a, "m").map_err(|e| format!("Thickness: {e}"))?,
+        }),
     })
 }
 
 /// Sets (or with `None` removes) the fixed conductor of `name`, keeping
 /// the other overrides in their order.
 fn set_override(form: Form, name: &str, wire: Option<WireChoice>) {
-    form.wires.update(|ws| match (ws.iter().position(|o| o.winding == name), wire) {
-        (Some(i), Some(w)) => ws[i].wire = w,
-        (Some(i), None) => {
-            ws.remove(i);
-        }
-        (None, Some(w)) => ws.push(WireOverride { winding: name.to_string(), wire: w }),
-        (None, None) => {}
-    });
+    form.wires
+        .update(|ws| match (ws.iter().position(|o| o.winding == name), wire) {
+            (Some(i), Some(w)) => ws[i].wire = w,
+            (Some(i), None) => {
+                ws.remove(i);
+            }
+            (None, Some(w)) => ws.push(WireOverride {
+                winding: name.to_string(),
+                wire: w,
+            }),
+            (None, None) => {}
+        });
 }
 
 /// One winding's conductor: automatic or fixed, with its entries.
@@ -359,8 +391,13 @@ fn WireRow(form: Form, name: String, index: usize) -> impl IntoView {
     let s = slug(&name);
     let (id_k, id_a, id_b) = (format!("f-wire-{s}"), format!("f-wire-{s}-a"), format!("f-wire-{s}-b"));
     let name = StoredValue::new(name);
-    let current =
-        Memo::new(move |_| form.wires.with(|ws| ws.iter().find(|o| name.with_value(|n| &o.winding == n)).map(|o| o.wire.clone())));
+    let current = Memo::new(move |_| {
+        form.wires.with(|ws| {
+            ws.iter()
+                .find(|o| name.with_value(|n| &o.winding == n))
+                .map(|o| o.wire.clone())
+        })
+    });
     let kind = Memo::new(move |_| current.with(|w| kind_of(w.as_ref())));
     let (a, b) = (RwSignal::new(String::new()), RwSignal::new(String::new()));
     let msg = RwSignal::new(None::<String>);
@@ -479,17 +516,17 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         }
     };
     let interleave = vec![
-        (Interleave::Auto, "Automatic: P-S-P where it helps"),
-        (Interleave::Sequential, "Sequential: primary, then the others"),
-        (Interleave::SplitPrimary, "Split primary: P-S-P"),
-        (Interleave::SplitSecondaries, "Split secondaries: S-P-S"),
+        (Interleave::Auto, "Automatic"),
+        (Interleave::Sequential, "Sequential (P-S)"),
+        (Interleave::SplitPrimary, "Split primary (P-S-P)"),
+        (Interleave::SplitSecondaries, "Split others (S-P-S)"),
     ];
     let caption = move || {
         outcome.with(|o| {
             o.as_ref()
                 .map(|r| {
                     format!(
-                        "One side of the winding window to scale, bobbin at the left. Build {} of {} ({:.0} %), copper fill {:.0} % of the window.",
+                        "One side of the winding window to scale, bobbin at the bottom, flanges at the sides. Build {} of {} ({:.0} %); copper fills {:.0} % of the window.",
                         mm(r.fit.total_build),
                         mm(r.fit.available_build),
                         r.fit.build_fraction * 100.0,
@@ -510,7 +547,7 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
             </button>
         </div>
         <figure class="plot" class:hidden=move || outcome.with(|o| o.is_err())>
-            <PlotCanvas testid="window-plot" label="Winding window cross-section, to scale" width=560 height=270 draw=draw />
+            <PlotCanvas testid="window-plot" label="Winding window cross-section, to scale" width=560 height=250 draw=draw />
             <figcaption>{caption}</figcaption>
         </figure>
         <h3>"Edit the stack-up"</h3>
@@ -533,39 +570,40 @@ fn err<E: std::fmt::Display>(e: E) -> String {
     e.to_string()
 }
 
-/// The winding window to scale: x the build from the bobbin, y along the
-/// leg, both in mm at the same scale; tapes, margins and every turn.
+/// The winding window to scale: x along the bobbin from flange to flange,
+/// y the build from the bobbin outward, both in mm at the same scale;
+/// tapes, flange margins and every turn.
 fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), String> {
     let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
     let root = backend.into_drawing_area();
     root.fill(&WHITE).map_err(err)?;
     let (w, h) = root.dim_in_pixel();
-    let legend_w = 150u32;
-    let (left, bottom, margin) = (44u32, 34u32, 8u32);
+    let legend_w = 130u32;
+    let (left, bottom, margin) = (40u32, 36u32, 8u32);
     let c = &r.core;
-    let (bx, by) = (c.winding_height * 1e3, c.winding_breadth * 1e3);
-    if !(bx > 0.0 && by > 0.0 && bx.is_finite() && by.is_finite()) {
+    let (ax, bx) = (c.winding_breadth * 1e3, c.winding_height * 1e3);
+    if !(ax > 0.0 && bx > 0.0 && ax.is_finite() && bx.is_finite()) {
         return Ok(());
     }
     let pw = w.saturating_sub(legend_w + left + 2 * margin).max(20) as f64;
     let ph = h.saturating_sub(bottom + 2 * margin).max(20) as f64;
-    let pad = 0.04 * bx.max(by);
-    let mm_per_px = ((bx + 2.0 * pad) / pw).max((by + 2.0 * pad) / ph);
-    let (cx, cy) = (bx / 2.0, by / 2.0);
-    let (hx, hy) = (0.5 * pw * mm_per_px, 0.5 * ph * mm_per_px);
+    let pad = 0.03 * ax.max(bx);
+    let mm_per_px = ((ax + 2.0 * pad) / pw).max((bx + 2.0 * pad) / ph);
+    let (x_lo, y_lo) = (-pad, -pad);
+    let (x_hi, y_hi) = (x_lo + pw * mm_per_px, y_lo + ph * mm_per_px);
     let (plot_area, legend_area) = root.split_horizontally(w.saturating_sub(legend_w));
     let ink = RGBColor(29, 37, 48);
     let mut chart = ChartBuilder::on(&plot_area)
         .margin(margin)
-        .margin_right(0)
+        .margin_right(4)
         .x_label_area_size(bottom)
         .y_label_area_size(left)
-        .build_cartesian_2d(cx - hx..cx + hx, cy - hy..cy + hy)
+        .build_cartesian_2d(x_lo..x_hi, y_lo..y_hi)
         .map_err(err)?;
     chart
         .configure_mesh()
-        .x_desc("build from the bobbin (mm)")
-        .y_desc("along the leg (mm)")
+        .x_desc("along the bobbin, flange to flange (mm)")
+        .y_desc("build (mm)")
         .bold_line_style(RGBColor(236, 238, 242))
         .light_line_style(RGBColor(248, 249, 250))
         .axis_style(RGBColor(150, 158, 170))
@@ -573,7 +611,8 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
         .axis_desc_style(("sans-serif", 12).into_font().color(&ink))
         .draw()
         .map_err(err)?;
-    let rect = |x0: f64, y0: f64, x1: f64, y1: f64| [(x0 * 1e3, y0 * 1e3), (x1 * 1e3, y1 * 1e3)];
+    // (build from, along from, build to, along to), metres → chart mm.
+    let rect = |b0: f64, a0: f64, b1: f64, a1: f64| [(a0 * 1e3, b0 * 1e3), (a1 * 1e3, b1 * 1e3)];
     let bobbin = RGBColor(232, 236, 242);
     let tape_fill = RGBColor(244, 214, 96);
     let tape_edge = RGBColor(160, 130, 20);
@@ -581,8 +620,22 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
     chart
         .draw_series([
             Rectangle::new(rect(0.0, 0.0, c.winding_height, c.winding_breadth), bobbin.filled()),
-            Rectangle::new(rect(0.0, 0.0, c.winding_height, c.winding_breadth), RGBColor(120, 130, 145).stroke_width(1)),
+            Rectangle::new(
+                rect(0.0, 0.0, c.winding_height, c.winding_breadth),
+                RGBColor(120, 130, 145).stroke_width(1),
+            ),
         ])
+        .map_err(err)?;
+    // The bobbin's core and flanges, drawn as heavier lines.
+    let wall = RGBColor(70, 78, 90).stroke_width(3);
+    chart
+        .draw_series([PathElement::new(vec![(0.0, 0.0), (ax, 0.0)], wall)])
+        .map_err(err)?;
+    chart
+        .draw_series([PathElement::new(vec![(0.0, 0.0), (0.0, bx)], wall)])
+        .map_err(err)?;
+    chart
+        .draw_series([PathElement::new(vec![(ax, 0.0), (ax, bx)], wall)])
         .map_err(err)?;
     let fit = &r.fit;
     let items = &r.stackup.items;
@@ -626,18 +679,26 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
     let px_per_mm = 1.0 / mm_per_px;
     let mut drawn = 0usize;
     for (k, l) in fit.layers.iter().enumerate() {
-        let Some(Item::Section(s)) = items.get(l.item) else { continue };
+        let Some(Item::Section(s)) = items.get(l.item) else {
+            continue;
+        };
         let (cr, cg, cb) = colour(l.winding);
         let fill = RGBColor(cr, cg, cb);
-        let edge = RGBColor((cr as u16 * 3 / 5) as u8, (cg as u16 * 3 / 5) as u8, (cb as u16 * 3 / 5) as u8);
-        let y_start = s.margin_left;
+        let edge = RGBColor(
+            (cr as u16 * 3 / 5) as u8,
+            (cg as u16 * 3 / 5) as u8,
+            (cb as u16 * 3 / 5) as u8,
+        );
+        let a0 = s.margin_left;
         let x0 = l.h_bottom;
         if let Some(next) = fit.layers.get(k + 1).filter(|n| n.item == l.item) {
-            let gap = next.h_bottom - (x0 + l.height);
-            if s.interlayer.is_some() && gap > 0.0 {
+            if s.interlayer.is_some() && next.h_bottom > x0 + l.height {
                 has_tape = true;
                 chart
-                    .draw_series([Rectangle::new(rect(x0 + l.height, y_start, next.h_bottom, y_start + l.breadth), tape_fill.filled())])
+                    .draw_series([Rectangle::new(
+                        rect(x0 + l.height, a0, next.h_bottom, a0 + l.breadth),
+                        tape_fill.filled(),
+                    )])
                     .map_err(err)?;
             }
         }
@@ -645,8 +706,8 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
             let wid = s.conductor.outer_width().min(l.breadth);
             chart
                 .draw_series([
-                    Rectangle::new(rect(x0, y_start, x0 + l.height, y_start + wid), fill.filled()),
-                    Rectangle::new(rect(x0, y_start, x0 + l.height, y_start + wid), edge.stroke_width(1)),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + wid), fill.filled()),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + wid), edge.stroke_width(1)),
                 ])
                 .map_err(err)?;
             continue;
@@ -656,26 +717,30 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
         let radius = 0.5 * d * 1e3 * px_per_mm;
         if radius >= 2.0 && drawn + n <= 6000 {
             drawn += n;
-            let xc = (x0 + 0.5 * l.height) * 1e3;
+            let yc = (x0 + 0.5 * l.height) * 1e3;
             let r_px = radius.floor().max(1.0) as u32;
+            let at = |j: usize| ((a0 + d * (j as f64 + 0.5)) * 1e3, yc);
             chart
-                .draw_series((0..n).map(|j| Circle::new((xc, (y_start + d * (j as f64 + 0.5)) * 1e3), r_px, fill.filled())))
+                .draw_series((0..n).map(|j| Circle::new(at(j), r_px, fill.filled())))
                 .map_err(err)?;
             chart
-                .draw_series((0..n).map(|j| Circle::new((xc, (y_start + d * (j as f64 + 0.5)) * 1e3), r_px, edge.stroke_width(1))))
+                .draw_series((0..n).map(|j| Circle::new(at(j), r_px, edge.stroke_width(1))))
                 .map_err(err)?;
         } else {
             let len = (d * n as f64).min(l.breadth);
             chart
                 .draw_series([
-                    Rectangle::new(rect(x0, y_start, x0 + l.height, y_start + len), fill.filled()),
-                    Rectangle::new(rect(x0, y_start, x0 + l.height, y_start + len), edge.stroke_width(1)),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + len), fill.filled()),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + len), edge.stroke_width(1)),
                 ])
                 .map_err(err)?;
         }
     }
     // Legend: every winding by name in its colour, then tape and margins.
-    let lf = ("sans-serif", 12).into_font().color(&ink).pos(Pos::new(HPos::Left, VPos::Center));
+    let lf = ("sans-serif", 12)
+        .into_font()
+        .color(&ink)
+        .pos(Pos::new(HPos::Left, VPos::Center));
     let mut entries: Vec<(String, RGBColor)> = r
         .stackup
         .windings
@@ -695,13 +760,27 @@ fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), St
     entries.push(("bobbin space".into(), bobbin));
     for (i, (label, col)) in entries.iter().enumerate() {
         let y = margin as i32 + 12 + 21 * i as i32;
-        legend_area.draw(&Rectangle::new([(8, y - 7), (26, y + 7)], col.filled())).map_err(err)?;
-        legend_area.draw(&Rectangle::new([(8, y - 7), (26, y + 7)], RGBColor(90, 98, 110).stroke_width(1))).map_err(err)?;
-        legend_area.draw(&Text::new(label.clone(), (32, y), lf.clone())).map_err(err)?;
+        legend_area
+            .draw(&Rectangle::new([(8, y - 7), (26, y + 7)], col.filled()))
+            .map_err(err)?;
+        legend_area
+            .draw(&Rectangle::new(
+                [(8, y - 7), (26, y + 7)],
+                RGBColor(90, 98, 110).stroke_width(1),
+            ))
+            .map_err(err)?;
+        legend_area
+            .draw(&Text::new(label.clone(), (32, y), lf.clone()))
+            .map_err(err)?;
     }
-    let sf = ("sans-serif", 11).into_font().color(&RGBColor(91, 102, 117)).pos(Pos::new(HPos::Left, VPos::Center));
+    let sf = ("sans-serif", 11)
+        .into_font()
+        .color(&RGBColor(91, 102, 117))
+        .pos(Pos::new(HPos::Left, VPos::Center));
     let y = margin as i32 + 12 + 21 * entries.len() as i32 + 4;
-    legend_area.draw(&Text::new("drawn to scale", (8, y), sf)).map_err(err)?;
+    legend_area
+        .draw(&Text::new("drawn to scale", (8, y), sf))
+        .map_err(err)?;
     root.present().map_err(err)
 }
 
@@ -713,7 +792,10 @@ mod tests {
     fn entries_read_back_as_the_override() {
         for w in [
             WireChoice::Round { awg: 22, parallel: 3 },
-            WireChoice::Litz { strands: 120, strand_awg: 40 },
+            WireChoice::Litz {
+                strands: 120,
+                strand_awg: 40,
+            },
             WireChoice::Foil { thickness: 0.15e-3 },
             WireChoice::TripleInsulated { awg: 26, parallel: 2 },
         ] {
