@@ -1,13 +1,53 @@
-//! Results at a glance: the checks that decide the design (pass/fail with
-//! margin and worst line corner), the key figures, and the cautions.
+//! Results at a glance: a verdict line, the safety cautions, the checks
+//! that decide the design (failing first, binding ones marked, each with
+//! its margin and worst line corner), then the key figures, why the turns
+//! are what they are, the thermal iteration, and the engine's warnings.
+//!
+//! Every number is a report field or an engine call (the ungapped AL);
+//! nothing is computed here beyond unit changes for display.
 
-use super::{count, row, Missing};
-use crate::form::Outcome;
+use super::Missing;
+use crate::form::{Outcome, Report};
 use leptos::prelude::*;
+use magwright_engine::design::solve::{Check, RESIDUAL_GAP};
+use magwright_engine::gap::{self, GapCore, GapPlacement};
 use magwright_engine::notation;
-use magwright_engine::topology::Corner;
+use magwright_engine::topology::{Corner, Topology};
 
-fn corner_name(c: Option<Corner>) -> &'static str {
+const CSS: &str = r#"
+.results .verdict-line { margin:0 0 .45rem; padding:.35rem .6rem; border-radius:4px; font-weight:600; background:#eaf5ee; color:#14532d; border-left:4px solid #1e6b34; }
+.results .verdict-line.fail { background:#fdecea; color:#8a1c14; border-left-color:#b3261e; }
+.results .verdict-line .sub { font-weight:normal; color:inherit; opacity:.9; }
+.results .cautions { border:1px solid #e0b252; border-left:5px solid #b36b00; background:#fff8e8; border-radius:4px; padding:.35rem .6rem .4rem; margin:0 0 .55rem; font-size:.88em; }
+.results .cautions strong { color:#6b3d00; }
+.results .cautions ul { margin:.15rem 0 0; padding-left:1.1rem; }
+.results table.checks { font-size:.9em; margin-bottom:.5rem; }
+.results table.checks thead th { color:var(--ink); font-weight:600; border-bottom:1px solid var(--line); font-size:.9em; }
+.results table.checks thead th + th { text-align:right; }
+.results table.checks td { padding-left:.45rem; }
+.results table.checks tr.fail th, .results table.checks tr.fail td { color:#a3211a; font-weight:600; }
+.results table.checks tr.fail { background:#fff1f0; }
+.results table.checks .tag { display:inline-block; font-size:.75em; padding:0 .3rem; border-radius:3px; margin-left:.3rem; vertical-align:1px; }
+.results table.checks .tag.binding { background:#e8eefc; color:#1f4a8a; border:1px solid #b8c8ea; }
+.results table.checks .tag.failing { background:#b3261e; color:#fff; }
+.results table.checks .note { display:block; color:var(--muted); font-size:.82em; font-weight:normal; }
+.results table.checks td.ok { color:#1e6b34; }
+.results table.checks td.corner { color:var(--muted); font-size:.88em; }
+.results h3 { font-size:.9rem; margin:.55rem 0 .15rem; }
+.results table.key { font-size:.92em; }
+.results table.key td.extra { color:var(--muted); font-size:.88em; text-align:right; padding-left:.5rem; }
+.results .turns-line { margin:.1rem 0 .3rem; display:flex; flex-wrap:wrap; gap:.2rem .9rem; font-variant-numeric:tabular-nums; }
+.results .turns-line .lbl { color:var(--muted); }
+.results .tiles { display:grid; grid-template-columns:repeat(auto-fill, minmax(7.6rem, 1fr)); gap:.3rem; margin:.2rem 0 .3rem; }
+.results .tile { border:1px solid #e3e7ec; border-radius:4px; padding:.2rem .4rem; display:flex; flex-direction:column; min-width:0; }
+.results .tile .k { color:var(--muted); font-size:.78em; line-height:1.2; }
+.results .tile .v { font-weight:600; font-variant-numeric:tabular-nums; font-size:1.02em; }
+.results .tile .s { color:var(--muted); font-size:.74em; line-height:1.2; min-height:1.2em; }
+.results .thermal-note { color:var(--muted); margin:.3rem 0 0; font-size:.86em; }
+"#;
+
+/// "at Vin min" / "at Vin max" / "".
+pub fn corner_name(c: Option<Corner>) -> &'static str {
     match c {
         Some(Corner::VinMin) => "at Vin min",
         Some(Corner::VinMax) => "at Vin max",
@@ -15,75 +55,311 @@ fn corner_name(c: Option<Corner>) -> &'static str {
     }
 }
 
-/// The deciding figures, or why there are none.
-#[component]
-pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
-    move || match outcome.get() {
-        Err(p) => view! { <Missing lines=p.lines() /> }.into_any(),
-        Ok(r) => {
-            let verdict = if r.pass { "Passes every check" } else { "Fails a check" };
-            let checks = r
-                .checks
-                .iter()
-                .map(|c| {
-                    let (v, l) = match c.unit.as_str() {
-                        "m" => (notation::format(c.value, "m", 3), notation::format(c.limit, "m", 3)),
-                        "" => (format!("{:.1} %", c.value * 100.0), format!("{:.1} %", c.limit * 100.0)),
-                        "°C" => (format!("{:.1} °C", c.value), format!("{:.0} °C", c.limit)),
-                        u => (notation::format(c.value, u, 3), notation::format(c.limit, u, 3)),
-                    };
-                    view! {
-                        <tr class:fail=!c.pass class:binding=c.binding data-testid=format!("check-{}", c.key)>
-                            <th scope="row">{c.label.clone()}</th>
-                            <td data-si=format!("{:e}", c.value)>{v}</td>
-                            <td>{l}</td>
-                            <td>{format!("{:+.0} %", c.margin * 100.0)}</td>
-                            <td class="verdict">{if c.pass { "pass" } else { "FAIL" }}</td>
-                            <td class="corner">{corner_name(c.corner)}</td>
-                        </tr>
-                    }
-                })
-                .collect_view();
-            let primary = r.turns.primary;
-            let sec = r.turns.secondaries.first().copied().unwrap_or(0);
-            view! {
-                <p class="verdict-line" class:fail=!r.pass data-testid="verdict">{verdict}</p>
-                <table class="figures checks">
-                    <thead><tr><th scope="col">"Check"</th><th scope="col">"Value"</th><th scope="col">"Limit"</th><th scope="col">"Margin"</th><th scope="col"></th><th scope="col">"Worst"</th></tr></thead>
-                    <tbody>{checks}</tbody>
-                </table>
-                <table class="figures">
-                    <tbody>
-                        {count("np", "Np (primary turns)", primary)}
-                        {count("ns", "Ns (first secondary)", sec)}
-                        {row("ratio", "Turns ratio Np/Ns1", r.turns_ratio, "", 4)}
-                        {row("inductance", "Primary / magnetising inductance", r.inductance, "H", 3)}
-                        {row("core-loss", "Core loss", r.losses.core, "W", 3)}
-                        {row("cu-loss", "Copper loss", r.losses.copper, "W", 3)}
-                        {row("total-loss", "Total loss", r.losses.total, "W", 3)}
-                        {row("temperature", "Hot spot", r.thermal.temperature, "°C", 3)}
-                        {row("efficiency", "Efficiency of the magnetic", r.power.magnetic_efficiency * 100.0, "%", 4)}
-                    </tbody>
-                </table>
-                <p class="core-note" data-testid="turns-reason">{r.turns_reason.clone()}</p>
-                <Notes cautions=r.cautions.clone() warnings=r.warnings.clone() />
-            }
-            .into_any()
-        }
+/// Value and limit of a check, in the units an engineer reads them in.
+fn check_texts(c: &Check) -> (String, String) {
+    match c.unit.as_str() {
+        "m" => (format!("{:.2} mm", c.value * 1e3), format!("{:.2} mm", c.limit * 1e3)),
+        "T" => (format!("{:.0} mT", c.value * 1e3), format!("{:.0} mT", c.limit * 1e3)),
+        "" => (format!("{:.1} %", c.value * 100.0), format!("{:.1} %", c.limit * 100.0)),
+        "°C" => (format!("{:.1} °C", c.value), format!("{:.0} °C", c.limit)),
+        u => (notation::format(c.value, u, 3), notation::format(c.limit, u, 3)),
     }
 }
 
-/// Safety cautions first, then the engine's warnings.
+/// Failing checks first (worst margin first), then binding, then the rest.
+fn ordered(checks: &[Check]) -> Vec<&Check> {
+    let mut v: Vec<&Check> = checks.iter().collect();
+    v.sort_by(|a, b| {
+        let rank = |c: &Check| {
+            if !c.pass {
+                0
+            } else if c.binding {
+                1
+            } else {
+                2
+            }
+        };
+        rank(a).cmp(&rank(b)).then(a.margin.total_cmp(&b.margin))
+    });
+    v
+}
+
+/// The one line a reader takes in first.
+fn verdict(r: &Report) -> (String, String) {
+    let failing: Vec<&Check> = r.checks.iter().filter(|c| !c.pass).collect();
+    if failing.is_empty() {
+        let tight = r.checks.iter().min_by(|a, b| a.margin.total_cmp(&b.margin));
+        let sub = tight
+            .map(|c| {
+                let at = corner_name(c.corner);
+                format!(
+                    " — tightest: {}, {:.0} % margin{}{}",
+                    short_label(c),
+                    c.margin * 100.0,
+                    if at.is_empty() { "" } else { " " },
+                    at
+                )
+            })
+            .unwrap_or_default();
+        ("Passes every check".into(), sub)
+    } else {
+        let names: Vec<String> = failing
+            .iter()
+            .map(|c| format!("{} ({:+.0} %)", short_label(c), c.margin * 100.0))
+            .collect();
+        let n = failing.len();
+        (
+            format!("Fails {n} check{}", if n == 1 { "" } else { "s" }),
+            format!(" — {}", names.join(", ")),
+        )
+    }
+}
+
+/// A short name for a check, read at a glance (the engine's label is the tooltip).
+fn short_label(c: &Check) -> String {
+    match c.key.as_str() {
+        "saturation" => "Bpk vs Bsat (hot)".into(),
+        "temperature" => "Hot spot".into(),
+        "window" => "Window build".into(),
+        "duty" => "Duty".into(),
+        "switch_voltage" => "Switch voltage".into(),
+        "curie" => "Curie − 20 K".into(),
+        _ => c.label.clone(),
+    }
+}
+
+fn check_row(c: &Check) -> impl IntoView {
+    let (v, l) = check_texts(c);
+    let at = corner_name(c.corner);
+    let note = if c.note.is_empty() {
+        c.label.clone()
+    } else {
+        format!("{}: {}", c.label, c.note)
+    };
+    let inline = c.note.clone();
+    let show_note = !c.pass && !inline.is_empty();
+    view! {
+        <tr class:fail=!c.pass class:binding=c.binding data-testid=format!("check-{}", c.key)
+            data-pass=c.pass.to_string() data-binding=c.binding.to_string() title=note.clone()>
+            <th scope="row">
+                {short_label(c)}
+                {(!c.pass).then(|| view! { <span class="tag failing">"FAIL"</span> })}
+                {(c.pass && c.binding).then(|| view! { <span class="tag binding" title="This check limits the design">"binding"</span> })}
+                {show_note.then(|| view! { <span class="note">{inline}</span> })}
+            </th>
+            <td data-si=format!("{:e}", c.value)>{v}</td>
+            <td>{l}</td>
+            <td class:ok=c.pass data-testid=format!("margin-{}", c.key) data-si=format!("{:e}", c.margin)>
+                {format!("{:+.0} %", c.margin * 100.0)}
+            </td>
+            <td class="corner">{at}</td>
+        </tr>
+    }
+}
+
+/// AL of the core as wound: the gap's for a gapped core, else the engine's
+/// AL at the residual gap the solver assumes.
+fn al_of(r: &Report) -> Option<f64> {
+    match &r.gap {
+        Some(g) => Some(g.al),
+        None => GapCore::from_core(&r.core)
+            .and_then(|gc| gap::al_value(&gc, r.material.mu_i, RESIDUAL_GAP, GapPlacement::CentreLeg, false))
+            .ok()
+            .map(|a| a.al),
+    }
+}
+
+/// The gap as a builder reads it.
+pub fn gap_text(r: &Report) -> String {
+    match &r.gap {
+        Some(g) => match r.gap_placement {
+            GapPlacement::CentreLeg => format!("{:.3} mm ground in the centre leg", g.gap * 1e3),
+            GapPlacement::Spacer => {
+                format!(
+                    "{:.3} mm spacer in every leg ({:.3} mm in the path)",
+                    g.gap * 1e3,
+                    g.path_gap * 1e3
+                )
+            }
+        },
+        None => format!("none: mated halves ({:.0} µm residual assumed)", RESIDUAL_GAP * 1e6),
+    }
+}
+
+/// One key figure: label, value (with its SI value), a line under it.
+fn tile(id: &'static str, label: &'static str, value: String, si: f64, sub: String) -> impl IntoView {
+    view! {
+        <div class="tile">
+            <span class="k">{label}</span>
+            <span class="v" data-testid=id data-si=format!("{si:e}")>{value}</span>
+            <span class="s">{sub}</span>
+        </div>
+    }
+}
+
+fn mm(x: f64) -> String {
+    format!("{:.2} mm", x * 1e3)
+}
+
+/// Where the gap is (the tile's second line).
+fn gap_place(r: &Report) -> String {
+    match (&r.gap, r.gap_placement) {
+        (None, _) => format!("mated halves, {:.0} µm residual", RESIDUAL_GAP * 1e6),
+        (Some(_), GapPlacement::CentreLeg) => "ground in the centre leg".into(),
+        (Some(g), GapPlacement::Spacer) => format!("spacer in every leg ({:.3} mm in the path)", g.path_gap * 1e3),
+    }
+}
+
+/// Every winding's turns: "Np 6 · Ns1 5 · Nr 6" (push-pull: per half).
+fn turns_line(r: &Report) -> Vec<(String, String, u32)> {
+    let half = matches!(
+        r.topology,
+        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge
+    );
+    let mut v = vec![(
+        "np".to_string(),
+        if r.topology == Topology::PushPull {
+            "Np (each half)"
+        } else {
+            "Np"
+        }
+        .to_string(),
+        r.turns.primary,
+    )];
+    for (i, n) in r.turns.secondaries.iter().enumerate() {
+        let id = if i == 0 {
+            "ns".to_string()
+        } else {
+            format!("ns-{}", i + 1)
+        };
+        v.push((id, format!("Ns{}{}", i + 1, if half { " (each half)" } else { "" }), *n));
+    }
+    if let Some(nr) = r.turns.reset {
+        v.push(("nreset".into(), "Nreset".into(), nr));
+    }
+    v
+}
+
+/// The deciding figures, or why there are none.
 #[component]
-fn Notes(cautions: Vec<String>, warnings: Vec<String>) -> impl IntoView {
+pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
+    let body = move || match outcome.get() {
+        Err(p) => view! { <Missing lines=p.lines() /> }.into_any(),
+        Ok(r) => {
+            let (head, sub) = verdict(&r);
+            let checks = ordered(&r.checks).into_iter().map(check_row).collect_view();
+            let turns = turns_line(&r)
+                .into_iter()
+                .map(|(id, label, n)| {
+                    view! { <span class="turn"><span class="lbl">{label}" "</span><strong data-testid=id data-si=n.to_string()>{n}</strong></span> }
+                })
+                .collect_view();
+            let w = &r.waveforms;
+            let worst = |q: &str| w.get(q).map(|x| (x.value, x.corner));
+            let sw_v = worst("switch_voltage");
+            let sw_i = worst("switch_peak_current");
+            let al = al_of(&r);
+            let is_flyback = r.topology == Topology::Flyback;
+            let l_label = if is_flyback {
+                "Primary inductance Lp"
+            } else {
+                "Magnetising inductance"
+            };
+            let t = &r.thermal;
+            let thermal_note = if t.runaway {
+                format!(
+                    "Thermal runaway: no equilibrium below the Curie limit after {} iterations.",
+                    t.iterations
+                )
+            } else {
+                let first = t.history.first().copied().unwrap_or(t.temperature);
+                format!(
+                    "Thermal equilibrium after {} iterations ({:.1} → {:.1} °C), losses taken at {}.",
+                    t.iterations,
+                    first,
+                    t.temperature,
+                    corner_name(Some(r.loss_corner)).trim_start_matches("at ")
+                )
+            };
+            let fit = &r.fit;
+            let b_pk = worst("b_peak");
+            view! {
+                <p class="verdict-line" class:fail=!r.pass data-testid="verdict" data-pass=r.pass.to_string()>
+                    {head}<span class="sub">{sub}</span>
+                </p>
+                <Cautions cautions=r.cautions.clone() />
+                <table class="figures checks" data-testid="checks">
+                    <thead><tr><th scope="col">"Check"</th><th scope="col">"Value"</th><th scope="col">"Limit"</th><th scope="col">"Margin"</th><th scope="col">"Worst"</th></tr></thead>
+                    <tbody>{checks}</tbody>
+                </table>
+                <p class="turns-line" data-testid="turns">{turns}</p>
+                <div class="tiles" data-testid="key-figures">
+                    {tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new())}
+                    {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, al.map(|a| format!("AL {} /turn²", notation::format(a, "H", 3))).unwrap_or_default())}
+                    {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
+                    {tile("gap", "Gap", r.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), r.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(&r))}
+                    {tile("b-peak", "Peak flux density", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, c)| corner_name(Some(c)).to_string()))}
+                    {tile("core-loss", "Core loss", notation::format(r.losses.core, "W", 3), r.losses.core, String::new())}
+                    {tile("cu-loss", "Copper loss", notation::format(r.losses.copper, "W", 3), r.losses.copper, format!("DC {} + AC {}", notation::format(r.losses.copper_dc, "W", 2), notation::format(r.losses.copper_ac_extra, "W", 2)))}
+                    {tile("total-loss", "Total loss", notation::format(r.losses.total, "W", 3), r.losses.total, corner_name(Some(r.loss_corner)).to_string())}
+                    {tile("efficiency", "Efficiency of the magnetic", format!("{:.2} %", r.power.magnetic_efficiency * 100.0), r.power.magnetic_efficiency * 100.0, String::new())}
+                    {tile("temperature", "Hot spot", format!("{:.1} °C", t.temperature), t.temperature, format!("rise {:.1} K", t.rise))}
+                    {tile("fill", "Window build / copper fill", format!("{:.0} % / {:.0} %", fit.build_fraction * 100.0, fit.fill_factor * 100.0), fit.fill_factor, format!("{} of {}", mm(fit.total_build), mm(fit.available_build)))}
+                    {sw_v.map(|(v, c)| tile("switch-voltage", "Switch off-state voltage", notation::format(v, "V", 3), v, format!("flat top, {}", corner_name(Some(c)))))}
+                    {sw_i.map(|(i, c)| tile("switch-peak", "Switch peak current", notation::format(i, "A", 3), i, corner_name(Some(c)).to_string()))}
+                </div>
+                <p class="core-note" data-testid="turns-reason">{format!("Turns: {}.", r.turns_reason)}</p>
+                <p class="thermal-note" data-testid="thermal-note">{thermal_note}</p>
+                <Warnings warnings=r.warnings.clone() />
+            }
+            .into_any()
+        }
+    };
+    view! {
+        <style>{CSS}</style>
+        <div class="results-body">{body}</div>
+    }
+}
+
+/// The safety cautions, in a box that cannot be missed.
+#[component]
+fn Cautions(cautions: Vec<String>) -> impl IntoView {
     let none = cautions.is_empty();
     view! {
-        <div class="cautions" class:hidden=none data-testid="cautions" role="note">
-            <strong>"Safety"</strong>
+        <div class="cautions" class:hidden=none data-testid="cautions" role="note" aria-label="Safety cautions">
+            <strong>"Safety: hazardous voltages"</strong>
             <ul>{cautions.into_iter().map(|w| view! { <li>{w}</li> }).collect_view()}</ul>
         </div>
+    }
+}
+
+/// The engine's warnings, after everything else.
+#[component]
+fn Warnings(warnings: Vec<String>) -> impl IntoView {
+    view! {
         <ul class="warnings" data-testid="warnings">
             {warnings.into_iter().map(|w| view! { <li>{w}</li> }).collect_view()}
         </ul>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use magwright_engine::design::Design;
+
+    #[test]
+    fn failing_checks_come_first_then_binding() {
+        let mut r = magwright_engine::design::evaluate(&Design::demo_forward()).expect("demo evaluates");
+        if let Some(c) = r.checks.last_mut() {
+            c.pass = false;
+            c.margin = -0.1;
+        }
+        let o = ordered(&r.checks);
+        assert!(!o[0].pass);
+        let first_plain = o.iter().position(|c| c.pass && !c.binding).unwrap_or(o.len());
+        assert!(o[first_plain..].iter().all(|c| c.pass && !c.binding));
+        let (head, _) = verdict(&r);
+        assert_eq!(head, "Fails 1 check");
     }
 }

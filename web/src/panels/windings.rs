@@ -1,71 +1,512 @@
-//! Windings: what to wind with which wire, each winding's losses, the
-//! stack-up export, and the winding window to scale.
+//! Windings: the stack-up editor and what it gives.
+//!
+//! * The table of windings: turns, conductor and conductors in hand, RMS
+//!   current, DC resistance, the AC factor Fr and the loss of each, at the
+//!   operating temperature and loss corner (the report's
+//!   `operating.copper`); the loss of every layer on demand.
+//! * The editor: interleaving, a conductor fixed per winding ("automatic"
+//!   hands it back to the solver), insulation and window use. Every edit
+//!   goes into the form and the design is recomputed at once; when the
+//!   engine refuses it (a section that no longer fits the window, say) its
+//!   message is shown here, beside the controls that caused it, and the
+//!   controls stay so the edit can be undone.
+//! * The sections as wound, bobbin outward, and the stack-up export in the
+//!   engine's JSON schema.
+//! * The winding window to scale: each winding in its own colour (the same
+//!   colour in the table, the list and the drawing), turns drawn as the
+//!   conductors they are, tapes and flange margins.
+//!
+//! The drawing is done here with plotters rather than with
+//! `plot::cross_section`, whose rectangle kinds have one colour for all
+//! primaries and one for all secondaries: a reset winding or a second
+//! output could not be told apart there.
 
-use crate::form::Outcome;
-use crate::plot::{self, Kind, Rect};
+use super::results::gap_text;
+use crate::form::{self, Form, Group, Outcome, Pick, Problem, Report};
 use crate::ui::PlotCanvas;
 use leptos::prelude::*;
+use magwright_engine::design::file::{Interleave, WireChoice, WireOverride};
 use magwright_engine::notation;
+use magwright_engine::winding::conductor::Conductor;
+use magwright_engine::winding::stackup::{Direction, Item, Section, Side};
+use plotters::prelude::*;
+use plotters::style::text_anchor::{HPos, Pos, VPos};
+use plotters_canvas::CanvasBackend;
 
-/// The layers of the fit, to scale: x across the build (from the bobbin),
-/// y along the breadth. Primary windings blue, others orange, tapes grey.
-fn window_rects(r: &crate::form::Report) -> Vec<Rect> {
-    let c = &r.core;
-    let mut v = vec![Rect {
-        x: 0.0,
-        y: 0.0,
-        w: c.winding_height,
-        h: c.winding_breadth,
-        kind: Kind::Bobbin,
-        label: format!("{} × {}", notation::format(c.winding_height, "m", 3), notation::format(c.winding_breadth, "m", 3)),
-    }];
-    let first = r.stackup.windings.first().map(|w| w.name.clone()).unwrap_or_default();
-    for l in &r.fit.layers {
-        let name = r.stackup.windings.get(l.winding).map(|w| w.name.clone()).unwrap_or_default();
-        let kind = if name.starts_with("primary") || name == first { Kind::Primary } else { Kind::Secondary };
-        let margin = (c.winding_breadth - l.breadth).max(0.0) / 2.0;
-        v.push(Rect { x: l.h_bottom, y: margin, w: l.height, h: l.breadth, kind, label: name });
-    }
-    v
+const CSS: &str = r#"
+.windings .swatch { display:inline-block; width:.8em; height:.8em; border-radius:2px; margin-right:.35em; vertical-align:-1px; border:1px solid rgba(0,0,0,.35); }
+.windings table.windings-table td.cond { text-align:left; white-space:normal; font-size:.92em; }
+.windings table.windings-table tfoot th, .windings table.windings-table tfoot td { font-weight:600; color:var(--ink); border-top:1px solid var(--line); }
+.windings table.windings-table tbody th { white-space:nowrap; }
+.windings .auto { color:var(--muted); font-size:.85em; }
+.windings details { margin:.1rem 0 .5rem; font-size:.88em; }
+.windings details summary { cursor:pointer; color:var(--accent); }
+.windings .wind-error { border-left:4px solid var(--bad); background:#fff6f5; color:#8a1c14; padding:.35rem .6rem; margin:.3rem 0 .5rem; border-radius:3px; }
+.windings .wind-error strong { display:block; }
+.windings fieldset { border:1px solid var(--line); border-radius:4px; margin:.4rem 0; padding:.3rem .6rem .2rem; }
+.windings legend { font-weight:600; font-size:.88em; padding:0 .3rem; }
+.windings .wire-row { display:grid; grid-template-columns: minmax(9rem, 1.3fr) 1fr 1fr; gap:0 .6rem; align-items:end; }
+.windings .wire-row .field label .swatch { margin-right:.3em; }
+.windings ol.order { margin:.2rem 0 .5rem; padding-left:1.6rem; font-size:.88em; }
+.windings ol.order li { margin:.12rem 0; }
+.windings ol.order li.tape { color:var(--muted); }
+.windings ol.order .what { font-weight:600; }
+.windings h3 { font-size:.9rem; margin:.6rem 0 .15rem; }
+.windings .stale { opacity:.45; }
+"#;
+
+/// Winding colours, by position in the stack-up's list of windings:
+/// copper-orange for the primary, then hues told apart also by people
+/// with the common colour-vision deficiencies.
+pub const PALETTE: [(u8, u8, u8); 8] = [
+    (204, 102, 0),
+    (0, 114, 178),
+    (0, 158, 115),
+    (204, 121, 167),
+    (86, 180, 233),
+    (213, 94, 0),
+    (120, 60, 160),
+    (150, 130, 20),
+];
+
+/// The colour of winding `i`.
+pub fn colour(i: usize) -> (u8, u8, u8) {
+    PALETTE[i % PALETTE.len()]
 }
 
-/// The windings table and the window drawing.
-#[component]
-pub fn Windings(form: crate::form::Form, outcome: Memo<Outcome>) -> impl IntoView {
-    let _ = form;
-    let draw = move |c: &web_sys::HtmlCanvasElement| match outcome.get() {
-        Ok(r) => plot::cross_section(c, &window_rects(&r)),
-        Err(_) => Ok(()),
-    };
-    let table = move || {
-        outcome.get().ok().map(|r| {
-            let rows = r
-                .wires
-                .iter()
-                .map(|w| {
-                    let loss = r.operating.copper.windings.iter().find(|x| x.name == w.winding);
-                    let (rdc, fr, p) = loss.map_or((0.0, 1.0, 0.0), |l| (l.rdc, l.fr, l.ac_loss));
-                    let wire = if w.parallel > 1 { format!("{} × {}", w.parallel, w.conductor) } else { w.conductor.clone() };
-                    view! {
-                        <tr data-testid=format!("winding-{}", w.winding.replace(' ', "-"))>
-                            <th scope="row">{w.winding.clone()}</th>
-                            <td data-si=w.turns.to_string()>{w.turns}</td>
-                            <td>{wire}</td>
-                            <td data-si=format!("{:e}", w.rms_current)>{notation::format(w.rms_current, "A", 3)}</td>
-                            <td data-si=format!("{rdc:e}")>{notation::format(rdc, "Ω", 3)}</td>
-                            <td data-si=format!("{fr:e}")>{format!("{fr:.2}")}</td>
-                            <td data-si=format!("{p:e}")>{notation::format(p, "W", 3)}</td>
-                        </tr>
-                    }
-                })
-                .collect_view();
-            view! {
-                <table class="figures windings-table">
-                    <thead><tr><th scope="col">"Winding"</th><th scope="col">"Turns"</th><th scope="col">"Wire"</th><th scope="col">"RMS"</th><th scope="col">"Rdc"</th><th scope="col">"Fr"</th><th scope="col">"Loss"</th></tr></thead>
-                    <tbody>{rows}</tbody>
-                </table>
+/// The colour of winding `i` for CSS.
+pub fn css_colour(i: usize) -> String {
+    let (r, g, b) = colour(i);
+    format!("background:rgb({r},{g},{b})")
+}
+
+/// A name as it goes into a test id or element id: "secondary 1" → "secondary-1".
+pub fn slug(name: &str) -> String {
+    name.chars()
+        .map(|c| {
+            if c.is_ascii_alphanumeric() {
+                c.to_ascii_lowercase()
+            } else {
+                '-'
             }
         })
+        .collect()
+}
+
+/// Millimetres, two decimals.
+pub fn mm(x: f64) -> String {
+    format!("{:.2} mm", x * 1e3)
+}
+
+pub fn side_name(s: Side) -> &'static str {
+    match s {
+        Side::Left => "left",
+        Side::Right => "right",
+    }
+}
+
+pub fn direction_name(d: Direction) -> &'static str {
+    match d {
+        Direction::Clockwise => "clockwise",
+        Direction::CounterClockwise => "counter-clockwise",
+    }
+}
+
+/// Margins of a section as a builder reads them.
+pub fn margins_text(s: &Section) -> String {
+    if s.margin_left <= 0.0 && s.margin_right <= 0.0 {
+        "none".into()
+    } else if (s.margin_left - s.margin_right).abs() < 1e-9 {
+        format!("{:.1} mm each flange", s.margin_left * 1e3)
+    } else {
+        format!(
+            "{:.1} mm left, {:.1} mm right",
+            s.margin_left * 1e3,
+            s.margin_right * 1e3
+        )
+    }
+}
+
+/// "3 × litz 60 × 0.100 mm" or the conductor alone.
+pub fn conductor_text(c: &Conductor, parallel: u32) -> String {
+    if parallel > 1 {
+        format!("{parallel} × {}", c.describe())
+    } else {
+        c.describe()
+    }
+}
+
+/// The sections and tapes as wound, bobbin outward, one line each.
+fn order_list(r: &Report) -> impl IntoView {
+    let last = r.stackup.items.len().saturating_sub(1);
+    let items = r
+        .stackup
+        .items
+        .iter()
+        .enumerate()
+        .map(|(i, it)| match it {
+            Item::Section(s) => {
+                let w = r.stackup.winding_index(&s.winding).unwrap_or(0);
+                let sf = r.fit.sections.iter().find(|f| f.item == i);
+                let (layers, tpl, build) = sf.map_or((0, 0, 0.0), |f| (f.layers, f.turns_per_layer, f.build));
+                let between = s
+                    .interlayer
+                    .as_ref()
+                    .map(|t| format!(" · {} × {:.3} mm {} between layers", t.wraps, t.thickness * 1e3, t.material))
+                    .unwrap_or_default();
+                let text = format!(
+                    " — {} turns of {} · {} layer{} of {} · start {}, finish {} · {} · margins {} · build {}{}",
+                    s.turns,
+                    conductor_text(&s.conductor, s.parallel),
+                    layers,
+                    if layers == 1 { "" } else { "s" },
+                    tpl,
+                    side_name(s.start),
+                    side_name(s.finish),
+                    direction_name(s.direction),
+                    margins_text(s),
+                    mm(build),
+                    between
+                );
+                view! {
+                    <li class="section" data-testid=format!("order-{i}")>
+                        <span class="swatch" style=css_colour(w)></span>
+                        <span class="what">{s.winding.clone()}</span>{text}
+                    </li>
+                }
+                .into_any()
+            }
+            Item::Tape(t) => {
+                let place = if i == last { " over the top" } else { "" };
+                view! {
+                    <li class="tape" data-testid=format!("order-{i}")>
+                        <span class="what">"Tape"</span>
+                        {format!(" — {} wrap{} × {:.3} mm {}{place} ({})", t.wraps, if t.wraps == 1 { "" } else { "s" }, t.thickness * 1e3, t.material, mm(t.build()))}
+                    </li>
+                }
+                .into_any()
+            }
+            Item::Screen(sc) => view! {
+                <li class="tape" data-testid=format!("order-{i}")>
+                    <span class="what">"Screen"</span>
+                    {format!(" — {} {:.3} mm, connected to {}", sc.material, sc.thickness * 1e3, sc.connection)}
+                </li>
+            }
+            .into_any(),
+        })
+        .collect_view();
+    view! { <ol class="order" data-testid="stackup-order">{items}</ol> }
+}
+
+/// The windings table, with totals and the per-layer losses on demand.
+fn table(r: &Report) -> impl IntoView {
+    let copper = &r.operating.copper;
+    let rows = r
+        .wires
+        .iter()
+        .map(|w| {
+            let loss = copper.windings.iter().find(|x| x.name == w.winding);
+            let (rdc, fr, p) = loss.map_or((0.0, 1.0, 0.0), |l| (l.rdc, l.fr, l.ac_loss));
+            let s = slug(&w.winding);
+            let ci = r.stackup.winding_index(&w.winding).unwrap_or(0);
+            view! {
+                <tr data-testid=format!("winding-{s}")>
+                    <th scope="row"><span class="swatch" style=css_colour(ci)></span>{w.winding.clone()}</th>
+                    <td data-testid=format!("turns-{s}") data-si=w.turns.to_string()>{w.turns}</td>
+                    <td class="cond" data-testid=format!("wire-of-{s}") title=w.conductor.clone()>
+                        {w.conductor.split(" (").next().unwrap_or_default().to_string()}
+                        {(!w.automatic).then(|| view! { <span class="auto">" (fixed)"</span> })}
+                    </td>
+                    <td data-testid=format!("parallel-{s}") data-si=w.parallel.to_string()>{w.parallel}</td>
+                    <td data-testid=format!("rms-{s}") data-si=format!("{:e}", w.rms_current)>{notation::format(w.rms_current, "A", 3)}</td>
+                    <td data-testid=format!("rdc-{s}") data-si=format!("{rdc:e}")>{notation::format(rdc, "Ω", 3)}</td>
+                    <td data-testid=format!("fr-{s}") data-si=format!("{fr:e}")>{format!("{fr:.2}")}</td>
+                    <td data-testid=format!("loss-{s}") data-si=format!("{p:e}")>{notation::format(p, "W", 3)}</td>
+                </tr>
+            }
+        })
+        .collect_view();
+    let mut layers: Vec<(f64, String, usize, u32, f64)> = copper
+        .windings
+        .iter()
+        .flat_map(|w| {
+            w.layers
+                .iter()
+                .map(move |l| (l.h_bottom, w.name.clone(), l.item, l.layer, l.loss))
+        })
+        .collect();
+    layers.sort_by(|a, b| a.0.total_cmp(&b.0));
+    let layer_rows = layers
+        .into_iter()
+        .map(|(h, name, item, layer, loss)| {
+            let ci = r.stackup.winding_index(&name).unwrap_or(0);
+            view! {
+                <tr>
+                    <th scope="row"><span class="swatch" style=css_colour(ci)></span>{name}</th>
+                    <td>{item + 1}</td>
+                    <td>{layer + 1}</td>
+                    <td>{mm(h)}</td>
+                    <td data-si=format!("{loss:e}")>{notation::format(loss, "W", 3)}</td>
+                </tr>
+            }
+        })
+        .collect_view();
+    view! {
+        <table class="figures windings-table" data-testid="windings-table">
+            <thead><tr>
+                <th scope="col">"Winding"</th><th scope="col">"Turns"</th><th scope="col">"Conductor"</th>
+                <th scope="col" title="Conductors in hand">"×"</th><th scope="col">"RMS"</th><th scope="col">"Rdc"</th>
+                <th scope="col" title="AC resistance factor over the waveform: loss / DC loss">"Fr"</th><th scope="col">"Loss"</th>
+            </tr></thead>
+            <tbody>{rows}</tbody>
+            <tfoot><tr>
+                <th scope="row" colspan="7">{format!("Copper at {:.0} °C, {}", copper.temperature, super::results::corner_name(Some(r.operating.corner)))}</th>
+                <td data-testid="copper-total" data-si=format!("{:e}", copper.total)>{notation::format(copper.total, "W", 3)}</td>
+            </tr></tfoot>
+        </table>
+        <details data-testid="layer-losses">
+            <summary>"Loss of each layer, bobbin outward"</summary>
+            <table class="figures windings-table">
+                <thead><tr><th scope="col">"Winding"</th><th scope="col">"Item"</th><th scope="col">"Layer"</th><th scope="col">"From bobbin"</th><th scope="col">"Loss"</th></tr></thead>
+                <tbody>{layer_rows}</tbody>
+            </table>
+        </details>
+    }
+}
+
+/// The kinds of conductor a winding can be fixed to.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum WireKind {
+    Auto,
+    Round,
+    Litz,
+    Foil,
+    TripleInsulated,
+}
+
+const KINDS: [(WireKind, &str); 5] = [
+    (WireKind::Auto, "automatic"),
+    (WireKind::Round, "round enamelled"),
+    (WireKind::Litz, "litz"),
+    (WireKind::Foil, "foil"),
+    (WireKind::TripleInsulated, "triple-insulated"),
+];
+
+fn kind_of(w: Option<&WireChoice>) -> WireKind {
+    match w {
+        None => WireKind::Auto,
+        Some(WireChoice::Round { .. }) => WireKind::Round,
+        Some(WireChoice::Litz { .. }) => WireKind::Litz,
+        Some(WireChoice::Foil { .. }) => WireKind::Foil,
+        Some(WireChoice::TripleInsulated { .. }) => WireKind::TripleInsulated,
+    }
+}
+
+/// A starting point when a kind is first chosen (common sizes, no source).
+fn default_of(k: WireKind) -> Option<WireChoice> {
+    match k {
+        WireKind::Auto => None,
+        WireKind::Round => Some(WireChoice::Round { awg: 24, parallel: 1 }),
+        WireKind::Litz => Some(WireChoice::Litz {
+            strands: 60,
+            strand_awg: 38,
+        }),
+        WireKind::Foil => Some(WireChoice::Foil { thickness: 0.1e-3 }),
+        WireKind::TripleInsulated => Some(WireChoice::TripleInsulated { awg: 24, parallel: 1 }),
+    }
+}
+
+/// The labels of the two entries of a kind.
+fn labels_of(k: WireKind) -> (&'static str, &'static str, &'static str) {
+    match k {
+        WireKind::Round | WireKind::TripleInsulated => ("AWG", "In hand", ""),
+        WireKind::Litz => ("Strands", "Strand AWG", ""),
+        WireKind::Foil => ("Thickness", "", "m"),
+        WireKind::Auto => ("", "", ""),
+    }
+}
+
+fn texts_of(w: &WireChoice) -> (String, String) {
+    match *w {
+        WireChoice::Round { awg, parallel } | WireChoice::TripleInsulated { awg, parallel } => {
+            (awg.to_string(), parallel.to_string())
+        }
+        WireChoice::Litz { strands, strand_awg } => (strands.to_string(), strand_awg.to_string()),
+        WireChoice::Foil { thickness } => (form::text_of(thickness, true), String::new()),
+    }
+}
+
+fn whole(t: &str, what: &str) -> Result<i64, String> {
+    match notation::parse(t, "") {
+        Ok(v) if v.fract() == 0.0 && v.abs() <= 1e6 => Ok(v as i64),
+        Ok(_) => Err(format!("{what}: a whole number")),
+        Err(e) => Err(format!("{what}: {e}")),
+    }
+}
+
+/// The conductor the two entries describe (ranges are the engine's to check).
+fn read(k: WireKind, a: &str, b: &str) -> Result<Option<WireChoice>, String> {
+    let count =
+        |t: &str, what: &str| whole(t, what).and_then(|v| u32::try_from(v).map_err(|_| format!("{what}: not below 0")));
+    Ok(match k {
+        WireKind::Auto => None,
+        WireKind::Round => Some(WireChoice::Round {
+            awg: whole(a, "AWG")? as i32,
+            parallel: count(b, "In hand")?,
+        }),
+        WireKind::TripleInsulated => Some(WireChoice::TripleInsulated {
+            awg: whole(a, "AWG")? as i32,
+            parallel: count(b, "In hand")?,
+        }),
+        WireKind::Litz => Some(WireChoice::Litz {
+            strands: count(a, "Strands")?,
+            strand_awg: whole(b, "Strand AWG")? as i32,
+        }),
+        WireKind::Foil => Some(WireChoice::Foil {
+            thickness: notation::parse(a, "m").map_err(|e| format!("Thickness: {e}"))?,
+        }),
+    })
+}
+
+/// Sets (or with `None` removes) the fixed conductor of `name`, keeping
+/// the other overrides in their order.
+fn set_override(form: Form, name: &str, wire: Option<WireChoice>) {
+    form.wires
+        .update(|ws| match (ws.iter().position(|o| o.winding == name), wire) {
+            (Some(i), Some(w)) => ws[i].wire = w,
+            (Some(i), None) => {
+                ws.remove(i);
+            }
+            (None, Some(w)) => ws.push(WireOverride {
+                winding: name.to_string(),
+                wire: w,
+            }),
+            (None, None) => {}
+        });
+}
+
+/// One winding's conductor: automatic or fixed, with its entries.
+#[component]
+fn WireRow(form: Form, name: String, index: usize) -> impl IntoView {
+    let s = slug(&name);
+    let (id_k, id_a, id_b) = (format!("f-wire-{s}"), format!("f-wire-{s}-a"), format!("f-wire-{s}-b"));
+    let name = StoredValue::new(name);
+    let current = Memo::new(move |_| {
+        form.wires.with(|ws| {
+            ws.iter()
+                .find(|o| name.with_value(|n| &o.winding == n))
+                .map(|o| o.wire.clone())
+        })
+    });
+    let kind = Memo::new(move |_| current.with(|w| kind_of(w.as_ref())));
+    let (a, b) = (RwSignal::new(String::new()), RwSignal::new(String::new()));
+    let msg = RwSignal::new(None::<String>);
+    // The entries follow the form when it changes from elsewhere (a file
+    // opened, a kind chosen); text the user is typing is left alone.
+    Effect::new(move |_| {
+        if let Some(w) = current.get() {
+            let typed = read(kind_of(Some(&w)), &a.get_untracked(), &b.get_untracked());
+            if typed.as_ref().ok().and_then(|t| t.as_ref()) != Some(&w) {
+                let (ta, tb) = texts_of(&w);
+                a.set(ta);
+                b.set(tb);
+                msg.set(None);
+            }
+        }
+    });
+    let pick = move |ev: leptos::ev::Event| {
+        let v = event_target_value(&ev);
+        if let Some((k, _)) = v.parse::<usize>().ok().and_then(|i| KINDS.get(i)) {
+            msg.set(None);
+            name.with_value(|n| set_override(form, n, default_of(*k)));
+        }
+    };
+    let typed = move || match read(kind.get_untracked(), &a.get_untracked(), &b.get_untracked()) {
+        Ok(w) => {
+            msg.set(None);
+            name.with_value(|n| set_override(form, n, w));
+        }
+        Err(m) => msg.set(Some(format!("{m} (not applied)"))),
+    };
+    let auto = move || kind.get() == WireKind::Auto;
+    let one_entry = move || matches!(kind.get(), WireKind::Auto | WireKind::Foil);
+    view! {
+        <div class="wire-row" data-testid=format!("wire-row-{s}")>
+            <div class="field">
+                <label for=id_k.clone()><span class="swatch" style=css_colour(index)></span>{name.get_value()}</label>
+                <select id=id_k on:change=pick>
+                    {KINDS.iter().enumerate().map(|(i, (k, l))| {
+                        let k = *k;
+                        view! { <option value=i.to_string() prop:selected=move || kind.get() == k>{*l}</option> }
+                    }).collect_view()}
+                </select>
+                <div class="msg" role="alert">{move || msg.get().unwrap_or_default()}</div>
+            </div>
+            <div class="field" class:hidden=auto>
+                <label for=id_a.clone()>{move || labels_of(kind.get()).0}</label>
+                <div class="entry">
+                    <input id=id_a type="text" inputmode="decimal" autocomplete="off" spellcheck="false"
+                        prop:value=move || a.get()
+                        on:input:target=move |ev| { a.set(ev.target().value()); typed(); } />
+                    <span class="unit">{move || labels_of(kind.get()).2}</span>
+                </div>
+            </div>
+            <div class="field" class:hidden=one_entry>
+                <label for=id_b.clone()>{move || labels_of(kind.get()).1}</label>
+                <div class="entry">
+                    <input id=id_b type="text" inputmode="decimal" autocomplete="off" spellcheck="false"
+                        prop:value=move || b.get()
+                        on:input:target=move |ev| { b.set(ev.target().value()); typed(); } />
+                </div>
+            </div>
+        </div>
+    }
+}
+
+/// The windings table, the editor, the sections as wound, the export and
+/// the window to scale.
+#[component]
+pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
+    // The windings of the last good design (so the editor stays while the
+    // engine refuses an edit), plus any winding an override still names.
+    let names = Memo::new(move |prev: Option<&Vec<String>>| {
+        let mut v: Vec<String> = outcome.with(|o| match o {
+            Ok(r) => r.stackup.windings.iter().map(|w| w.name.clone()).collect(),
+            Err(_) => prev.cloned().unwrap_or_default(),
+        });
+        form.wires.with(|ws| {
+            for o in ws {
+                if !v.contains(&o.winding) {
+                    v.push(o.winding.clone());
+                }
+            }
+        });
+        v
+    });
+    let refused = move || {
+        outcome.with(|o| match o {
+            Err(p @ Problem::Engine(_)) => Some(view! {
+                <div class="wind-error" role="alert" data-testid="windings-error">
+                    <strong>"The engine refused this design:"</strong>
+                    {p.lines().join("; ")}
+                </div>
+            }),
+            _ => None,
+        })
+    };
+    let report_part = move || {
+        outcome.get().ok().map(|r| {
+            view! {
+                {table(&r)}
+                <h3>"As wound, bobbin outward"</h3>
+                {order_list(&r)}
+                <p class="core-note">{format!("Core {} in {}; gap {}.", r.core.designation, r.material.name, gap_text(&r))}</p>
+            }
+        })
+    };
+    let draw = move |c: &web_sys::HtmlCanvasElement| match outcome.get() {
+        Ok(r) => draw_window(c, &r),
+        Err(_) => Ok(()),
     };
     let export = move |_| {
         if let Ok(r) = outcome.get_untracked() {
@@ -74,12 +515,296 @@ pub fn Windings(form: crate::form::Form, outcome: Memo<Outcome>) -> impl IntoVie
             }
         }
     };
+    let interleave = vec![
+        (Interleave::Auto, "Automatic"),
+        (Interleave::Sequential, "Sequential (P-S)"),
+        (Interleave::SplitPrimary, "Split primary (P-S-P)"),
+        (Interleave::SplitSecondaries, "Split others (S-P-S)"),
+    ];
+    let caption = move || {
+        outcome.with(|o| {
+            o.as_ref()
+                .map(|r| {
+                    format!(
+                        "One side of the winding window to scale, bobbin at the bottom, flanges at the sides. Build {} of {} ({:.0} %); copper fills {:.0} % of the window.",
+                        mm(r.fit.total_build),
+                        mm(r.fit.available_build),
+                        r.fit.build_fraction * 100.0,
+                        r.fit.fill_factor * 100.0
+                    )
+                })
+                .unwrap_or_default()
+        })
+    };
+    let each = move || names.get().into_iter().enumerate().collect::<Vec<_>>();
     view! {
-        {table}
-        <button type="button" class="small" data-testid="export-stackup" on:click=export>"Download stack-up (JSON)"</button>
+        <style>{CSS}</style>
+        {refused}
+        {report_part}
+        <div class="actions">
+            <button type="button" class="small" data-testid="export-stackup" disabled=move || outcome.with(|o| o.is_err()) on:click=export>
+                "Download stack-up (JSON)"
+            </button>
+        </div>
         <figure class="plot" class:hidden=move || outcome.with(|o| o.is_err())>
-            <PlotCanvas testid="window-plot" label="Winding window cross-section, to scale" width=520 height=250 draw=draw />
-            <figcaption>"One side of the winding window, to scale: bobbin outward, each layer coloured by winding."</figcaption>
+            <PlotCanvas testid="window-plot" label="Winding window cross-section, to scale" width=560 height=250 draw=draw />
+            <figcaption>{caption}</figcaption>
         </figure>
+        <h3>"Edit the stack-up"</h3>
+        <div class="fields">
+            <Pick key="interleave" label="Interleaving" value=form.interleave options=interleave
+                help="Order of the sections from the bobbin outward; splitting a winding around the others lowers proximity loss and leakage" />
+        </div>
+        <fieldset data-testid="conductors">
+            <legend>"Conductor of each winding"</legend>
+            <For each=each key=|(i, n): &(usize, String)| (*i, n.clone()) children=move |(i, n)| view! { <WireRow form=form name=n index=i /> } />
+        </fieldset>
+        <fieldset>
+            <legend>"Insulation and window"</legend>
+            <div class="fields">{form::num_fields(form, outcome, Group::Winding)}</div>
+        </fieldset>
+    }
+}
+
+fn err<E: std::fmt::Display>(e: E) -> String {
+    e.to_string()
+}
+
+/// The winding window to scale: x along the bobbin from flange to flange,
+/// y the build from the bobbin outward, both in mm at the same scale;
+/// tapes, flange margins and every turn.
+fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), String> {
+    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
+    let root = backend.into_drawing_area();
+    root.fill(&WHITE).map_err(err)?;
+    let (w, h) = root.dim_in_pixel();
+    let legend_w = 130u32;
+    let (left, bottom, margin) = (40u32, 36u32, 8u32);
+    let c = &r.core;
+    let (ax, bx) = (c.winding_breadth * 1e3, c.winding_height * 1e3);
+    if !(ax > 0.0 && bx > 0.0 && ax.is_finite() && bx.is_finite()) {
+        return Ok(());
+    }
+    let pw = w.saturating_sub(legend_w + left + 2 * margin).max(20) as f64;
+    let ph = h.saturating_sub(bottom + 2 * margin).max(20) as f64;
+    let pad = 0.03 * ax.max(bx);
+    let mm_per_px = ((ax + 2.0 * pad) / pw).max((bx + 2.0 * pad) / ph);
+    let (x_lo, y_lo) = (-pad, -pad);
+    let (x_hi, y_hi) = (x_lo + pw * mm_per_px, y_lo + ph * mm_per_px);
+    let (plot_area, legend_area) = root.split_horizontally(w.saturating_sub(legend_w));
+    let ink = RGBColor(29, 37, 48);
+    let mut chart = ChartBuilder::on(&plot_area)
+        .margin(margin)
+        .margin_right(4)
+        .x_label_area_size(bottom)
+        .y_label_area_size(left)
+        .build_cartesian_2d(x_lo..x_hi, y_lo..y_hi)
+        .map_err(err)?;
+    chart
+        .configure_mesh()
+        .x_desc("along the bobbin, flange to flange (mm)")
+        .y_desc("build (mm)")
+        .bold_line_style(RGBColor(236, 238, 242))
+        .light_line_style(RGBColor(248, 249, 250))
+        .axis_style(RGBColor(150, 158, 170))
+        .label_style(("sans-serif", 12).into_font().color(&ink))
+        .axis_desc_style(("sans-serif", 12).into_font().color(&ink))
+        .draw()
+        .map_err(err)?;
+    // (build from, along from, build to, along to), metres → chart mm.
+    let rect = |b0: f64, a0: f64, b1: f64, a1: f64| [(a0 * 1e3, b0 * 1e3), (a1 * 1e3, b1 * 1e3)];
+    let bobbin = RGBColor(232, 236, 242);
+    let tape_fill = RGBColor(244, 214, 96);
+    let tape_edge = RGBColor(160, 130, 20);
+    let margin_fill = RGBColor(176, 182, 192);
+    chart
+        .draw_series([
+            Rectangle::new(rect(0.0, 0.0, c.winding_height, c.winding_breadth), bobbin.filled()),
+            Rectangle::new(
+                rect(0.0, 0.0, c.winding_height, c.winding_breadth),
+                RGBColor(120, 130, 145).stroke_width(1),
+            ),
+        ])
+        .map_err(err)?;
+    // The bobbin's core and flanges, drawn as heavier lines.
+    let wall = RGBColor(70, 78, 90).stroke_width(3);
+    chart
+        .draw_series([PathElement::new(vec![(0.0, 0.0), (ax, 0.0)], wall)])
+        .map_err(err)?;
+    chart
+        .draw_series([PathElement::new(vec![(0.0, 0.0), (0.0, bx)], wall)])
+        .map_err(err)?;
+    chart
+        .draw_series([PathElement::new(vec![(ax, 0.0), (ax, bx)], wall)])
+        .map_err(err)?;
+    let fit = &r.fit;
+    let items = &r.stackup.items;
+    let breadth = c.winding_breadth;
+    let mut has_margin = false;
+    let mut has_tape = false;
+    // Tapes between sections and over the top span flange to flange.
+    for (i, it) in items.iter().enumerate() {
+        let y0 = fit.item_bottoms.get(i).copied().unwrap_or(0.0);
+        let (t, fill, edge) = match it {
+            Item::Tape(t) => (t.build(), tape_fill, tape_edge),
+            Item::Screen(s) => (s.thickness, RGBColor(150, 110, 60), RGBColor(90, 60, 30)),
+            Item::Section(s) => {
+                let build = fit.sections.iter().find(|f| f.item == i).map_or(0.0, |f| f.build);
+                for (a, b) in [(0.0, s.margin_left), (breadth - s.margin_right, breadth)] {
+                    if b - a > 0.0 && build > 0.0 {
+                        has_margin = true;
+                        chart
+                            .draw_series([
+                                Rectangle::new(rect(y0, a, y0 + build, b), margin_fill.filled()),
+                                Rectangle::new(rect(y0, a, y0 + build, b), RGBColor(110, 118, 130).stroke_width(1)),
+                            ])
+                            .map_err(err)?;
+                    }
+                }
+                continue;
+            }
+        };
+        if t > 0.0 {
+            has_tape = true;
+            chart
+                .draw_series([
+                    Rectangle::new(rect(y0, 0.0, y0 + t, breadth), fill.filled()),
+                    Rectangle::new(rect(y0, 0.0, y0 + t, breadth), edge.stroke_width(1)),
+                ])
+                .map_err(err)?;
+        }
+    }
+    // Layers: turns drawn as conductors when large enough, else as a band;
+    // tape between the layers of a section where it has one.
+    let px_per_mm = 1.0 / mm_per_px;
+    let mut drawn = 0usize;
+    for (k, l) in fit.layers.iter().enumerate() {
+        let Some(Item::Section(s)) = items.get(l.item) else {
+            continue;
+        };
+        let (cr, cg, cb) = colour(l.winding);
+        let fill = RGBColor(cr, cg, cb);
+        let edge = RGBColor(
+            (cr as u16 * 3 / 5) as u8,
+            (cg as u16 * 3 / 5) as u8,
+            (cb as u16 * 3 / 5) as u8,
+        );
+        let a0 = s.margin_left;
+        let x0 = l.h_bottom;
+        if let Some(next) = fit.layers.get(k + 1).filter(|n| n.item == l.item) {
+            if s.interlayer.is_some() && next.h_bottom > x0 + l.height {
+                has_tape = true;
+                chart
+                    .draw_series([Rectangle::new(
+                        rect(x0 + l.height, a0, next.h_bottom, a0 + l.breadth),
+                        tape_fill.filled(),
+                    )])
+                    .map_err(err)?;
+            }
+        }
+        if s.conductor.is_foil() {
+            let wid = s.conductor.outer_width().min(l.breadth);
+            chart
+                .draw_series([
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + wid), fill.filled()),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + wid), edge.stroke_width(1)),
+                ])
+                .map_err(err)?;
+            continue;
+        }
+        let d = s.conductor.outer_width();
+        let n = (l.turns as usize).saturating_mul(s.parallel as usize);
+        let radius = 0.5 * d * 1e3 * px_per_mm;
+        if radius >= 2.0 && drawn + n <= 6000 {
+            drawn += n;
+            let yc = (x0 + 0.5 * l.height) * 1e3;
+            let r_px = radius.floor().max(1.0) as u32;
+            let at = |j: usize| ((a0 + d * (j as f64 + 0.5)) * 1e3, yc);
+            chart
+                .draw_series((0..n).map(|j| Circle::new(at(j), r_px, fill.filled())))
+                .map_err(err)?;
+            chart
+                .draw_series((0..n).map(|j| Circle::new(at(j), r_px, edge.stroke_width(1))))
+                .map_err(err)?;
+        } else {
+            let len = (d * n as f64).min(l.breadth);
+            chart
+                .draw_series([
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + len), fill.filled()),
+                    Rectangle::new(rect(x0, a0, x0 + l.height, a0 + len), edge.stroke_width(1)),
+                ])
+                .map_err(err)?;
+        }
+    }
+    // Legend: every winding by name in its colour, then tape and margins.
+    let lf = ("sans-serif", 12)
+        .into_font()
+        .color(&ink)
+        .pos(Pos::new(HPos::Left, VPos::Center));
+    let mut entries: Vec<(String, RGBColor)> = r
+        .stackup
+        .windings
+        .iter()
+        .enumerate()
+        .map(|(i, wd)| {
+            let (a, b, c) = colour(i);
+            (wd.name.clone(), RGBColor(a, b, c))
+        })
+        .collect();
+    if has_tape {
+        entries.push(("insulating tape".into(), tape_fill));
+    }
+    if has_margin {
+        entries.push(("flange margin".into(), margin_fill));
+    }
+    entries.push(("bobbin space".into(), bobbin));
+    for (i, (label, col)) in entries.iter().enumerate() {
+        let y = margin as i32 + 12 + 21 * i as i32;
+        legend_area
+            .draw(&Rectangle::new([(8, y - 7), (26, y + 7)], col.filled()))
+            .map_err(err)?;
+        legend_area
+            .draw(&Rectangle::new(
+                [(8, y - 7), (26, y + 7)],
+                RGBColor(90, 98, 110).stroke_width(1),
+            ))
+            .map_err(err)?;
+        legend_area
+            .draw(&Text::new(label.clone(), (32, y), lf.clone()))
+            .map_err(err)?;
+    }
+    let sf = ("sans-serif", 11)
+        .into_font()
+        .color(&RGBColor(91, 102, 117))
+        .pos(Pos::new(HPos::Left, VPos::Center));
+    let y = margin as i32 + 12 + 21 * entries.len() as i32 + 4;
+    legend_area
+        .draw(&Text::new("drawn to scale", (8, y), sf))
+        .map_err(err)?;
+    root.present().map_err(err)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn entries_read_back_as_the_override() {
+        for w in [
+            WireChoice::Round { awg: 22, parallel: 3 },
+            WireChoice::Litz {
+                strands: 120,
+                strand_awg: 40,
+            },
+            WireChoice::Foil { thickness: 0.15e-3 },
+            WireChoice::TripleInsulated { awg: 26, parallel: 2 },
+        ] {
+            let (a, b) = texts_of(&w);
+            assert_eq!(read(kind_of(Some(&w)), &a, &b), Ok(Some(w.clone())));
+        }
+        assert!(read(WireKind::Round, "22.5", "1").is_err());
+        assert!(read(WireKind::Round, "22", "-1").is_err());
+        assert_eq!(read(WireKind::Auto, "", ""), Ok(None));
+        assert_eq!(slug("secondary 1 B"), "secondary-1-b");
     }
 }
