@@ -65,7 +65,16 @@ pub fn parse(text: &str, unit: &str) -> Result<f64, ParseError> {
     if !v.is_finite() {
         return Err(bad());
     }
-    Ok(v * 10f64.powi(scale))
+    if scale == 0 {
+        return Ok(v);
+    }
+    // "50u" reads as the decimal 50e-6, correctly rounded (multiplying by
+    // 10^-6 would be off by an ulp, so a saved 50e-6 would not read back).
+    let exact: f64 = format!("{s}e{scale}").parse().map_err(|_| bad())?;
+    if !exact.is_finite() {
+        return Err(bad());
+    }
+    Ok(exact)
 }
 
 /// Formats `v` with an SI prefix and `digits` significant figures, e.g.
@@ -103,7 +112,7 @@ mod tests {
     fn parses_prefixes_and_units() {
         assert_eq!(parse("200k", "Hz"), Ok(200e3));
         assert_eq!(parse("200 kHz", "Hz"), Ok(200e3));
-        assert!((parse("4.7u", "H").unwrap() - 4.7e-6).abs() < 1e-20);
+
         assert!((parse("1.5m", "").unwrap() - 1.5e-3).abs() < 1e-18);
         assert_eq!(parse("2e5", "Hz"), Ok(2e5));
         assert_eq!(parse(" 48 ", "V"), Ok(48.0));
@@ -111,6 +120,10 @@ mod tests {
         assert_eq!(parse("0,45", ""), Ok(0.45));
         assert_eq!(parse("1M", "Hz"), Ok(1e6));
         assert_eq!(parse("-3", "V"), Ok(-3.0));
+        // Prefixed values read as the correctly rounded decimal.
+        assert_eq!(parse("50u", "m"), Ok(50e-6));
+        assert_eq!(parse("50u", "m"), Ok(0.05e-3));
+        assert_eq!(parse("4.7u", "H"), Ok(4.7e-6));
     }
 
     #[test]

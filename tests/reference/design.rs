@@ -166,8 +166,11 @@ fn check_common(d: &Design, r: &Report) {
             j0
         );
     }
+    // A reset winding carries a small share of the ampere-turns: the solver
+    // gives it one round wire of at most 2δ instead of its allocated area.
     if let Some(reset) = r.wires.iter().find(|w| w.winding == "reset") {
-        assert!(reset.current_density <= j0 * 1.3);
+        assert_eq!(reset.parallel, 1);
+        assert!(reset.conductor.starts_with("round"), "{}", reset.conductor);
     }
     // Volt-second balance of every winding at both corners.
     let ae = r.core.ae;

@@ -560,7 +560,7 @@ fn choose_stackup(
                     let share = if at_sum > 0.0 { *turns as f64 * rms / at_sum } else { 1.0 / windings.len() as f64 };
                     let area = (share * ku * core.window_area / *turns as f64).max(1e-9);
                     let tiw = tiw_secondaries && name.starts_with("secondary");
-                    auto_conductor(area, *turns, delta, breadth, tiw)?
+                    auto_conductor(area, *turns, delta, breadth, tiw, share < 0.05)?
                 }
             };
             let copper = conductor.copper_area() * parallel as f64;
@@ -612,8 +612,9 @@ fn awg_not_above(d: f64) -> i32 {
 /// Realises a copper area (step 5 of the module docs): one round wire when
 /// its diameter is at most 2δ; otherwise the candidate with the least radial
 /// build among parallel round wires of at most 2δ, foil (eight turns or
-/// fewer) and litz of strands at most δ (common practice, no source).
-fn auto_conductor(area: f64, turns: u32, delta: f64, breadth: f64, tiw: bool) -> Result<(Conductor, u32)> {
+/// fewer) and litz of strands at most δ; one wire of at most 2δ for a
+/// `minor` winding (under 5 % of the ampere-turns). Common practice, no source.
+fn auto_conductor(area: f64, turns: u32, delta: f64, breadth: f64, tiw: bool, minor: bool) -> Result<(Conductor, u32)> {
     let d_need = (4.0 * area / std::f64::consts::PI).sqrt();
     let d_max = (2.0 * delta).max(0.1e-3);
     let round_of = |d: f64| -> Result<Conductor> {
@@ -625,8 +626,12 @@ fn auto_conductor(area: f64, turns: u32, delta: f64, breadth: f64, tiw: bool) ->
             Conductor::awg(awg_not_above(d), Grade::G2)
         }
     };
-    if d_need <= d_max {
-        return Ok((round_of(d_need)?, 1));
+    // A winding with a small share of the ampere-turns (a reset winding)
+    // gets one round wire of at most 2δ: its loss is small either way, and
+    // a sheet or a row of wires across the breadth would sit in the full
+    // field of its neighbours.
+    if d_need <= d_max || minor {
+        return Ok((round_of(d_need.min(d_max))?, 1));
     }
     // Radial build of `turns` turns of `c` with `par` in hand across `breadth`.
     let build = |c: &Conductor, par: u32| -> f64 {
