@@ -168,9 +168,14 @@ fn check_common(d: &Design, r: &Report) {
     }
     // A reset winding carries a small share of the ampere-turns: the solver
     // gives it one round wire of at most 2δ instead of its allocated area.
+    let at_sum: f64 = r.wires.iter().map(|w| w.turns as f64 * w.rms_current).sum();
     if let Some(reset) = r.wires.iter().find(|w| w.winding == "reset") {
-        assert_eq!(reset.parallel, 1);
-        assert!(reset.conductor.starts_with("round"), "{}", reset.conductor);
+        if reset.turns as f64 * reset.rms_current / at_sum < 0.05 {
+            assert_eq!(reset.parallel, 1);
+            assert!(reset.conductor.starts_with("round"), "{}", reset.conductor);
+        } else {
+            assert!(reset.current_density <= j0 * 1.3);
+        }
     }
     // Volt-second balance of every winding at both corners.
     let ae = r.core.ae;
