@@ -356,10 +356,8 @@ pub fn check_report(d: &Design, r: &Report) -> Result<(), String> {
             return Err(format!("negative loss at {:?}", c.corner));
         }
         for w in &c.copper.windings {
-            // Known finding (see `fr_below_one_with_long_edges`): with a
-            // finite edge time Fr can fall below 1, so it is checked on
-            // ideal steps only.
-            if d.choices.edge_time == 0.0 && w.fr < 1.0 - 1e-9 {
+            // Dowell 1966: Fr ≥ 1 for any layer, with ideal steps or finite edges.
+            if w.fr < 1.0 - 1e-9 {
                 return Err(format!("{}: Fr = {} < 1", w.name, w.fr));
             }
             if w.dc_loss < 0.0 || w.ac_loss < 0.0 {
@@ -509,16 +507,12 @@ fn sweeps_never_panic_and_points_are_sound() {
     );
 }
 
-/// Finding, not yet fixed (reported to the lead): with a finite
-/// `choices.edge_time` the harmonic sum low-passes the current's steps
-/// (sinc factor) but Fr divides by Rdc·I²rms of the *ideal* waveform, so
-/// a long edge on a short pulse gives Fr < 1 (0.60 in the random case that
-/// found it, 0.83 in this rounded copy: 144 ns edges at
-/// 278 kHz with D ≤ 0.2). Dowell 1966: Fr ≥ 1 for any layer. Run with
-/// `--ignored` to see it.
+/// Regression: with a finite `choices.edge_time` the harmonic sum describes
+/// the ramped current, so the DC loss must use the ramped waveform's RMS
+/// too; before that fix this case gave Fr 0.83 (144 ns edges at 278 kHz,
+/// D ≤ 0.2). Dowell 1966: Fr ≥ 1 for any layer.
 #[test]
-#[ignore]
-fn fr_below_one_with_long_edges() {
+fn fr_at_least_one_with_long_edges() {
     let mut d = Design::demo_forward();
     d.spec.topology = Topology::HalfBridge;
     d.spec.input = Input::Dc {
