@@ -61,9 +61,11 @@ const CSS: &str = r#"
 .suggest table.ranked tbody tr + tr { border-top:1px solid #eef0f3; }
 .suggest table.ranked tr.current { background:#eaf5ec; }
 .suggest table.ranked td.front { color:#b35900; text-align:center; }
-.suggest .failures { margin:.2rem 0 .6rem; padding-left:1.1rem; }
+.suggest .failures { margin:.2rem 0 .6rem; padding-left:0; list-style:none; }
+.suggest .failures li { padding-left:2.8em; text-indent:-2.8em; }
 .suggest .failures .n { display:inline-block; min-width:2.2em; text-align:right; margin-right:.4em; font-variant-numeric: tabular-nums; font-weight:600; }
 .suggest .sr { position:absolute; width:1px; height:1px; overflow:hidden; clip:rect(0 0 0 0); white-space:nowrap; }
+.suggest button:disabled { opacity:.45; cursor:default; background:#fff; border-color:#8f9aa8; }
 .suggest h3 { font-size:.92rem; margin:.5rem 0 .2rem; }
 "#;
 
@@ -331,20 +333,19 @@ pub fn Suggest(form: Form) -> impl IntoView {
 
     let failures = move || {
         run.ranking.with(|r| {
-            r.as_ref()
-                .map(|r| {
-                    r.failures
-                        .iter()
-                        .map(|f| {
-                            view! {
-                                <li data-testid="failure" data-count=f.count.to_string()>
-                                    <span class="n">{f.count}</span>
-                                    <span class="reason">{f.reason.clone()}</span>
-                                </li>
-                            }
-                        })
-                        .collect_view()
-                })
+            r.as_ref().map(|r| {
+                r.failures
+                    .iter()
+                    .map(|f| {
+                        view! {
+                            <li data-testid="failure" data-count=f.count.to_string()>
+                                <span class="n">{f.count}</span>
+                                <span class="reason">{f.reason.clone()}</span>
+                            </li>
+                        }
+                    })
+                    .collect_view()
+            })
         })
     };
 
@@ -443,6 +444,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
                     </figcaption>
                 </figure>
                 <h3>"Why the others fail"</h3>
+                <p class="help">"How many candidates, then the checks they fail, or why no design exists on them."</p>
                 <ul class="failures" data-testid="failures">{failures}</ul>
             </div>
         </div>
@@ -462,18 +464,56 @@ fn err<E: std::fmt::Display>(e: E) -> String {
 
 /// A tick label for cm³ on a log axis.
 fn tick_cm3(v: f64) -> String {
-    if v >= 10.0 {
+    let s = if v >= 10.0 {
         format!("{v:.0}")
     } else if v >= 1.0 {
-        format!("{v:.1}").trim_end_matches('0').trim_end_matches('.').to_string()
+        format!("{v:.1}")
     } else {
-        format!("{v:.2}").trim_end_matches('0').trim_end_matches('.').to_string()
+        format!("{v:.2}")
+    };
+    if s.contains('.') {
+        s.trim_end_matches('0').trim_end_matches('.').to_string()
+    } else {
+        s
     }
+}
+
+/// Log-axis grid: (every 1…9 × 10ᵏ in range, the labelled 1-2-5 subset).
+fn log_ticks(lo: f64, hi: f64) -> (Vec<f64>, Vec<f64>) {
+    let (mut grid, mut labels) = (Vec::new(), Vec::new());
+    if !(lo > 0.0 && hi > lo && lo.is_finite() && hi.is_finite()) {
+        return (grid, labels);
+    }
+    let steps: &[f64] = if hi / lo > 3000.0 { &[1.0] } else { &[1.0, 2.0, 5.0] };
+    let d0 = lo.log10().floor() as i32;
+    let d1 = (hi.log10().ceil() as i32).min(d0 + 12);
+    for d in d0..=d1 {
+        let p = 10f64.powi(d);
+        for m in 1..10 {
+            let v = f64::from(m) * p;
+            if v >= lo && v <= hi {
+                grid.push(v);
+                if steps.contains(&f64::from(m)) {
+                    labels.push(v);
+                }
+            }
+        }
+    }
+    (grid, labels)
+}
+
+/// What a legend entry shows before its text.
+#[derive(Clone, Copy)]
+enum Key {
+    Dot(RGBColor),
+    Line(RGBColor),
+    Ring(RGBColor),
 }
 
 /// Loss against volume: every passing candidate a dot, the Pareto front a
 /// line, the candidate on the form ringed. Volume on a log axis (library
-/// cores span two decades), loss linear from zero.
+/// cores span two decades), loss linear from zero. The legend is a row
+/// above the plot, so it never hides a point.
 fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, MaterialChoice)) -> Result<(), String> {
     let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
     let root = backend.into_drawing_area();
@@ -481,25 +521,34 @@ fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, 
     let point = |c: &Ranked| (c.volume * 1e6, c.total_loss);
     let ok = |p: &(f64, f64)| p.0.is_finite() && p.0 > 0.0 && p.1.is_finite();
     let pts: Vec<(f64, f64)> = r.by_volume.iter().map(point).filter(ok).collect();
-    let x_ext = pts.iter().fold(None, |a: Option<(f64, f64)>, p| Some(a.map_or((p.0, p.0), |(l, h)| (l.min(p.0), h.max(p.0)))));
+    let x_ext =
+        pts.iter().fold(None, |a: Option<(f64, f64)>, p| Some(a.map_or((p.0, p.0), |(l, h)| (l.min(p.0), h.max(p.0)))));
     let Some((x_lo, x_hi)) = x_ext else {
         let font = (FONT, 14).into_font().color(&INK).pos(Pos::new(HPos::Center, VPos::Center));
         let (w, h) = root.dim_in_pixel();
         root.draw(&Text::new("no candidate passes", (w as i32 / 2, h as i32 / 2), font)).map_err(err)?;
         return root.present().map_err(err);
     };
-    let (x_lo, x_hi) = (x_lo / 1.3, x_hi * 1.3);
+    let (x_lo, x_hi) = (x_lo / 1.25, x_hi * 1.25);
     let y_hi = pts.iter().map(|p| p.1).fold(0.0_f64, f64::max);
-    let y_hi = if y_hi > 0.0 { y_hi * 1.1 } else { 1.0 };
+    let y_hi = if y_hi > 0.0 { y_hi * 1.08 } else { 1.0 };
+
+    let blue = rgb(plot::BLUE);
+    let orange = rgb(plot::ORANGE);
+    let green = rgb(plot::GREEN);
+    let axis_ink = RGBColor(150, 158, 170);
+    let grid_bold = RGBColor(236, 238, 242);
+    let grid_light = RGBColor(246, 247, 249);
 
     let mut chart = ChartBuilder::on(&root)
         .margin(10)
+        .margin_top(30)
         .margin_right(18)
         .x_label_area_size(40)
         .y_label_area_size(52)
         .build_cartesian_2d((x_lo..x_hi).log_scale(), 0.0..y_hi)
         .map_err(err)?;
-    let x_fmt = |v: &f64| tick_cm3(*v);
+    let blank = |_: &f64| String::new();
     let y_fmt = |v: &f64| {
         let s = format!("{v:.2}");
         s.trim_end_matches('0').trim_end_matches('.').to_string()
@@ -508,32 +557,34 @@ fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, 
         .configure_mesh()
         .x_desc("Core volume (cm³)")
         .y_desc("Total loss (W)")
-        .bold_line_style(RGBColor(236, 238, 242))
-        .light_line_style(RGBColor(246, 247, 249))
-        .axis_style(RGBColor(150, 158, 170))
+        .disable_x_mesh()
+        .x_label_formatter(&blank)
+        .set_tick_mark_size(LabelAreaPosition::Bottom, 0)
+        .bold_line_style(grid_bold)
+        .light_line_style(grid_light)
+        .axis_style(axis_ink)
         .label_style((FONT, 13).into_font().color(&INK))
         .axis_desc_style((FONT, 13).into_font().color(&INK))
-        .x_label_formatter(&x_fmt)
         .y_label_formatter(&y_fmt)
-        .x_labels(10)
         .y_labels(6)
         .draw()
         .map_err(err)?;
+    // Our own log ticks: a light line at every 1…9 of a decade, labels at 1-2-5.
+    let (grid, labels) = log_ticks(x_lo, x_hi);
+    for v in &grid {
+        let style = if labels.contains(v) { grid_bold } else { grid_light };
+        chart.draw_series(LineSeries::new([(*v, 0.0), (*v, y_hi)], style)).map_err(err)?;
+    }
+    let tick_font = (FONT, 13).into_font().color(&INK).pos(Pos::new(HPos::Center, VPos::Top));
+    for v in labels {
+        let (px, py) = chart.backend_coord(&(v, 0.0));
+        root.draw(&PathElement::new(vec![(px, py), (px, py + 5)], axis_ink)).map_err(err)?;
+        root.draw(&Text::new(tick_cm3(v), (px, py + 7), tick_font.clone())).map_err(err)?;
+    }
 
-    let blue = rgb(plot::BLUE);
-    let orange = rgb(plot::ORANGE);
-    let green = rgb(plot::GREEN);
-    chart
-        .draw_series(pts.iter().map(|&p| Circle::new(p, 3, blue.mix(0.55).filled())))
-        .map_err(err)?
-        .label("passing candidate")
-        .legend(move |(x, y)| Circle::new((x + 9, y), 3, blue.mix(0.55).filled()));
+    chart.draw_series(pts.iter().map(|&p| Circle::new(p, 3, blue.mix(0.55).filled()))).map_err(err)?;
     let front: Vec<(f64, f64)> = r.pareto.iter().map(point).filter(ok).collect();
-    chart
-        .draw_series(LineSeries::new(front.iter().copied(), orange.stroke_width(2)))
-        .map_err(err)?
-        .label("Pareto front")
-        .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 18, y)], orange.stroke_width(2)));
+    chart.draw_series(LineSeries::new(front.iter().copied(), orange.stroke_width(2))).map_err(err)?;
     chart.draw_series(front.iter().map(|&p| Circle::new(p, 4, orange.filled()))).map_err(err)?;
     let here: Vec<(f64, f64)> = r
         .by_volume
@@ -545,20 +596,67 @@ fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, 
         .map(point)
         .filter(ok)
         .collect();
+    chart.draw_series(here.iter().map(|&p| Circle::new(p, 8, green.stroke_width(2)))).map_err(err)?;
+
+    let mut keys = vec![
+        (format!("passing candidate ({})", pts.len()), Key::Dot(blue)),
+        (format!("Pareto front ({})", front.len()), Key::Line(orange)),
+    ];
     if !here.is_empty() {
-        chart
-            .draw_series(here.iter().map(|&p| Circle::new(p, 8, green.stroke_width(2))))
-            .map_err(err)?
-            .label("on the form")
-            .legend(move |(x, y)| Circle::new((x + 9, y), 6, green.stroke_width(2)));
+        keys.push(("the design on the form".to_string(), Key::Ring(green)));
     }
-    chart
-        .configure_series_labels()
-        .position(SeriesLabelPosition::UpperRight)
-        .background_style(WHITE.mix(0.9))
-        .border_style(RGBColor(200, 205, 212))
-        .label_font((FONT, 12).into_font().color(&INK))
-        .draw()
-        .map_err(err)?;
+    let font = (FONT, 12).into_font().color(&INK).pos(Pos::new(HPos::Left, VPos::Center));
+    let (mut x, y) = (62, 14);
+    for (label, key) in keys {
+        match key {
+            Key::Dot(c) => root.draw(&Circle::new((x + 9, y), 3, c.mix(0.55).filled())).map_err(err)?,
+            Key::Line(c) => {
+                root.draw(&PathElement::new(vec![(x, y), (x + 18, y)], c.stroke_width(2))).map_err(err)?;
+                root.draw(&Circle::new((x + 9, y), 4, c.filled())).map_err(err)?;
+            }
+            Key::Ring(c) => root.draw(&Circle::new((x + 9, y), 7, c.stroke_width(2))).map_err(err)?,
+        }
+        let w = root.estimate_text_size(&label, &font).map_or(120, |s| s.0 as i32);
+        root.draw(&Text::new(label, (x + 24, y), font.clone())).map_err(err)?;
+        x += 24 + w + 18;
+    }
     root.present().map_err(err)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn log_ticks_label_one_two_five_in_range() {
+        let (grid, labels) = log_ticks(1.5, 113.0);
+        assert_eq!(labels, vec![2.0, 5.0, 10.0, 20.0, 50.0, 100.0]);
+        assert_eq!(grid.first(), Some(&2.0));
+        assert_eq!(grid.last(), Some(&100.0));
+        assert_eq!(grid.len(), 8 + 9 + 1);
+        assert_eq!(log_ticks(0.0, 10.0), (vec![], vec![]));
+        assert_eq!(log_ticks(5.0, 5.0), (vec![], vec![]));
+    }
+
+    #[test]
+    fn volume_and_tick_text() {
+        assert_eq!(cm3(87.39e-6), "87.4");
+        assert_eq!(cm3(9.04e-6), "9.04");
+        assert_eq!(cm3(123.4e-6), "123");
+        assert_eq!(cm3(f64::NAN), "—");
+        assert_eq!(tick_cm3(20.0), "20");
+        assert_eq!(tick_cm3(2.0), "2");
+        assert_eq!(tick_cm3(0.5), "0.5");
+    }
+
+    #[test]
+    fn spec_only_ignores_core_and_material_only() {
+        let a = Design::demo_forward();
+        let mut b = a.clone();
+        b.core = CoreChoice::Library { designation: "ETD 59".into() };
+        b.material = MaterialChoice::Library { name: "other".into() };
+        assert_eq!(spec_only(&a), spec_only(&b));
+        b.spec.ambient += 1.0;
+        assert_ne!(spec_only(&a), spec_only(&b));
+    }
 }
