@@ -170,6 +170,8 @@ fn classify(msg: &str) -> String {
         "windings do not fit the window".into()
     } else if m.contains("gap") || m.contains(" al") {
         "no gap gives the inductance".into()
+    } else if m.contains("curie") {
+        "the ferrite reaches its Curie temperature".into()
     } else if m.contains("turns") {
         "turn count out of range".into()
     } else {

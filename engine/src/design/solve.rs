@@ -432,7 +432,9 @@ fn build_corners(
             (w.name.clone(), w.turns, w.rms.max(other))
         })
         .collect();
-    let t_sel = spec.hot_spot_max;
+    // Losses for choosing are taken at the hot-spot limit, kept below the
+    // Curie temperature where the loss model ends (the Curie check reports it).
+    let t_sel = spec.hot_spot_max.min(material.curie_c - 5.0);
     let rho = copper_resistivity(t_sel)?;
     let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
     let (stackup, fit, wires) = choose_stackup(design, core, &names, delta)?;
@@ -722,7 +724,7 @@ fn finish(
     // Anchored at an exact evaluation; re-anchored at the equilibrium until
     // it moves less than 0.5 K (at most three anchors).
     let ceiling = (material.curie_c).min(250.0).max(spec.ambient + 1.0);
-    let mut t_k = spec.hot_spot_max.clamp(-60.0, 250.0);
+    let mut t_k = spec.hot_spot_max.min(material.curie_c - 5.0).clamp(-60.0, 250.0);
     let mut anchor = sel.copper.clone();
     let mut history = Vec::new();
     let mut iterations = 0;
