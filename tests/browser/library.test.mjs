@@ -122,7 +122,7 @@ test('a core of your own by effective parameters, with the engine\'s messages at
   await page.waitForFunction(() => document.querySelector('#e-cc-mlt')?.textContent.length > 0);
   assert.match(await page.textContent('#e-cc-mlt'), /at least .* mm long/);
   assert.ok(await page.isDisabled('[data-testid="use-custom-core"]'));
-  await page.screenshot({ path: join(OUT, 'library-custom-core-bad.png'), fullPage: true });
+  await page.locator('[data-testid="panel-core"]').screenshot({ path: join(OUT, 'library-custom-core-bad.png') });
   // A negative area: the engine's message at Ae.
   await typeInto(page, 'cc-mlt', '60.5');
   await typeInto(page, 'cc-ae', '-3');
@@ -150,7 +150,7 @@ test('a core of your own by effective parameters, with the engine\'s messages at
   assert.match(await page.textContent('#f-core'), /Your own: Bench core/);
   assert.ok(close(await shown(page, 'core-wa'), want.core.window_area));
   assert.match(await page.textContent('[data-testid="custom-core-state"]'), /In use/);
-  await page.screenshot({ path: join(OUT, 'library-custom-core.png'), fullPage: true });
+  await page.locator('[data-testid="panel-core"]').screenshot({ path: join(OUT, 'library-custom-core.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();
@@ -202,7 +202,7 @@ test('a material fitted to pasted measurements recovers known k, α, β and is u
   assert.ok(await shown(page, 'fit-max-err') < 1e-6, 'exact points fit exactly');
   assert.ok(await shown(page, 'fit-rms-err') < 1e-6);
   assert.match(await page.textContent('[data-testid="fit-f-range"]'), /50\.0 kHz – 200 kHz/);
-  await page.screenshot({ path: join(OUT, 'library-fit.png'), fullPage: true });
+  await page.locator('[data-testid="panel-core"]').screenshot({ path: join(OUT, 'library-fit.png') });
 
   // Use it: the design takes the custom material (μi, Bsat from the grade in use) and recomputes.
   await typeInto(page, 'fit-name', 'Bench fit');
@@ -220,7 +220,7 @@ test('a material fitted to pasted measurements recovers known k, α, β and is u
   assert.match(await page.textContent('[data-testid="mat-name"]'), /Bench fit/);
   assert.match(await page.textContent('#f-material'), /Your own: Bench fit/);
   assert.match(await page.textContent('[data-testid="fit-status"]'), /Using Bench fit \(based on MnZn-200k\)/);
-  await page.screenshot({ path: join(OUT, 'library-fit-used.png'), fullPage: true });
+  await page.locator('[data-testid="panel-core"]').screenshot({ path: join(OUT, 'library-fit-used.png') });
 
   // Back to a library grade.
   await page.selectOption('#f-material', 'MnZn-200k');

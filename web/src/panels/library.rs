@@ -59,6 +59,7 @@ const CSS: &str = r#"
 .lib-dialog table { border-collapse:collapse; font-size:.84em; width:100%; }
 .lib-dialog thead th { position:sticky; top:0; background:#f3f5f7; font-weight:600; text-align:right; padding:.25rem .45rem; border-bottom:1px solid var(--line); vertical-align:bottom; }
 .lib-dialog thead th.text, .lib-dialog td.text { text-align:left; }
+.lib-dialog tbody th { white-space:nowrap; font-weight:600; padding:.16rem .45rem; }
 .lib-dialog td { text-align:right; font-variant-numeric:tabular-nums; padding:.16rem .45rem; white-space:nowrap; }
 .lib-dialog td.src { white-space:normal; min-width:14em; color:var(--muted); font-size:.92em; }
 .lib-dialog tbody tr:nth-child(even) { background:#fafbfc; }
@@ -117,14 +118,6 @@ impl Dim {
             Dim::Mass => &[("kg", 1.0), ("mg", 1e-6), ("g", 1e-3)],
         }
     }
-    /// The SI unit symbol, for echoing a typed value.
-    fn si(self) -> &'static str {
-        match self {
-            Dim::Length => "m",
-            Dim::Area | Dim::Surface => "m²",
-            Dim::Mass => "kg",
-        }
-    }
 }
 
 /// Reads a custom-core entry into SI: a number (SI multiplier prefixes
@@ -146,7 +139,9 @@ fn parse_dim(text: &str, dim: Dim) -> Result<Option<(f64, bool)>, String> {
             }
         }
     }
-    notation::parse(t, "").map(|v| Some((v * dim.scale(), false))).map_err(|e| e.to_string())
+    notation::parse(t, "")
+        .map(|v| Some((v * dim.scale(), false)))
+        .map_err(|e| e.to_string())
 }
 
 /// One line of pasted measurements, split into its four values. Tabs and
@@ -155,7 +150,10 @@ fn parse_dim(text: &str, dim: Dim) -> Result<Option<(f64, bool)>, String> {
 /// inside a value is a decimal comma, "0,1"); else commas too.
 fn split_row(line: &str) -> Vec<&str> {
     let by = |sep: &dyn Fn(char) -> bool| -> Vec<&str> {
-        line.split(|c: char| sep(c)).map(|s| s.trim().trim_end_matches(',').trim_end()).filter(|s| !s.is_empty()).collect()
+        line.split(|c: char| sep(c))
+            .map(|s| s.trim().trim_end_matches(',').trim_end())
+            .filter(|s| !s.is_empty())
+            .collect()
     };
     let strong = by(&|c| c == '\t' || c == ';');
     if strong.len() == 4 {
@@ -190,7 +188,11 @@ const COLUMNS: [(&str, &str); 4] = [("f", "Hz"), ("B", "T"), ("T", "°C"), ("Pv"
 /// text after `#` are ignored; a first line that is not numbers is taken
 /// as a header. Errors name the line.
 fn parse_points(text: &str) -> Result<Pasted, String> {
-    let mut out = Pasted { points: Vec::new(), lines: Vec::new(), header: false };
+    let mut out = Pasted {
+        points: Vec::new(),
+        lines: Vec::new(),
+        header: false,
+    };
     for (i, raw) in text.lines().enumerate() {
         let line_no = i + 1;
         let line = raw.split('#').next().unwrap_or("").trim();
@@ -217,7 +219,12 @@ fn parse_points(text: &str) -> Result<Pasted, String> {
         let first = out.points.is_empty() && !out.header;
         match (cells.len(), bad) {
             (4, None) => {
-                out.points.push(LossPoint { f: vals[0], b: vals[1], temp_c: vals[2], pv: vals[3] });
+                out.points.push(LossPoint {
+                    f: vals[0],
+                    b: vals[1],
+                    temp_c: vals[2],
+                    pv: vals[3],
+                });
                 out.lines.push(line_no);
             }
             // A first line that is not all numbers: a header ("f B T Pv").
@@ -236,8 +243,12 @@ fn parse_points(text: &str) -> Result<Pasted, String> {
 
 /// An engine error about `points[i].x`, told by the pasted line it came from.
 fn point_error(e: &Error, lines: &[usize]) -> String {
-    let Some(rest) = e.field().and_then(|f| f.strip_prefix("points[")) else { return e.message().to_string() };
-    let Some((index, name)) = rest.split_once("].") else { return e.message().to_string() };
+    let Some(rest) = e.field().and_then(|f| f.strip_prefix("points[")) else {
+        return e.message().to_string();
+    };
+    let Some((index, name)) = rest.split_once("].") else {
+        return e.message().to_string();
+    };
     let column = match name {
         "f" => "f",
         "b" => "B",
@@ -277,16 +288,30 @@ fn coef(x: f64) -> String {
     }
 }
 
+/// A percentage: three figures, or an exponent below 0.01 %.
+fn pct(v: f64) -> String {
+    if v.is_finite() && v != 0.0 && v.abs() < 0.01 {
+        format!("{v:.1e} %")
+    } else {
+        format!("{} %", sig(v, 3))
+    }
+}
+
 fn si_attr(v: f64) -> String {
     format!("{v:e}")
 }
 
 /// One labelled figure: SI value in `data-si`, shown as `v/scale unit`.
 fn figure(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'static str) -> impl IntoView {
+    figure_n(id, label, v, scale, unit, 4)
+}
+
+/// [`figure`] with `n` significant figures.
+fn figure_n(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'static str, n: i32) -> impl IntoView {
     view! {
         <tr>
             <th scope="row">{label}</th>
-            <td data-testid=id data-si=si_attr(v)>{format!("{} {unit}", sig(v / scale, 4))}</td>
+            <td data-testid=id data-si=si_attr(v)>{format!("{} {unit}", sig(v / scale, n))}</td>
         </tr>
     }
 }
@@ -303,7 +328,10 @@ fn core_of(c: &CoreChoice) -> Result<Core, Error> {
     match c {
         CoreChoice::Library { designation } => cores::find(designation),
         CoreChoice::Shape { designation, shape } => Core::from_shape(designation, shape.clone()),
-        CoreChoice::Effective { designation, parameters } => Core::from_effective(designation, parameters),
+        CoreChoice::Effective {
+            designation,
+            parameters,
+        } => Core::from_effective(designation, parameters),
     }
 }
 
@@ -414,7 +442,11 @@ fn CoreData(form: Form) -> impl IntoView {
     move || match core.get() {
         Err(e) => view! { <p class="bad" data-testid="core-data-error">{e.message().to_string()}</p> }.into_any(),
         Ok(c) => {
-            let title = if c.family.is_empty() { c.designation.clone() } else { format!("{} ({})", c.designation, c.family) };
+            let title = if c.family.is_empty() {
+                c.designation.clone()
+            } else {
+                format!("{} ({})", c.designation, c.family)
+            };
             view! {
                 <table class="data" data-testid="core-data" aria-label="Data of the core in use">
                     <tr><th scope="row">"Core"</th><td class="text" data-testid="core-designation">{title}</td></tr>
@@ -464,7 +496,12 @@ const ORDERS: [(Order, &str); 5] = [
 
 /// Designation contains the search text (case and spaces ignored).
 fn matches(designation: &str, search: &str) -> bool {
-    let norm = |s: &str| s.chars().filter(|c| !c.is_whitespace()).flat_map(char::to_lowercase).collect::<String>();
+    let norm = |s: &str| {
+        s.chars()
+            .filter(|c| !c.is_whitespace())
+            .flat_map(char::to_lowercase)
+            .collect::<String>()
+    };
     norm(designation).contains(&norm(search))
 }
 
@@ -510,7 +547,9 @@ fn CoreBrowser(form: Form, open: RwSignal<bool>) -> impl IntoView {
         _ => None,
     };
     let pick = move |d: &str| {
-        form.core.set(CoreChoice::Library { designation: d.to_string() });
+        form.core.set(CoreChoice::Library {
+            designation: d.to_string(),
+        });
         open.set(false);
     };
     let rows = move || {
@@ -627,16 +666,86 @@ struct Def {
 }
 
 const CUSTOM: [Def; 10] = [
-    Def { key: "cc-ae", engine: "ae", label: "Ae", dim: Dim::Area, optional: false, help: "Effective area (IEC 60205)" },
-    Def { key: "cc-le", engine: "le", label: "le", dim: Dim::Length, optional: false, help: "Effective magnetic path length (IEC 60205)" },
-    Def { key: "cc-amin", engine: "amin", label: "Amin", dim: Dim::Area, optional: true, help: "Smallest section; empty: Ae" },
-    Def { key: "cc-wa", engine: "window_area", label: "Window area", dim: Dim::Area, optional: false, help: "Core window area, one side" },
-    Def { key: "cc-g", engine: "window_height", label: "Window height", dim: Dim::Length, optional: true, help: "Core window height along the centre leg; empty: the bobbin breadth" },
-    Def { key: "cc-breadth", engine: "winding_breadth", label: "Bobbin breadth", dim: Dim::Length, optional: false, help: "Winding breadth of the bobbin, along the centre leg" },
-    Def { key: "cc-height", engine: "winding_height", label: "Bobbin height", dim: Dim::Length, optional: false, help: "Radial build the bobbin allows" },
-    Def { key: "cc-mlt", engine: "turn_length_inner", label: "Turn on bobbin", dim: Dim::Length, optional: false, help: "Length of one turn laid on the bobbin" },
-    Def { key: "cc-surface", engine: "surface_area", label: "Outer surface", dim: Dim::Surface, optional: false, help: "Outer surface of the assembled set (cooling)" },
-    Def { key: "cc-mass", engine: "mass", label: "Mass (set)", dim: Dim::Mass, optional: true, help: "Empty: Ve × a typical ferrite density" },
+    Def {
+        key: "cc-ae",
+        engine: "ae",
+        label: "Ae",
+        dim: Dim::Area,
+        optional: false,
+        help: "Effective area (IEC 60205)",
+    },
+    Def {
+        key: "cc-le",
+        engine: "le",
+        label: "le",
+        dim: Dim::Length,
+        optional: false,
+        help: "Effective magnetic path length (IEC 60205)",
+    },
+    Def {
+        key: "cc-amin",
+        engine: "amin",
+        label: "Amin",
+        dim: Dim::Area,
+        optional: true,
+        help: "Smallest section; empty: Ae",
+    },
+    Def {
+        key: "cc-wa",
+        engine: "window_area",
+        label: "Window area",
+        dim: Dim::Area,
+        optional: false,
+        help: "Core window area, one side",
+    },
+    Def {
+        key: "cc-g",
+        engine: "window_height",
+        label: "Window height",
+        dim: Dim::Length,
+        optional: true,
+        help: "Core window height along the centre leg; empty: the bobbin breadth",
+    },
+    Def {
+        key: "cc-breadth",
+        engine: "winding_breadth",
+        label: "Bobbin breadth",
+        dim: Dim::Length,
+        optional: false,
+        help: "Winding breadth of the bobbin, along the centre leg",
+    },
+    Def {
+        key: "cc-height",
+        engine: "winding_height",
+        label: "Bobbin height",
+        dim: Dim::Length,
+        optional: false,
+        help: "Radial build the bobbin allows",
+    },
+    Def {
+        key: "cc-mlt",
+        engine: "turn_length_inner",
+        label: "Turn on bobbin",
+        dim: Dim::Length,
+        optional: false,
+        help: "Length of one turn laid on the bobbin",
+    },
+    Def {
+        key: "cc-surface",
+        engine: "surface_area",
+        label: "Outer surface",
+        dim: Dim::Surface,
+        optional: false,
+        help: "Outer surface of the assembled set (cooling)",
+    },
+    Def {
+        key: "cc-mass",
+        engine: "mass",
+        label: "Mass (set)",
+        dim: Dim::Mass,
+        optional: true,
+        help: "Empty: Ve × a typical ferrite density",
+    },
 ];
 
 /// The custom core's texts in display units, from a core.
@@ -684,7 +793,11 @@ fn check_core(name: &str, family: &str, texts: &[String; 10]) -> CoreCheck {
         errors.push(("cc-name", "give the core a name".to_string()));
     }
     if !errors.is_empty() {
-        return CoreCheck { errors, general: None, ok: None };
+        return CoreCheck {
+            errors,
+            general: None,
+            ok: None,
+        };
     }
     let req = |i: usize| vals[i].unwrap_or(0.0);
     let p = Effective {
@@ -702,7 +815,11 @@ fn check_core(name: &str, family: &str, texts: &[String; 10]) -> CoreCheck {
         mass: vals[9],
     };
     match Core::from_effective(name, &p) {
-        Ok(_) => CoreCheck { errors, general: None, ok: Some((name.trim().to_string(), p)) },
+        Ok(_) => CoreCheck {
+            errors,
+            general: None,
+            ok: Some((name.trim().to_string(), p)),
+        },
         Err(e) => {
             let at = e.field().and_then(|f| {
                 if f == "designation" {
@@ -712,8 +829,16 @@ fn check_core(name: &str, family: &str, texts: &[String; 10]) -> CoreCheck {
                 }
             });
             match at {
-                Some(k) => CoreCheck { errors: vec![(k, e.message().to_string())], general: None, ok: None },
-                None => CoreCheck { errors, general: Some(e.message().to_string()), ok: None },
+                Some(k) => CoreCheck {
+                    errors: vec![(k, e.message().to_string())],
+                    general: None,
+                    ok: None,
+                },
+                None => CoreCheck {
+                    errors,
+                    general: Some(e.message().to_string()),
+                    ok: None,
+                },
             }
         }
     }
@@ -788,13 +913,22 @@ fn CustomCore(form: Form) -> impl IntoView {
     let applied = RwSignal::new(false);
     let use_it = move |_| {
         if let Some((designation, parameters)) = check.get_untracked().ok {
-            form.core.set(CoreChoice::Effective { designation, parameters });
+            form.core.set(CoreChoice::Effective {
+                designation,
+                parameters,
+            });
             applied.set(true);
         }
     };
     let in_use = move || {
         check.with(|c| match (&c.ok, form.core.get()) {
-            (Some((d, p)), CoreChoice::Effective { designation, parameters }) => *d == designation && *p == parameters,
+            (
+                Some((d, p)),
+                CoreChoice::Effective {
+                    designation,
+                    parameters,
+                },
+            ) => *d == designation && *p == parameters,
             _ => false,
         })
     };
@@ -805,11 +939,15 @@ fn CustomCore(form: Form) -> impl IntoView {
             let text = texts[i];
             let dim = d.dim;
             let echo = Signal::derive(move || match parse_dim(&text.get(), dim) {
-                Ok(Some((v, true))) => Some(format!("= {}", notation::format(v, dim.si(), 4))),
+                Ok(Some((v, true))) => Some(format!("= {} {}", sig(v / dim.scale(), 4), dim.unit())),
                 _ => None,
             });
             let unit = d.dim.unit();
-            let label = if d.optional { format!("{} (optional)", d.label) } else { d.label.to_string() };
+            let label = if d.optional {
+                format!("{} (optional)", d.label)
+            } else {
+                d.label.to_string()
+            };
             view! { <Entry key=d.key label=label unit=unit text=text error=error_at(d.key) echo=echo help=d.help /> }
         })
         .collect_view();
@@ -910,9 +1048,9 @@ fn MaterialData(form: Form) -> impl IntoView {
                     <tr><th scope="row">"Material"</th><td class="text" data-testid="mat-name">{m.name.clone()}</td></tr>
                     <tr><td class="text" colspan="2">{m.description.clone()}</td></tr>
                     <tr><th scope="row">"μi"</th><td data-testid="mat-mu" data-si=si_attr(m.mu_i)>{sig(m.mu_i, 4)}</td></tr>
-                    {figure("mat-bsat25", "Bsat at 25 °C", m.bsat_25, 1e-3, "mT")}
-                    {figure("mat-bsat100", "Bsat at 100 °C", m.bsat_100, 1e-3, "mT")}
-                    {figure("mat-curie", "Curie temperature", m.curie_c, 1.0, "°C")}
+                    {figure_n("mat-bsat25", "Bsat at 25 °C", m.bsat_25, 1e-3, "mT", 3)}
+                    {figure_n("mat-bsat100", "Bsat at 100 °C", m.bsat_100, 1e-3, "mT", 3)}
+                    {figure_n("mat-curie", "Curie temperature", m.curie_c, 1.0, "°C", 3)}
                     {steinmetz_rows("mat", &m.steinmetz)}
                     <tr>
                         <th scope="row" title="k holds here; the loss rises as 1 + c·(T − Tref)² either side">"k holds at"</th>
@@ -920,8 +1058,8 @@ fn MaterialData(form: Form) -> impl IntoView {
                             {match t_ref { Some(t) => format!("{} °C (loss minimum)", sig(t, 3)), None => "any temperature (flat)".into() }}
                         </td>
                     </tr>
-                    {figure("mat-resistivity", "Resistivity", m.resistivity, 1.0, "Ω·m")}
-                    {figure("mat-density", "Density", m.density, 1.0, "kg/m³")}
+                    {figure_n("mat-resistivity", "Resistivity", m.resistivity, 1.0, "Ω·m", 3)}
+                    {figure_n("mat-density", "Density", m.density, 1.0, "kg/m³", 3)}
                 </table>
                 <p class="prov" data-testid="mat-provenance">{m.provenance.clone()}</p>
             }
@@ -943,7 +1081,11 @@ fn FittedMaterial(form: Form) -> impl IntoView {
         pasted.with(|p| match p {
             Err(m) => Some(Err(m.clone())),
             Ok(p) if p.points.is_empty() => None,
-            Ok(p) => Some(fit::fit(&p.points).map(|f| (f, p.points.len())).map_err(|e| point_error(&e, &p.lines))),
+            Ok(p) => Some(
+                fit::fit(&p.points)
+                    .map(|f| (f, p.points.len()))
+                    .map_err(|e| point_error(&e, &p.lines)),
+            ),
         })
     });
     let base = Memo::new(move |_| material_of(&form.material.get()));
@@ -954,7 +1096,9 @@ fn FittedMaterial(form: Form) -> impl IntoView {
         status.set(None);
     });
     let use_it = move |_| {
-        let Some(Ok((lf, n))) = result.get_untracked() else { return };
+        let Some(Ok((lf, n))) = result.get_untracked() else {
+            return;
+        };
         let base = match base.get_untracked() {
             Ok(b) => b,
             Err(e) => return status.set(Some(Err(e.message().to_string()))),
@@ -986,15 +1130,20 @@ fn FittedMaterial(form: Form) -> impl IntoView {
         None => view! { <p class="note">"Paste measured points to fit k, α and β."</p> }.into_any(),
         Some(Err(m)) => view! { <p class="bad" role="alert" data-testid="fit-error">{m}</p> }.into_any(),
         Some(Ok((lf, n))) => {
-            let temps = lf.temperatures.iter().map(|t| format!("{} °C", sig(*t, 3))).collect::<Vec<_>>().join(", ");
+            let temps = lf
+                .temperatures
+                .iter()
+                .map(|t| format!("{} °C", sig(*t, 3)))
+                .collect::<Vec<_>>()
+                .join(", ");
             view! {
                 <table class="data" data-testid="fit-result" aria-label="The fitted loss model">
                     <tr><th scope="row">"Points"</th><td data-testid="fit-n" data-si=n.to_string()>{n}</td></tr>
                     {steinmetz_rows("fit", &lf.steinmetz)}
-                    {figure("fit-tref", "k holds at", lf.reference_temperature, 1.0, "°C")}
+                    {figure_n("fit-tref", "k holds at", lf.reference_temperature, 1.0, "°C", 3)}
                     <tr><th scope="row">"Temperatures"</th><td class="text">{temps}</td></tr>
-                    {figure("fit-max-err", "Largest error", lf.max_error_pct, 1.0, "%")}
-                    {figure("fit-rms-err", "RMS error", lf.rms_error_pct, 1.0, "%")}
+                    <tr><th scope="row">"Largest error"</th><td data-testid="fit-max-err" data-si=si_attr(lf.max_error_pct)>{pct(lf.max_error_pct)}</td></tr>
+                    <tr><th scope="row">"RMS error"</th><td data-testid="fit-rms-err" data-si=si_attr(lf.rms_error_pct)>{pct(lf.rms_error_pct)}</td></tr>
                 </table>
                 <ul class="notes" data-testid="fit-notes">{lf.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
             }
@@ -1064,9 +1213,19 @@ mod tests {
         let p = parse_points("f B T Pv\n\n100k 0.1 100 80k  # first\n200 kHz, 100 mT, 25 °C, 195 kW/m³\n").unwrap();
         assert!(p.header);
         assert_eq!(p.lines, vec![3, 4]);
-        assert_eq!(p.points[0], LossPoint { f: 100e3, b: 0.1, temp_c: 100.0, pv: 80e3 });
+        assert_eq!(
+            p.points[0],
+            LossPoint {
+                f: 100e3,
+                b: 0.1,
+                temp_c: 100.0,
+                pv: 80e3
+            }
+        );
         let q = p.points[1];
-        assert!((q.f - 200e3).abs() < 1e-9 && (q.b - 0.1).abs() < 1e-15 && q.temp_c == 25.0 && (q.pv - 195e3).abs() < 1e-9);
+        assert!(
+            (q.f - 200e3).abs() < 1e-9 && (q.b - 0.1).abs() < 1e-15 && q.temp_c == 25.0 && (q.pv - 195e3).abs() < 1e-9
+        );
         let e = parse_points("100k 0.1 100 80k\n100k 0.1 100").unwrap_err();
         assert!(e.contains("line 2") && e.contains("four"), "{e}");
         let e = parse_points("100k 0.1 100 80k\n100k x 100 5").unwrap_err();
@@ -1094,7 +1253,10 @@ mod tests {
         let mut bad = t;
         bad[0] = "-5".into();
         assert_eq!(check_core("Mine", "", &bad).errors.first().map(|e| e.0), Some("cc-ae"));
-        assert_eq!(check_core(" ", "", &texts_of(&c)).errors.first().map(|e| e.0), Some("cc-name"));
+        assert_eq!(
+            check_core(" ", "", &texts_of(&c)).errors.first().map(|e| e.0),
+            Some("cc-name")
+        );
     }
 
     #[test]
@@ -1103,7 +1265,9 @@ mod tests {
         assert!(!etd.is_empty() && etd.iter().all(|&i| cores::all()[i].family == "ETD"));
         let by_ve = select("", "", Order::VeUp);
         assert!(by_ve.windows(2).all(|w| cores::all()[w[0]].ve <= cores::all()[w[1]].ve));
-        assert!(select("", "etd34", Order::Library).iter().any(|&i| cores::all()[i].designation == "ETD 34"));
+        assert!(select("", "etd34", Order::Library)
+            .iter()
+            .any(|&i| cores::all()[i].designation == "ETD 34"));
     }
 
     #[test]
