@@ -1,42 +1,1281 @@
-//! Core and material: choose from the built-in libraries.
+//! Core and material: the built-in libraries, their data, and the user's own.
+//!
+//! What this panel does, top to bottom:
+//!
+//! * **Core**: a drop-down of every library core, a browser over the whole
+//!   library (filter by family, search the designation, sort by size, every
+//!   core's effective parameters and window in one table), and the data of
+//!   the core in use. The core in use can also be the user's own, defined by
+//!   effective parameters (IEC 60205 Ae, le, Amin) and window: the engine's
+//!   [`Core::from_effective`] checks it, and its messages land at the field
+//!   they name.
+//! * **Material**: a drop-down of the library grades and the data of the
+//!   grade in use (permeability, saturation, Curie point, Steinmetz
+//!   coefficients with the ranges they were fitted over, the reference
+//!   temperature of k, where the numbers come from). The material can also
+//!   be the user's own, fitted by the engine ([`fit::fit`]) to measured loss
+//!   points pasted as text; the fit takes μi, Bsat and the rest from the
+//!   grade in use ([`fit::LossFit::apply_to`]).
+//!
+//! Nothing here computes physics: every number shown is a field of an
+//! engine value (a library [`Core`] or [`Material`], a [`fit::LossFit`]).
+//! What the panel does itself is text handling at the edge: reading
+//! "52.6 mm" or "1.2 cm²" into SI, reading pasted measurement rows, and
+//! showing SI values in the units a datasheet uses (mm, mm², cm³, g).
 
 use crate::form::{field_error, Form, Outcome};
+use leptos::html::{Button, Input};
 use leptos::prelude::*;
-use magwright_engine::core::library as cores;
+use magwright_engine::core::{library as cores, Core, Effective};
 use magwright_engine::design::{CoreChoice, MaterialChoice};
-use magwright_engine::material::library as materials;
+use magwright_engine::material::fit::{self, LossFit, LossPoint};
+use magwright_engine::material::{library as materials, Material};
+use magwright_engine::{notation, Error};
 
-/// The core and material drop-downs.
+const CSS: &str = r#"
+.lib .row-buttons { display:flex; flex-wrap:wrap; gap:.3rem; margin:.1rem 0 .4rem; }
+.lib table.data { border-collapse:collapse; width:100%; font-size:.86em; margin-bottom:.5rem; }
+.lib table.data th { text-align:left; font-weight:normal; color:var(--muted); padding:.1rem .5rem .1rem 0; vertical-align:top; }
+.lib table.data td { text-align:right; font-variant-numeric:tabular-nums; padding:.1rem 0; }
+.lib table.data tr + tr { border-top:1px solid #eef0f3; }
+.lib table.data td.text { text-align:left; white-space:normal; }
+.lib .prov { font-size:.8em; color:var(--muted); margin:.1rem 0 .5rem; }
+.lib details { border:1px solid var(--line); border-radius:4px; padding:.3rem .5rem; margin:.4rem 0; }
+.lib details > summary { cursor:pointer; font-weight:600; font-size:.92em; }
+.lib details[open] > summary { margin-bottom:.3rem; }
+.lib .entry-echo { font-size:.76em; color:var(--muted); min-height:0; }
+.lib textarea { width:100%; box-sizing:border-box; min-height:8em; font:.85em/1.35 ui-monospace, SFMono-Regular, Menlo, Consolas, monospace; border:1px solid #9aa4b1; border-radius:4px; padding:.3rem; color:var(--ink); }
+.lib .bad { color:var(--bad); font-size:.85em; }
+.lib .note { font-size:.82em; color:var(--muted); margin:.2rem 0; }
+.lib ul.notes { font-size:.82em; margin:.2rem 0 .4rem 1.1rem; padding:0; color:var(--warn); }
+.lib-overlay { position:fixed; inset:0; background:rgba(20,28,38,.45); z-index:20; display:flex; align-items:flex-start; justify-content:center; padding:3vh 1rem; }
+.lib-overlay.hidden { display:none; }
+.lib-dialog { background:#fff; border-radius:6px; box-shadow:0 8px 30px rgba(0,0,0,.3); width:min(1180px, 100%); max-height:94vh; display:flex; flex-direction:column; padding:.7rem .9rem; box-sizing:border-box; }
+.lib-dialog h3 { margin:0 0 .4rem; font-size:1.05em; }
+.lib-dialog .filters { display:flex; flex-wrap:wrap; gap:.6rem; align-items:end; margin-bottom:.4rem; }
+.lib-dialog .filters label { display:block; font-weight:600; font-size:.84em; }
+.lib-dialog .filters input, .lib-dialog .filters select { font:inherit; padding:.25rem .4rem; border:1px solid #9aa4b1; border-radius:4px; }
+.lib-dialog .scroll { overflow:auto; border:1px solid var(--line); border-radius:4px; }
+.lib-dialog table { border-collapse:collapse; font-size:.84em; width:100%; }
+.lib-dialog thead th { position:sticky; top:0; background:#f3f5f7; font-weight:600; text-align:right; padding:.25rem .45rem; border-bottom:1px solid var(--line); vertical-align:bottom; }
+.lib-dialog thead th.text, .lib-dialog td.text { text-align:left; }
+.lib-dialog tbody th { white-space:nowrap; font-weight:600; padding:.16rem .45rem; }
+.lib-dialog td { text-align:right; font-variant-numeric:tabular-nums; padding:.16rem .45rem; white-space:nowrap; }
+.lib-dialog td.src { white-space:normal; min-width:14em; color:var(--muted); font-size:.92em; }
+.lib-dialog tbody tr:nth-child(even) { background:#fafbfc; }
+.lib-dialog tbody tr.current { background:#e6effa; }
+.lib-dialog .count { font-size:.85em; color:var(--muted); }
+"#;
+
+// ---------------------------------------------------------------------------
+// Text at the edge: numbers in datasheet units, pasted measurement rows.
+
+/// The display unit of a custom-core entry, and the units a user may type.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Dim {
+    /// Millimetres unless a unit is typed.
+    Length,
+    /// Square millimetres unless a unit is typed.
+    Area,
+    /// Square centimetres unless a unit is typed (outer surfaces).
+    Surface,
+    /// Grams unless a unit is typed.
+    Mass,
+}
+
+impl Dim {
+    /// The unit a plain number is in.
+    fn unit(self) -> &'static str {
+        match self {
+            Dim::Length => "mm",
+            Dim::Area => "mm²",
+            Dim::Surface => "cm²",
+            Dim::Mass => "g",
+        }
+    }
+    /// SI value of one display unit.
+    fn scale(self) -> f64 {
+        match self {
+            Dim::Length => 1e-3,
+            Dim::Area => 1e-6,
+            Dim::Surface => 1e-4,
+            Dim::Mass => 1e-3,
+        }
+    }
+    /// Units that may follow the number, with their SI value (longer
+    /// suffixes first, so "mm" is not read as "m").
+    fn suffixes(self) -> &'static [(&'static str, f64)] {
+        match self {
+            Dim::Length => &[("mm", 1e-3), ("cm", 1e-2), ("µm", 1e-6), ("um", 1e-6), ("m", 1.0)],
+            Dim::Area | Dim::Surface => &[
+                ("mm²", 1e-6),
+                ("mm2", 1e-6),
+                ("cm²", 1e-4),
+                ("cm2", 1e-4),
+                ("m²", 1.0),
+                ("m2", 1.0),
+            ],
+            Dim::Mass => &[("kg", 1.0), ("mg", 1e-6), ("g", 1e-3)],
+        }
+    }
+}
+
+/// Reads a custom-core entry into SI: a number (SI multiplier prefixes
+/// allowed, "1.2k") in the field's display unit, or followed by an explicit
+/// unit ("52.6 mm", "5.2 cm", "0.0526 m", "173 mm²", "1.7 cm2"). Returns the
+/// value and whether a unit was typed. An empty text is `Ok(None)`.
+fn parse_dim(text: &str, dim: Dim) -> Result<Option<(f64, bool)>, String> {
+    let t = text.trim();
+    if t.is_empty() {
+        return Ok(None);
+    }
+    for (suffix, scale) in dim.suffixes() {
+        if let Some(rest) = t.strip_suffix(suffix) {
+            let rest = rest.trim_end();
+            if !rest.is_empty() {
+                if let Ok(v) = notation::parse(rest, "") {
+                    return Ok(Some((v * scale, true)));
+                }
+            }
+        }
+    }
+    notation::parse(t, "")
+        .map(|v| Some((v * dim.scale(), false)))
+        .map_err(|e| e.to_string())
+}
+
+/// One line of pasted measurements, split into its four values. Tabs and
+/// semicolons separate (spaces may then sit inside a value, "100 kHz");
+/// else whitespace (a trailing comma dropped, "100k, 0.1, ..."; a comma
+/// inside a value is a decimal comma, "0,1"); else commas too.
+fn split_row(line: &str) -> Vec<&str> {
+    let by = |sep: &dyn Fn(char) -> bool| -> Vec<&str> {
+        line.split(|c: char| sep(c))
+            .map(|s| s.trim().trim_end_matches(',').trim_end())
+            .filter(|s| !s.is_empty())
+            .collect()
+    };
+    let strong = by(&|c| c == '\t' || c == ';');
+    if strong.len() == 4 {
+        return strong;
+    }
+    let loose = by(&|c| c.is_whitespace() || c == ';');
+    if loose.len() == 4 {
+        return loose;
+    }
+    let commas = by(&|c| c == '\t' || c == ';' || c == ',');
+    if commas.len() == 4 {
+        return commas;
+    }
+    by(&|c| c.is_whitespace() || c == ';' || c == ',')
+}
+
+/// Measured points read from pasted text, with the line each came from.
+#[derive(Debug, Clone, PartialEq)]
+struct Pasted {
+    points: Vec<LossPoint>,
+    /// 1-based line number of each point.
+    lines: Vec<usize>,
+    /// A header line was skipped.
+    header: bool,
+}
+
+/// Column names and the unit symbol each value may carry.
+const COLUMNS: [(&str, &str); 4] = [("f", "Hz"), ("B", "T"), ("T", "°C"), ("Pv", "W/m³")];
+
+/// Reads rows "f B T Pv" (Hz, T peak, °C, W/m³; SI prefixes allowed, e.g.
+/// "100k 0.1 100 80k" or "100 kHz, 100 mT, 100, 80 kW/m³"). Empty lines and
+/// text after `#` are ignored; a first line that is not numbers is taken
+/// as a header. Errors name the line.
+fn parse_points(text: &str) -> Result<Pasted, String> {
+    let mut out = Pasted {
+        points: Vec::new(),
+        lines: Vec::new(),
+        header: false,
+    };
+    for (i, raw) in text.lines().enumerate() {
+        let line_no = i + 1;
+        let line = raw.split('#').next().unwrap_or("").trim();
+        if line.is_empty() {
+            continue;
+        }
+        let cells = split_row(line);
+        let mut vals = [0.0; 4];
+        let mut bad = None;
+        if cells.len() == 4 {
+            for (j, (cell, (_, unit))) in cells.iter().zip(COLUMNS).enumerate() {
+                let v = notation::parse(cell, unit)
+                    .or_else(|_| notation::parse(cell.trim_end_matches("W/m3"), ""))
+                    .or_else(|_| notation::parse(cell.trim_end_matches('C').trim_end_matches('°'), ""));
+                match v {
+                    Ok(v) => vals[j] = v,
+                    Err(e) => {
+                        bad = Some(format!("line {line_no}, {}: {e}", COLUMNS[j].0));
+                        break;
+                    }
+                }
+            }
+        }
+        let first = out.points.is_empty() && !out.header;
+        match (cells.len(), bad) {
+            (4, None) => {
+                out.points.push(LossPoint {
+                    f: vals[0],
+                    b: vals[1],
+                    temp_c: vals[2],
+                    pv: vals[3],
+                });
+                out.lines.push(line_no);
+            }
+            // A first line that is not all numbers: a header ("f B T Pv").
+            _ if first && cells.iter().all(|c| notation::parse(c, "").is_err()) => out.header = true,
+            (4, Some(msg)) => return Err(msg),
+            (n, _) => {
+                return Err(format!(
+                    "line {line_no} has {n} value{}; each line needs four: f (Hz), B peak (T), T (°C), Pv (W/m³)",
+                    if n == 1 { "" } else { "s" }
+                ))
+            }
+        }
+    }
+    Ok(out)
+}
+
+/// An engine error about `points[i].x`, told by the pasted line it came from.
+fn point_error(e: &Error, lines: &[usize]) -> String {
+    let Some(rest) = e.field().and_then(|f| f.strip_prefix("points[")) else {
+        return e.message().to_string();
+    };
+    let Some((index, name)) = rest.split_once("].") else {
+        return e.message().to_string();
+    };
+    let column = match name {
+        "f" => "f",
+        "b" => "B",
+        "temp_c" => "T",
+        "pv" => "Pv",
+        other => other,
+    };
+    match index.parse::<usize>().ok().and_then(|i| lines.get(i)) {
+        Some(l) => format!("line {l}, {column}: {}", e.message()),
+        None => e.message().to_string(),
+    }
+}
+
+// ---------------------------------------------------------------------------
+// Showing SI values in datasheet units.
+
+/// `x` with `n` significant figures, without an exponent.
+fn sig(x: f64, n: i32) -> String {
+    if !x.is_finite() {
+        return "—".into();
+    }
+    if x == 0.0 {
+        return "0".into();
+    }
+    let mag = x.abs().log10().floor() as i32;
+    let dec = (n - 1 - mag).max(0) as usize;
+    format!("{x:.dec$}")
+}
+
+/// A coefficient that may span many decades (Steinmetz k): plain when
+/// between 0.01 and 10 000, else "1.234e-3".
+fn coef(x: f64) -> String {
+    if x.is_finite() && x != 0.0 && !(0.01..1e4).contains(&x.abs()) {
+        format!("{x:.4e}")
+    } else {
+        sig(x, 4)
+    }
+}
+
+/// A percentage: three figures, or an exponent below 0.01 %.
+fn pct(v: f64) -> String {
+    if v.is_finite() && v != 0.0 && v.abs() < 0.01 {
+        format!("{v:.1e} %")
+    } else {
+        format!("{} %", sig(v, 3))
+    }
+}
+
+fn si_attr(v: f64) -> String {
+    format!("{v:e}")
+}
+
+/// One labelled figure: SI value in `data-si`, shown as `v/scale unit`.
+fn figure(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'static str) -> impl IntoView {
+    figure_n(id, label, v, scale, unit, 4)
+}
+
+/// [`figure`] with `n` significant figures.
+fn figure_n(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'static str, n: i32) -> impl IntoView {
+    view! {
+        <tr>
+            <th scope="row">{label}</th>
+            <td data-testid=id data-si=si_attr(v)>{format!("{} {unit}", sig(v / scale, n))}</td>
+        </tr>
+    }
+}
+
+/// The first clause of a provenance note (the rest goes in a tooltip).
+fn short_source(p: &str) -> &str {
+    p.split(';').next().unwrap_or(p).trim()
+}
+
+// ---------------------------------------------------------------------------
+// What the form's choices resolve to (engine calls only).
+
+fn core_of(c: &CoreChoice) -> Result<Core, Error> {
+    match c {
+        CoreChoice::Library { designation } => cores::find(designation),
+        CoreChoice::Shape { designation, shape } => Core::from_shape(designation, shape.clone()),
+        CoreChoice::Effective {
+            designation,
+            parameters,
+        } => Core::from_effective(designation, parameters),
+    }
+}
+
+fn material_of(m: &MaterialChoice) -> Result<Material, Error> {
+    match m {
+        MaterialChoice::Library { name } => materials::find(name),
+        MaterialChoice::Custom { material } => Ok(material.clone()),
+    }
+}
+
+/// The effective parameters of a core, as a starting point for the user's own.
+fn effective_of(c: &Core) -> Effective {
+    Effective {
+        family: c.family.clone(),
+        ae: c.ae,
+        le: c.le,
+        ve: None,
+        amin: Some(c.amin),
+        window_area: c.window_area,
+        window_height: Some(c.window_height),
+        winding_breadth: c.winding_breadth,
+        winding_height: c.winding_height,
+        turn_length_inner: c.turn_length_inner,
+        surface_area: c.surface_area,
+        mass: (c.mass > 0.0).then_some(c.mass),
+    }
+}
+
+// ---------------------------------------------------------------------------
+// The panel.
+
+/// The core and material: choose, browse, inspect, or define your own.
 #[component]
 pub fn Library(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
-    let core_names: Vec<String> = cores::cores().into_iter().map(|c| c.designation).collect();
-    let material_names: Vec<String> = materials::materials().into_iter().map(|m| m.name).collect();
-    let core_err = field_error(outcome, "core");
-    let mat_err = field_error(outcome, "material");
-    let core_now = move || match form.core.get() {
-        CoreChoice::Library { designation } => designation,
-        CoreChoice::Shape { designation, .. } | CoreChoice::Effective { designation, .. } => designation,
-    };
-    let mat_now = move || match form.material.get() {
-        MaterialChoice::Library { name } => name,
-        MaterialChoice::Custom { material } => material.name,
-    };
+    let browsing = RwSignal::new(false);
     view! {
-        <div class="fields">
-            <div class="field" class:invalid=move || core_err.get().is_some()>
-                <label for="f-core">"Core"</label>
-                <select id="f-core" on:change:target=move |ev| form.core.set(CoreChoice::Library { designation: ev.target().value() })>
-                    {core_names.into_iter().map(|n| { let m = n.clone(); let v = n.clone(); view! { <option value=v prop:selected=move || core_now() == m>{n}</option> } }).collect_view()}
-                </select>
-                <div class="msg" id="e-core" role="alert">{move || core_err.get().unwrap_or_default()}</div>
-            </div>
-            <div class="field" class:invalid=move || mat_err.get().is_some()>
-                <label for="f-material">"Material"</label>
-                <select id="f-material" on:change:target=move |ev| form.material.set(MaterialChoice::Library { name: ev.target().value() })>
-                    {material_names.into_iter().map(|n| { let m = n.clone(); let v = n.clone(); view! { <option value=v prop:selected=move || mat_now() == m>{n}</option> } }).collect_view()}
-                </select>
-                <div class="msg" id="e-material" role="alert">{move || mat_err.get().unwrap_or_default()}</div>
+        <style>{CSS}</style>
+        <div class="lib">
+            <CorePick form=form outcome=outcome browsing=browsing />
+            <CoreData form=form />
+            <CustomCore form=form />
+            <MaterialPick form=form outcome=outcome />
+            <MaterialData form=form />
+            <FittedMaterial form=form />
+        </div>
+        <CoreBrowser form=form open=browsing />
+    }
+}
+
+/// The core drop-down and the library browser's button.
+#[component]
+fn CorePick(form: Form, outcome: Memo<Outcome>, browsing: RwSignal<bool>) -> impl IntoView {
+    let core_err = field_error(outcome, "core");
+    let library_now = move || match form.core.get() {
+        CoreChoice::Library { designation } => Some(designation),
+        _ => None,
+    };
+    let own = move || match form.core.get() {
+        CoreChoice::Library { .. } => None,
+        CoreChoice::Shape { designation, .. } | CoreChoice::Effective { designation, .. } => Some(designation),
+    };
+    let options = cores::all()
+        .iter()
+        .map(|c| {
+            let d = c.designation.as_str();
+            view! { <option value=d prop:selected=move || library_now().as_deref() == Some(d)>{d}</option> }
+        })
+        .collect_view();
+    let browse_button = NodeRef::<Button>::new();
+    // Focus back on the button when the browser closes.
+    Effect::new(move |was_open: Option<bool>| {
+        let open = browsing.get();
+        if was_open == Some(true) && !open {
+            if let Some(b) = browse_button.get() {
+                let _ = b.focus();
+            }
+        }
+        open
+    });
+    view! {
+        <div class="field" class:invalid=move || core_err.get().is_some()>
+            <label for="f-core">"Core"</label>
+            <select
+                id="f-core"
+                on:change:target=move |ev| {
+                    let v = ev.target().value();
+                    if !v.is_empty() {
+                        form.core.set(CoreChoice::Library { designation: v });
+                    }
+                }
+            >
+                {move || own().map(|d| view! { <option value="" selected>{format!("Your own: {d}")}</option> })}
+                {options}
+            </select>
+            <div class="msg" id="e-core" role="alert">{move || core_err.get().unwrap_or_default()}</div>
+        </div>
+        <div class="row-buttons">
+            <button type="button" class="small" data-testid="browse-cores" node_ref=browse_button
+                aria-haspopup="dialog" on:click=move |_| browsing.set(true)>"Browse the core library…"</button>
+        </div>
+    }
+}
+
+/// The data of the core in use.
+#[component]
+fn CoreData(form: Form) -> impl IntoView {
+    let core = Memo::new(move |_| core_of(&form.core.get()));
+    move || match core.get() {
+        Err(e) => view! { <p class="bad" data-testid="core-data-error">{e.message().to_string()}</p> }.into_any(),
+        Ok(c) => {
+            let title = if c.family.is_empty() {
+                c.designation.clone()
+            } else {
+                format!("{} ({})", c.designation, c.family)
+            };
+            view! {
+                <table class="data" data-testid="core-data" aria-label="Data of the core in use">
+                    <tr><th scope="row">"Core"</th><td class="text" data-testid="core-designation">{title}</td></tr>
+                    {figure("core-ae", "Ae", c.ae, 1e-6, "mm²")}
+                    {figure("core-le", "le", c.le, 1e-3, "mm")}
+                    {figure("core-ve", "Ve", c.ve, 1e-6, "cm³")}
+                    {figure("core-amin", "Amin", c.amin, 1e-6, "mm²")}
+                    {figure("core-wa", "Window area Wa", c.window_area, 1e-6, "mm²")}
+                    {figure("core-g", "Window height", c.window_height, 1e-3, "mm")}
+                    <tr>
+                        <th scope="row">"Bobbin breadth × height"</th>
+                        <td>
+                            <span data-testid="core-breadth" data-si=si_attr(c.winding_breadth)>{sig(c.winding_breadth * 1e3, 3)}</span>
+                            " × "
+                            <span data-testid="core-height" data-si=si_attr(c.winding_height)>{sig(c.winding_height * 1e3, 3)}</span>
+                            " mm"
+                        </td>
+                    </tr>
+                    {figure("core-mlt", "Turn length on bobbin", c.turn_length_inner, 1e-3, "mm")}
+                    {figure("core-surface", "Outer surface", c.surface_area, 1e-4, "cm²")}
+                    {figure("core-mass", "Mass (set)", c.mass, 1e-3, "g")}
+                </table>
+                <p class="prov" data-testid="core-provenance">{c.provenance.clone()}</p>
+            }
+            .into_any()
+        }
+    }
+}
+
+/// How the browser orders the cores.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Order {
+    Library,
+    VeUp,
+    VeDown,
+    AeUp,
+    WaUp,
+}
+
+const ORDERS: [(Order, &str); 5] = [
+    (Order::Library, "Library order (family, size)"),
+    (Order::VeUp, "Ve, smallest first"),
+    (Order::VeDown, "Ve, largest first"),
+    (Order::AeUp, "Ae, smallest first"),
+    (Order::WaUp, "Window area, smallest first"),
+];
+
+/// Designation contains the search text (case and spaces ignored).
+fn matches(designation: &str, search: &str) -> bool {
+    let norm = |s: &str| {
+        s.chars()
+            .filter(|c| !c.is_whitespace())
+            .flat_map(char::to_lowercase)
+            .collect::<String>()
+    };
+    norm(designation).contains(&norm(search))
+}
+
+/// The library cores that pass the filters, in the chosen order (indices
+/// into [`cores::all`]).
+fn select(family: &str, search: &str, order: Order) -> Vec<usize> {
+    let all = cores::all();
+    let mut v: Vec<usize> = (0..all.len())
+        .filter(|&i| family.is_empty() || all[i].family == family)
+        .filter(|&i| matches(&all[i].designation, search))
+        .collect();
+    let key = |i: &usize| -> f64 {
+        let c = &all[*i];
+        match order {
+            Order::Library => *i as f64,
+            Order::VeUp => c.ve,
+            Order::VeDown => -c.ve,
+            Order::AeUp => c.ae,
+            Order::WaUp => c.window_area,
+        }
+    };
+    v.sort_by(|a, b| key(a).total_cmp(&key(b)));
+    v
+}
+
+/// The whole library in one table, over the page; picking a core uses it.
+#[component]
+fn CoreBrowser(form: Form, open: RwSignal<bool>) -> impl IntoView {
+    let family = RwSignal::new(String::new());
+    let search = RwSignal::new(String::new());
+    let order = RwSignal::new(Order::Library);
+    let shown = Memo::new(move |_| select(&family.get(), &search.get(), order.get()));
+    let search_box = NodeRef::<Input>::new();
+    Effect::new(move |_| {
+        if open.get() {
+            if let Some(i) = search_box.get() {
+                let _ = i.focus();
+            }
+        }
+    });
+    let current = move || match form.core.get() {
+        CoreChoice::Library { designation } => Some(designation),
+        _ => None,
+    };
+    let pick = move |d: &str| {
+        form.core.set(CoreChoice::Library {
+            designation: d.to_string(),
+        });
+        open.set(false);
+    };
+    let rows = move || {
+        let all = cores::all();
+        shown
+            .get()
+            .into_iter()
+            .filter_map(|i| all.get(i))
+            .map(|c| {
+                let d = c.designation.as_str();
+                let is_current = move || current().as_deref() == Some(d);
+                let cell = |v: f64, scale: f64, n: i32| view! { <td data-si=si_attr(v)>{sig(v / scale, n)}</td> };
+                view! {
+                    <tr data-designation=d class:current=is_current aria-current=move || is_current().then_some("true")>
+                        <td class="text"><button type="button" class="small" data-testid="use-core"
+                            aria-label=format!("Use {d}") on:click=move |_| pick(d)>"Use"</button></td>
+                        <th scope="row" class="text" title=c.provenance.clone()>{d}</th>
+                        <td class="text">{c.family.clone()}</td>
+                        {cell(c.ae, 1e-6, 3)}
+                        {cell(c.le, 1e-3, 3)}
+                        {cell(c.ve, 1e-6, 3)}
+                        {cell(c.amin, 1e-6, 3)}
+                        {cell(c.window_area, 1e-6, 3)}
+                        {cell(c.window_height, 1e-3, 3)}
+                        <td data-si=si_attr(c.winding_breadth)>{format!("{} × {}", sig(c.winding_breadth * 1e3, 3), sig(c.winding_height * 1e3, 3))}</td>
+                        {cell(c.turn_length_inner, 1e-3, 3)}
+                        {cell(c.surface_area, 1e-4, 3)}
+                        {cell(c.mass, 1e-3, 3)}
+                        <td class="src text" title=c.provenance.clone()>{short_source(&c.provenance).to_string()}</td>
+                    </tr>
+                }
+            })
+            .collect_view()
+    };
+    let families = cores::families();
+    view! {
+        <div class="lib-overlay" class:hidden=move || !open.get() data-testid="core-browser"
+            on:keydown=move |ev: leptos::ev::KeyboardEvent| if ev.key() == "Escape" { open.set(false) }
+            on:click=move |ev: leptos::ev::MouseEvent| {
+                // A click on the shade outside the dialog closes it.
+                let outside = ev.target().zip(ev.current_target()).is_some_and(|(t, c)| t == c);
+                if outside { open.set(false) }
+            }>
+            <div class="lib-dialog" role="dialog" aria-modal="true" aria-labelledby="core-browser-h">
+                <h3 id="core-browser-h">"Core library"</h3>
+                <div class="filters">
+                    <div>
+                        <label for="lib-family">"Family"</label>
+                        <select id="lib-family" on:change:target=move |ev| family.set(ev.target().value())>
+                            <option value="">"All families"</option>
+                            {families.into_iter().map(|f| view! { <option value=f>{f}</option> }).collect_view()}
+                        </select>
+                    </div>
+                    <div>
+                        <label for="lib-search">"Designation contains"</label>
+                        <input id="lib-search" type="search" autocomplete="off" spellcheck="false" node_ref=search_box
+                            placeholder="e.g. 34 or PQ 26" prop:value=move || search.get()
+                            on:input:target=move |ev| search.set(ev.target().value()) />
+                    </div>
+                    <div>
+                        <label for="lib-order">"Order"</label>
+                        <select id="lib-order" on:change:target=move |ev| {
+                            if let Some((o, _)) = ev.target().value().parse::<usize>().ok().and_then(|i| ORDERS.get(i)) {
+                                order.set(*o);
+                            }
+                        }>
+                            {ORDERS.iter().enumerate().map(|(i, (_, l))| view! { <option value=i.to_string()>{*l}</option> }).collect_view()}
+                        </select>
+                    </div>
+                    <span class="count" data-testid="browser-count" role="status">
+                        {move || { let n = shown.with(Vec::len); format!("{n} core{}", if n == 1 { "" } else { "s" }) }}
+                    </span>
+                    <button type="button" data-testid="close-browser" on:click=move |_| open.set(false)>"Close"</button>
+                </div>
+                <div class="scroll">
+                    <table data-testid="core-table">
+                        <thead>
+                            <tr>
+                                <th scope="col" class="text"><span class="hidden">"Pick"</span></th>
+                                <th scope="col" class="text">"Core"</th>
+                                <th scope="col" class="text">"Family"</th>
+                                <th scope="col">"Ae mm²"</th>
+                                <th scope="col">"le mm"</th>
+                                <th scope="col">"Ve cm³"</th>
+                                <th scope="col">"Amin mm²"</th>
+                                <th scope="col">"Wa mm²"</th>
+                                <th scope="col">"Window height mm"</th>
+                                <th scope="col">"Bobbin b × h mm"</th>
+                                <th scope="col">"Turn on bobbin mm"</th>
+                                <th scope="col">"Surface cm²"</th>
+                                <th scope="col">"Mass g"</th>
+                                <th scope="col" class="text">"Source"</th>
+                            </tr>
+                        </thead>
+                        <tbody>{rows}</tbody>
+                    </table>
+                </div>
+                <p class="note">"Every value is computed by the engine from nominal dimensions recalled from memory (IEC 60205 method); use your supplier's data for a real design."</p>
             </div>
         </div>
+    }
+}
+
+/// One entry of the custom core.
+struct Def {
+    /// Element key: the input's id is `f-<key>`.
+    key: &'static str,
+    /// The engine's name for the field ([`Core::from_effective`] errors).
+    engine: &'static str,
+    label: &'static str,
+    dim: Dim,
+    optional: bool,
+    help: &'static str,
+}
+
+const CUSTOM: [Def; 10] = [
+    Def {
+        key: "cc-ae",
+        engine: "ae",
+        label: "Ae",
+        dim: Dim::Area,
+        optional: false,
+        help: "Effective area (IEC 60205)",
+    },
+    Def {
+        key: "cc-le",
+        engine: "le",
+        label: "le",
+        dim: Dim::Length,
+        optional: false,
+        help: "Effective magnetic path length (IEC 60205)",
+    },
+    Def {
+        key: "cc-amin",
+        engine: "amin",
+        label: "Amin",
+        dim: Dim::Area,
+        optional: true,
+        help: "Smallest section; empty: Ae",
+    },
+    Def {
+        key: "cc-wa",
+        engine: "window_area",
+        label: "Window area",
+        dim: Dim::Area,
+        optional: false,
+        help: "Core window area, one side",
+    },
+    Def {
+        key: "cc-g",
+        engine: "window_height",
+        label: "Window height",
+        dim: Dim::Length,
+        optional: true,
+        help: "Core window height along the centre leg; empty: the bobbin breadth",
+    },
+    Def {
+        key: "cc-breadth",
+        engine: "winding_breadth",
+        label: "Bobbin breadth",
+        dim: Dim::Length,
+        optional: false,
+        help: "Winding breadth of the bobbin, along the centre leg",
+    },
+    Def {
+        key: "cc-height",
+        engine: "winding_height",
+        label: "Bobbin height",
+        dim: Dim::Length,
+        optional: false,
+        help: "Radial build the bobbin allows",
+    },
+    Def {
+        key: "cc-mlt",
+        engine: "turn_length_inner",
+        label: "Turn on bobbin",
+        dim: Dim::Length,
+        optional: false,
+        help: "Length of one turn laid on the bobbin",
+    },
+    Def {
+        key: "cc-surface",
+        engine: "surface_area",
+        label: "Outer surface",
+        dim: Dim::Surface,
+        optional: false,
+        help: "Outer surface of the assembled set (cooling)",
+    },
+    Def {
+        key: "cc-mass",
+        engine: "mass",
+        label: "Mass (set)",
+        dim: Dim::Mass,
+        optional: true,
+        help: "Empty: Ve × a typical ferrite density",
+    },
+];
+
+/// The custom core's texts in display units, from a core.
+fn texts_of(c: &Core) -> [String; 10] {
+    let e = effective_of(c);
+    let vals = [
+        Some(e.ae),
+        Some(e.le),
+        e.amin,
+        Some(e.window_area),
+        e.window_height,
+        Some(e.winding_breadth),
+        Some(e.winding_height),
+        Some(e.turn_length_inner),
+        Some(e.surface_area),
+        e.mass,
+    ];
+    std::array::from_fn(|i| vals[i].map(|v| sig(v / CUSTOM[i].dim.scale(), 4)).unwrap_or_default())
+}
+
+/// What the custom-core entries say: messages per entry, or the core.
+#[derive(Debug, Clone, PartialEq)]
+struct CoreCheck {
+    /// (entry key, message).
+    errors: Vec<(&'static str, String)>,
+    /// A message about no single entry.
+    general: Option<String>,
+    /// The designation and parameters the engine accepted.
+    ok: Option<(String, Effective)>,
+}
+
+/// Reads the custom-core entries and has the engine check them.
+fn check_core(name: &str, family: &str, texts: &[String; 10]) -> CoreCheck {
+    let mut errors = Vec::new();
+    let mut vals = [None; 10];
+    for (i, d) in CUSTOM.iter().enumerate() {
+        match parse_dim(&texts[i], d.dim) {
+            Ok(Some((v, _))) => vals[i] = Some(v),
+            Ok(None) if d.optional => {}
+            Ok(None) => errors.push((d.key, "enter a value".to_string())),
+            Err(m) => errors.push((d.key, m)),
+        }
+    }
+    if name.trim().is_empty() {
+        errors.push(("cc-name", "give the core a name".to_string()));
+    }
+    if !errors.is_empty() {
+        return CoreCheck {
+            errors,
+            general: None,
+            ok: None,
+        };
+    }
+    let req = |i: usize| vals[i].unwrap_or(0.0);
+    let p = Effective {
+        family: family.trim().to_string(),
+        ae: req(0),
+        le: req(1),
+        ve: None,
+        amin: vals[2],
+        window_area: req(3),
+        window_height: vals[4],
+        winding_breadth: req(5),
+        winding_height: req(6),
+        turn_length_inner: req(7),
+        surface_area: req(8),
+        mass: vals[9],
+    };
+    match Core::from_effective(name, &p) {
+        Ok(_) => CoreCheck {
+            errors,
+            general: None,
+            ok: Some((name.trim().to_string(), p)),
+        },
+        Err(e) => {
+            let at = e.field().and_then(|f| {
+                if f == "designation" {
+                    Some("cc-name")
+                } else {
+                    CUSTOM.iter().find(|d| d.engine == f).map(|d| d.key)
+                }
+            });
+            match at {
+                Some(k) => CoreCheck {
+                    errors: vec![(k, e.message().to_string())],
+                    general: None,
+                    ok: None,
+                },
+                None => CoreCheck {
+                    errors,
+                    general: Some(e.message().to_string()),
+                    ok: None,
+                },
+            }
+        }
+    }
+}
+
+/// No message (for entries the engine never names).
+fn none() -> Signal<Option<String>> {
+    Signal::derive(|| None)
+}
+
+/// A text entry with a unit, a message, and an echo of what was read.
+#[component]
+fn Entry(
+    key: &'static str,
+    #[prop(into)] label: String,
+    unit: &'static str,
+    text: RwSignal<String>,
+    #[prop(into)] error: Signal<Option<String>>,
+    #[prop(into)] echo: Signal<Option<String>>,
+    #[prop(optional)] help: &'static str,
+) -> impl IntoView {
+    let id = format!("f-{key}");
+    let err_id = format!("e-{key}");
+    let invalid = move || error.get().is_some();
+    view! {
+        <div class="field" class:invalid=invalid>
+            <label for=id.clone() title=help>{label}</label>
+            <div class="entry">
+                <input id=id type="text" autocomplete="off" spellcheck="false"
+                    aria-invalid=move || if invalid() { "true" } else { "false" }
+                    aria-describedby=err_id.clone()
+                    prop:value=move || text.get()
+                    on:input:target=move |ev| text.set(ev.target().value()) />
+                <span class="unit">{unit}</span>
+            </div>
+            <div class="entry-echo">{move || echo.get().unwrap_or_default()}</div>
+            <div class="msg" id=err_id role="alert">{move || error.get().unwrap_or_default()}</div>
+        </div>
+    }
+}
+
+/// The user's own core by effective parameters.
+#[component]
+fn CustomCore(form: Form) -> impl IntoView {
+    let start = core_of(&form.core.get_untracked()).ok();
+    let name = RwSignal::new(match form.core.get_untracked() {
+        CoreChoice::Effective { designation, .. } => designation,
+        _ => "My core".to_string(),
+    });
+    let family = RwSignal::new(start.as_ref().map(|c| c.family.clone()).unwrap_or_default());
+    let texts: [RwSignal<String>; 10] = {
+        let t = start.as_ref().map(texts_of).unwrap_or_default();
+        std::array::from_fn(|i| RwSignal::new(t[i].clone()))
+    };
+    let check = Memo::new(move |_| {
+        let t: [String; 10] = std::array::from_fn(|i| texts[i].get());
+        check_core(&name.get(), &family.get(), &t)
+    });
+    let error_at = move |key: &'static str| {
+        Signal::derive(move || check.with(|c| c.errors.iter().find(|e| e.0 == key).map(|e| e.1.clone())))
+    };
+    let copy_current = move |_| {
+        if let Ok(c) = core_of(&form.core.get_untracked()) {
+            let t = texts_of(&c);
+            for (s, v) in texts.iter().zip(t) {
+                s.set(v);
+            }
+            family.set(c.family.clone());
+            name.set(format!("{} (edited)", c.designation));
+        }
+    };
+    let applied = RwSignal::new(false);
+    let use_it = move |_| {
+        if let Some((designation, parameters)) = check.get_untracked().ok {
+            form.core.set(CoreChoice::Effective {
+                designation,
+                parameters,
+            });
+            applied.set(true);
+        }
+    };
+    let in_use = move || {
+        check.with(|c| match (&c.ok, form.core.get()) {
+            (
+                Some((d, p)),
+                CoreChoice::Effective {
+                    designation,
+                    parameters,
+                },
+            ) => *d == designation && *p == parameters,
+            _ => false,
+        })
+    };
+    let fields = CUSTOM
+        .iter()
+        .enumerate()
+        .map(|(i, d)| {
+            let text = texts[i];
+            let dim = d.dim;
+            let echo = Signal::derive(move || match parse_dim(&text.get(), dim) {
+                Ok(Some((v, true))) => Some(format!("= {} {}", sig(v / dim.scale(), 4), dim.unit())),
+                _ => None,
+            });
+            let unit = d.dim.unit();
+            let label = if d.optional {
+                format!("{} (optional)", d.label)
+            } else {
+                d.label.to_string()
+            };
+            view! { <Entry key=d.key label=label unit=unit text=text error=error_at(d.key) echo=echo help=d.help /> }
+        })
+        .collect_view();
+    view! {
+        <details data-testid="custom-core">
+            <summary>"Your own core, by effective parameters"</summary>
+            <p class="note">"Numbers are in the unit shown unless you type one (mm, cm, m; mm², cm², m²; g, kg). SI prefixes work (1.2k)."</p>
+            <div class="row-buttons">
+                <button type="button" class="small" data-testid="copy-core" on:click=copy_current>"Start from the core in use"</button>
+            </div>
+            <div class="fields">
+                <Entry key="cc-name" label="Name" unit="" text=name error=error_at("cc-name") echo=none() />
+                <Entry key="cc-family" label="Family (optional)" unit="" text=family error=none() echo=none() />
+                {fields}
+            </div>
+            <p class="bad" role="alert" data-testid="custom-core-error">{move || check.with(|c| c.general.clone()).unwrap_or_default()}</p>
+            <button type="button" data-testid="use-custom-core" disabled=move || check.with(|c| c.ok.is_none())
+                on:click=use_it>"Use this core"</button>
+            <span class="note" role="status" data-testid="custom-core-state">
+                {move || if in_use() { " In use." } else if applied.get() { " Changed since used: press again to use." } else { "" }}
+            </span>
+        </details>
+    }
+}
+
+/// The material drop-down.
+#[component]
+fn MaterialPick(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
+    let mat_err = field_error(outcome, "material");
+    let library_now = move || match form.material.get() {
+        MaterialChoice::Library { name } => Some(name),
+        MaterialChoice::Custom { .. } => None,
+    };
+    let own = move || match form.material.get() {
+        MaterialChoice::Custom { material } => Some(material.name),
+        MaterialChoice::Library { .. } => None,
+    };
+    let options = materials::materials()
+        .into_iter()
+        .map(|m| {
+            let n = m.name;
+            let v = n.clone();
+            let s = n.clone();
+            view! { <option value=v prop:selected=move || library_now().as_deref() == Some(s.as_str())>{n}</option> }
+        })
+        .collect_view();
+    view! {
+        <div class="field" class:invalid=move || mat_err.get().is_some()>
+            <label for="f-material">"Material"</label>
+            <select
+                id="f-material"
+                on:change:target=move |ev| {
+                    let v = ev.target().value();
+                    if !v.is_empty() {
+                        form.material.set(MaterialChoice::Library { name: v });
+                    }
+                }
+            >
+                {move || own().map(|n| view! { <option value="" selected>{format!("Your own: {n}")}</option> })}
+                {options}
+            </select>
+            <div class="msg" id="e-material" role="alert">{move || mat_err.get().unwrap_or_default()}</div>
+        </div>
+    }
+}
+
+/// The loss coefficients of a material (or a fit), as table rows.
+fn steinmetz_rows(prefix: &'static str, m: &magwright_engine::material::Steinmetz) -> impl IntoView {
+    let id = |s: &str| format!("{prefix}-{s}");
+    view! {
+        <tr>
+            <th scope="row" title="Pv = k·f^α·B^β, W/m³ with f in Hz and B peak in T (sinusoid)">"Steinmetz k"</th>
+            <td data-testid=id("k") data-si=si_attr(m.k)>{coef(m.k)}</td>
+        </tr>
+        <tr><th scope="row">"α (frequency)"</th><td data-testid=id("alpha") data-si=si_attr(m.alpha)>{sig(m.alpha, 4)}</td></tr>
+        <tr><th scope="row">"β (flux)"</th><td data-testid=id("beta") data-si=si_attr(m.beta)>{sig(m.beta, 4)}</td></tr>
+        <tr>
+            <th scope="row">"Fitted over f"</th>
+            <td data-testid=id("f-range")>{format!("{} – {}", notation::format(m.f_min, "Hz", 3), notation::format(m.f_max, "Hz", 3))}</td>
+        </tr>
+        <tr>
+            <th scope="row">"Fitted over B peak"</th>
+            <td data-testid=id("b-range")>{format!("{} – {}", notation::format(m.b_min, "T", 3), notation::format(m.b_max, "T", 3))}</td>
+        </tr>
+    }
+}
+
+/// The data of the material in use.
+#[component]
+fn MaterialData(form: Form) -> impl IntoView {
+    let material = Memo::new(move |_| material_of(&form.material.get()));
+    move || match material.get() {
+        Err(e) => view! { <p class="bad" data-testid="material-data-error">{e.message().to_string()}</p> }.into_any(),
+        Ok(m) => {
+            let t_ref = m.reference_temperature();
+            view! {
+                <table class="data" data-testid="material-data" aria-label="Data of the material in use">
+                    <tr><th scope="row">"Material"</th><td class="text" data-testid="mat-name">{m.name.clone()}</td></tr>
+                    <tr><td class="text" colspan="2">{m.description.clone()}</td></tr>
+                    <tr><th scope="row">"μi"</th><td data-testid="mat-mu" data-si=si_attr(m.mu_i)>{sig(m.mu_i, 4)}</td></tr>
+                    {figure_n("mat-bsat25", "Bsat at 25 °C", m.bsat_25, 1e-3, "mT", 3)}
+                    {figure_n("mat-bsat100", "Bsat at 100 °C", m.bsat_100, 1e-3, "mT", 3)}
+                    {figure_n("mat-curie", "Curie temperature", m.curie_c, 1.0, "°C", 3)}
+                    {steinmetz_rows("mat", &m.steinmetz)}
+                    <tr>
+                        <th scope="row" title="k holds here; the loss rises as 1 + c·(T − Tref)² either side">"k holds at"</th>
+                        <td data-testid="mat-tref" data-si=t_ref.map(si_attr).unwrap_or_default()>
+                            {match t_ref { Some(t) => format!("{} °C (loss minimum)", sig(t, 3)), None => "any temperature (flat)".into() }}
+                        </td>
+                    </tr>
+                    {figure_n("mat-resistivity", "Resistivity", m.resistivity, 1.0, "Ω·m", 3)}
+                    {figure_n("mat-density", "Density", m.density, 1.0, "kg/m³", 3)}
+                </table>
+                <p class="prov" data-testid="mat-provenance">{m.provenance.clone()}</p>
+            }
+            .into_any()
+        }
+    }
+}
+
+/// The example shown in the empty text box.
+const PLACEHOLDER: &str = "f  B  T  Pv\n100k 0.1 100 80k\n200k 0.1 100 195k\n100k 0.2 100 480k";
+
+/// The user's own material: loss fitted to pasted measurements.
+#[component]
+fn FittedMaterial(form: Form) -> impl IntoView {
+    let text = RwSignal::new(String::new());
+    let name = RwSignal::new("My fitted material".to_string());
+    let pasted = Memo::new(move |_| parse_points(&text.get()));
+    let result: Memo<Option<Result<(LossFit, usize), String>>> = Memo::new(move |_| {
+        pasted.with(|p| match p {
+            Err(m) => Some(Err(m.clone())),
+            Ok(p) if p.points.is_empty() => None,
+            Ok(p) => Some(
+                fit::fit(&p.points)
+                    .map(|f| (f, p.points.len()))
+                    .map_err(|e| point_error(&e, &p.lines)),
+            ),
+        })
+    });
+    let base = Memo::new(move |_| material_of(&form.material.get()));
+    let status = RwSignal::new(None::<Result<String, String>>);
+    // A new fit or a new base clears the last message.
+    Effect::new(move |_| {
+        result.track();
+        status.set(None);
+    });
+    let use_it = move |_| {
+        let Some(Ok((lf, n))) = result.get_untracked() else {
+            return;
+        };
+        let base = match base.get_untracked() {
+            Ok(b) => b,
+            Err(e) => return status.set(Some(Err(e.message().to_string()))),
+        };
+        let s = &lf.steinmetz;
+        let outcome = lf.apply_to(&base).map(|mut m| {
+            m.name = if name.get_untracked().trim().is_empty() { "Fitted material".into() } else { name.get_untracked().trim().to_string() };
+            m.description = format!(
+                "Loss fitted to {n} measured points ({} – {}, {} – {}); μi, saturation, Curie point, resistivity and density from {}",
+                notation::format(s.f_min, "Hz", 3),
+                notation::format(s.f_max, "Hz", 3),
+                notation::format(s.b_min, "T", 3),
+                notation::format(s.b_max, "T", 3),
+                base.name
+            );
+            m.provenance = format!("loss from your measurements; other values from {}: {}", base.name, base.provenance);
+            m
+        });
+        match outcome {
+            Ok(m) => {
+                let msg = format!("Using {} (based on {}).", m.name, base.name);
+                form.material.set(MaterialChoice::Custom { material: m });
+                status.set(Some(Ok(msg)));
+            }
+            Err(e) => status.set(Some(Err(format!("This fit cannot be used: {}", e.message())))),
+        }
+    };
+    let shown = move || match result.get() {
+        None => view! { <p class="note">"Paste measured points to fit k, α and β."</p> }.into_any(),
+        Some(Err(m)) => view! { <p class="bad" role="alert" data-testid="fit-error">{m}</p> }.into_any(),
+        Some(Ok((lf, n))) => {
+            let temps = lf
+                .temperatures
+                .iter()
+                .map(|t| format!("{} °C", sig(*t, 3)))
+                .collect::<Vec<_>>()
+                .join(", ");
+            view! {
+                <table class="data" data-testid="fit-result" aria-label="The fitted loss model">
+                    <tr><th scope="row">"Points"</th><td data-testid="fit-n" data-si=n.to_string()>{n}</td></tr>
+                    {steinmetz_rows("fit", &lf.steinmetz)}
+                    {figure_n("fit-tref", "k holds at", lf.reference_temperature, 1.0, "°C", 3)}
+                    <tr><th scope="row">"Temperatures"</th><td class="text">{temps}</td></tr>
+                    <tr><th scope="row">"Largest error"</th><td data-testid="fit-max-err" data-si=si_attr(lf.max_error_pct)>{pct(lf.max_error_pct)}</td></tr>
+                    <tr><th scope="row">"RMS error"</th><td data-testid="fit-rms-err" data-si=si_attr(lf.rms_error_pct)>{pct(lf.rms_error_pct)}</td></tr>
+                </table>
+                <ul class="notes" data-testid="fit-notes">{lf.notes.iter().map(|n| view! { <li>{n.clone()}</li> }).collect_view()}</ul>
+            }
+            .into_any()
+        }
+    };
+    let base_name = move || base.get().map(|b| b.name).unwrap_or_else(|e| e.message().to_string());
+    view! {
+        <details data-testid="fit-material">
+            <summary>"Your own material, fitted to measured loss"</summary>
+            <label for="f-fit-points" class="note">
+                "One measured point per line: f (Hz), B peak (T), temperature (°C), Pv (W/m³), sinusoidal flux. "
+                "SI prefixes work (100k 0.1 100 80k); spaces, tabs, commas or semicolons separate; a header line is skipped."
+            </label>
+            <textarea id="f-fit-points" data-testid="fit-points" spellcheck="false" placeholder=PLACEHOLDER
+                prop:value=move || text.get() on:input:target=move |ev| text.set(ev.target().value())></textarea>
+            {shown}
+            <div class="fields">
+                <Entry key="fit-name" label="Name" unit="" text=name error=none() echo=none() />
+            </div>
+            <p class="note">"μi, saturation, Curie point, resistivity and density come from "<strong>{base_name}</strong>", the material in use."</p>
+            <button type="button" data-testid="fit-use" disabled=move || !matches!(result.get(), Some(Ok(_)))
+                on:click=use_it>"Use this material"</button>
+            <p role="status" data-testid="fit-status" class:bad=move || matches!(status.get(), Some(Err(_)))>
+                {move || match status.get() { Some(Ok(m)) | Some(Err(m)) => m, None => String::new() }}
+            </p>
+        </details>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn dims_read_units_and_prefixes() {
+        // Unit conversions by definition (SI brochure): 1 mm = 1e-3 m, 1 mm² = 1e-6 m², 1 cm² = 1e-4 m².
+        let close = |a: f64, b: f64| (a - b).abs() <= 1e-12 * b.abs();
+        let v = |t: &str, d: Dim| parse_dim(t, d).unwrap().unwrap();
+        assert!(close(v("78.6", Dim::Length).0, 78.6e-3));
+        assert!(close(v("78.6 mm", Dim::Length).0, 78.6e-3));
+        assert!(close(v("7.86cm", Dim::Length).0, 78.6e-3));
+        assert!(close(v("0.0786 m", Dim::Length).0, 78.6e-3));
+        assert!(v("78.6 mm", Dim::Length).1 && !v("78.6", Dim::Length).1);
+        assert!(close(v("173", Dim::Area).0, 173e-6));
+        assert!(close(v("1.73 cm²", Dim::Area).0, 173e-6));
+        assert!(close(v("173mm2", Dim::Area).0, 173e-6));
+        assert!(close(v("1.2k", Dim::Area).0, 1.2e-3));
+        assert!(close(v("70", Dim::Surface).0, 70e-4));
+        assert!(close(v("40", Dim::Mass).0, 0.04));
+        assert!(close(v("0.04 kg", Dim::Mass).0, 0.04));
+        assert_eq!(parse_dim("  ", Dim::Length), Ok(None));
+        assert!(parse_dim("abc", Dim::Length).is_err());
+        assert!(parse_dim("mm", Dim::Length).is_err());
+    }
+
+    #[test]
+    fn rows_split_on_any_separator() {
+        assert_eq!(split_row("100k 0.1\t100 80k"), vec!["100k", "0.1", "100", "80k"]);
+        assert_eq!(split_row("100k,0.1,100,80k"), vec!["100k", "0.1", "100", "80k"]);
+        assert_eq!(split_row("100k, 0.1, 100, 80k"), vec!["100k", "0.1", "100", "80k"]);
+        assert_eq!(split_row("100k;0,1;100;80k"), vec!["100k", "0,1", "100", "80k"]);
+    }
+
+    #[test]
+    fn points_read_with_header_prefixes_and_units() {
+        let p = parse_points("f B T Pv\n\n100k 0.1 100 80k  # first\n200 kHz, 100 mT, 25 °C, 195 kW/m³\n").unwrap();
+        assert!(p.header);
+        assert_eq!(p.lines, vec![3, 4]);
+        assert_eq!(
+            p.points[0],
+            LossPoint {
+                f: 100e3,
+                b: 0.1,
+                temp_c: 100.0,
+                pv: 80e3
+            }
+        );
+        let q = p.points[1];
+        assert!(
+            (q.f - 200e3).abs() < 1e-9 && (q.b - 0.1).abs() < 1e-15 && q.temp_c == 25.0 && (q.pv - 195e3).abs() < 1e-9
+        );
+        let e = parse_points("100k 0.1 100 80k\n100k 0.1 100").unwrap_err();
+        assert!(e.contains("line 2") && e.contains("four"), "{e}");
+        let e = parse_points("100k 0.1 100 80k\n100k x 100 5").unwrap_err();
+        assert!(e.starts_with("line 2, B"), "{e}");
+        assert_eq!(parse_points("").unwrap().points.len(), 0);
+    }
+
+    #[test]
+    fn engine_point_errors_name_the_line() {
+        let p = parse_points("# header comment\n100k 0.1 100 80k\n100k 0 100 80k\n").unwrap();
+        let e = fit::fit(&p.points).unwrap_err();
+        assert_eq!(point_error(&e, &p.lines), format!("line 3, B: {}", e.message()));
+    }
+
+    #[test]
+    fn custom_core_messages_land_at_the_entry() {
+        let c = cores::find("ETD 34").unwrap();
+        let t = texts_of(&c);
+        let ok = check_core("Mine", "ETD", &t);
+        assert!(ok.errors.is_empty() && ok.ok.is_some(), "{ok:?}");
+        let mut bad = t.clone();
+        bad[7] = "1".into(); // a 1 mm turn around a leg of ~97 mm²: the engine refuses it
+        let r = check_core("Mine", "", &bad);
+        assert_eq!(r.errors.first().map(|e| e.0), Some("cc-mlt"), "{r:?}");
+        let mut bad = t;
+        bad[0] = "-5".into();
+        assert_eq!(check_core("Mine", "", &bad).errors.first().map(|e| e.0), Some("cc-ae"));
+        assert_eq!(
+            check_core(" ", "", &texts_of(&c)).errors.first().map(|e| e.0),
+            Some("cc-name")
+        );
+    }
+
+    #[test]
+    fn browser_filters_and_orders() {
+        let etd = select("ETD", "", Order::Library);
+        assert!(!etd.is_empty() && etd.iter().all(|&i| cores::all()[i].family == "ETD"));
+        let by_ve = select("", "", Order::VeUp);
+        assert!(by_ve.windows(2).all(|w| cores::all()[w[0]].ve <= cores::all()[w[1]].ve));
+        assert!(select("", "etd34", Order::Library)
+            .iter()
+            .any(|&i| cores::all()[i].designation == "ETD 34"));
+    }
+
+    #[test]
+    fn figures_read_plainly() {
+        assert_eq!(sig(97.1234, 4), "97.12");
+        assert_eq!(sig(0.0012345, 3), "0.00123");
+        assert_eq!(sig(12345.0, 3), "12345");
+        assert_eq!(coef(1.6e-3), "1.6000e-3");
+        assert_eq!(coef(10.0), "10.00");
     }
 }
