@@ -15,7 +15,6 @@
 
 use magwright_engine::core::library;
 use magwright_engine::design::{evaluate, Design};
-use magwright_engine::topology::Topology;
 use magwright_engine::waveform::Pwl;
 use magwright_engine::winding::loss::{copper_losses, LossModel, LossOptions, WindingCurrent};
 use magwright_engine::winding::stackup::{default_stackup, DefaultOptions, Pattern, WindingSpec};
@@ -127,29 +126,6 @@ fn main() {
     demos();
 }
 
-/// The solver's dot convention (as the design solver applies it): forward
-/// secondaries and push-pull B halves oppose the primary (A half).
-fn sense(topo: Topology, name: &str) -> f64 {
-    let secondary = name.starts_with("secondary");
-    let b_half = name.ends_with(" B");
-    match topo {
-        Topology::Flyback => 1.0,
-        Topology::Forward | Topology::TwoSwitchForward => {
-            if secondary {
-                -1.0
-            } else {
-                1.0
-            }
-        }
-        _ => {
-            if secondary != b_half {
-                -1.0
-            } else {
-                1.0
-            }
-        }
-    }
-}
 
 fn demos() {
     let demos = [
@@ -164,7 +140,7 @@ fn demos() {
         let cur: Vec<WindingCurrent> = op
             .windings
             .iter()
-            .map(|w| WindingCurrent::new(&w.name, w.current.scaled(sense(r.topology, &w.name))))
+            .map(|w| WindingCurrent::new(&w.name, w.current.scaled(magwright_engine::design::solve::core_sense(r.topology, &w.name))))
             .collect();
         time(&format!("demo {name}: LossModel::new"), 5_000, || {
             black_box(LossModel::new(&r.core, &r.stackup, black_box(temp)).unwrap());

@@ -270,7 +270,7 @@ impl Design {
         match &self.core {
             CoreChoice::Library { designation } => cores::find(designation),
             CoreChoice::Shape { designation, shape } => {
-                Core::from_shape(designation, shape.clone()).map_err(|e| under("core", e))
+                Core::from_shape(designation, *shape).map_err(|e| under("core", e))
             }
             CoreChoice::Effective { designation, parameters } => {
                 Core::from_effective(designation, parameters).map_err(|e| under("core.parameters", e))

@@ -158,7 +158,7 @@ impl Optimiser {
         let mut by_loss = by_volume.clone();
         by_loss.sort_by(|a, b| a.total_loss.total_cmp(&b.total_loss));
         let mut failures = self.failures.clone();
-        failures.sort_by(|a, b| b.count.cmp(&a.count));
+        failures.sort_by_key(|f| std::cmp::Reverse(f.count));
         Ranking { evaluated: self.next, passed: self.passed.len(), failures, by_volume, by_loss, pareto }
     }
 }

@@ -202,6 +202,7 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
     let b_auto = material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin);
     let b_limit = ch.b_max.unwrap_or(b_auto);
     let lp_target = if spec.topology == Topology::Flyback { Some(sizing::flyback_lp(spec, n)?) } else { None };
+    let cx = Ctx { design, core, material, prep, n, lp: lp_target };
 
     // Saturation is decided where the flux crowds most: the smallest
     // section Amin (IEC 60205 defines it for this), not the effective Ae,
@@ -212,10 +213,10 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
     let first = match &ch.turns {
         TurnsRule::Primary { turns } => {
             reason = "primary turns fixed by the user".into();
-            build(design, core, material, prep, n, lp_target, *turns)?
+            build(&cx, *turns)?
         }
         _ => {
-            let mut c = build_at_least(design, core, material, prep, n, lp_target, np_flux, &mut reason)?;
+            let mut c = build_at_least(&cx, np_flux, &mut reason)?;
             // Rounding the secondaries up lowers the ratio as wound, which for a
             // flyback raises the peak current: add turns until Bpk as wound is
             // within the limit.
@@ -225,7 +226,7 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
                     break;
                 }
                 let np = c.turns.primary + 1;
-                c = build(design, core, material, prep, n, lp_target, np)?;
+                c = build(&cx, np)?;
                 reason = format!("fewest turns within Bpk ≤ {:.0} mT as wound", b_limit * 1e3);
             }
             c
@@ -248,7 +249,7 @@ pub fn evaluate_with(design: &Design, core: &Core, material: &Material, prep: &P
                         continue;
                     }
                     let corner = Some(best.worst_corner().corner);
-                    if let Ok(c) = build_corners(design, core, material, prep, n, lp_target, np, corner) {
+                    if let Ok(c) = build_corners(&cx, np, corner) {
                         tried.push(c);
                     }
                 }
@@ -357,48 +358,41 @@ impl Candidate {
     }
 }
 
+/// What every candidate of one design shares.
+struct Ctx<'a> {
+    design: &'a Design,
+    core: &'a Core,
+    material: &'a Material,
+    prep: &'a Prepared,
+    /// The design ratio Np/Ns1.
+    n: f64,
+    /// The flyback's target Lp.
+    lp: Option<f64>,
+}
+
 /// Builds at `np` or, where the gap cannot reach Lp (too little AL), at the
 /// fewest turns above `np` that can.
-#[allow(clippy::too_many_arguments)]
-fn build_at_least(
-    design: &Design,
-    core: &Core,
-    material: &Material,
-    prep: &Prepared,
-    n: f64,
-    lp: Option<f64>,
-    np: u32,
-    reason: &mut String,
-) -> Result<Candidate> {
-    match build(design, core, material, prep, n, lp, np) {
-        Err(e) if lp.is_some() && e.field() == Some("gap.al") => {
+fn build_at_least(cx: &Ctx, np: u32, reason: &mut String) -> Result<Candidate> {
+    match build(cx, np) {
+        Err(e) if cx.lp.is_some() && e.field() == Some("gap.al") => {
             // AL ungapped = μ0·μi·Ae/le bounds the inductance per turn².
-            let al_max = MU0 * material.mu_i * core.ae / core.le;
-            let np2 = ((lp.unwrap_or(0.0) / al_max).sqrt() * 1.05).ceil() as u32;
+            let al_max = MU0 * cx.material.mu_i * cx.core.ae / cx.core.le;
+            let np2 = ((cx.lp.unwrap_or(0.0) / al_max).sqrt() * 1.05).ceil() as u32;
             *reason = format!("turns raised to {np2} so the core's AL can give Lp");
-            build(design, core, material, prep, n, lp, np2.max(np + 1))
+            build(cx, np2.max(np + 1))
         }
         other => other,
     }
 }
 
 /// Step 4–6 for one primary turn count.
-fn build(design: &Design, core: &Core, material: &Material, prep: &Prepared, n: f64, lp: Option<f64>, np: u32) -> Result<Candidate> {
-    build_corners(design, core, material, prep, n, lp, np, None)
+fn build(cx: &Ctx, np: u32) -> Result<Candidate> {
+    build_corners(cx, np, None)
 }
 
 /// [`build`] evaluating the losses at one corner only (`Some`) or both.
-#[allow(clippy::too_many_arguments)]
-fn build_corners(
-    design: &Design,
-    core: &Core,
-    material: &Material,
-    prep: &Prepared,
-    n: f64,
-    lp: Option<f64>,
-    np: u32,
-    only: Option<Corner>,
-) -> Result<Candidate> {
+fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<Candidate> {
+    let (design, core, material, prep, n, lp) = (cx.design, cx.core, cx.material, cx.prep, cx.n, cx.lp);
     let spec = &design.spec;
     let ch = &design.choices;
     let secondaries = sizing::secondary_turns(spec, np, n)?;
@@ -459,7 +453,7 @@ fn build_corners(
 /// Forward-type secondaries oppose the primary; flyback secondaries carry
 /// the stored MMF on in the same sense; a push-pull's B halves drive the
 /// opposite sense of the A halves.
-fn currents_of(topo: Topology, op: &topology::OperatingPoint) -> Vec<WindingCurrent> {
+pub fn currents_of(topo: Topology, op: &topology::OperatingPoint) -> Vec<WindingCurrent> {
     op.windings
         .iter()
         .map(|w| {
@@ -469,7 +463,9 @@ fn currents_of(topo: Topology, op: &topology::OperatingPoint) -> Vec<WindingCurr
         .collect()
 }
 
-fn core_sense(topo: Topology, name: &str) -> f64 {
+/// +1 or −1: the sense in which winding `name` drives the core's flux
+/// (see [`currents_of`]).
+pub fn core_sense(topo: Topology, name: &str) -> f64 {
     let secondary = name.starts_with("secondary");
     let b_half = name.ends_with(" B");
     match topo {
