@@ -12,6 +12,7 @@ pub mod forward;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;
+pub mod views;
 
 pub use file::{Choices, CoreChoice, Design, MaterialChoice};
 pub use solve::{evaluate, Report};
