@@ -216,18 +216,29 @@ struct FailRun {
 /// Most distinct reasons listed for one failing range.
 const MAX_REASONS: usize = 4;
 
+/// The band a failing point belongs to: "no design can be built", or the
+/// first check it fails (the engine lists saturation, temperature, window,
+/// duty, switch voltage, Curie in that order); the other reasons are in
+/// the list under the picture.
 fn key_of(p: &sweep::SweepPoint) -> String {
     if p.values.is_none() {
         "no design can be built".into()
-    } else if p.reason.is_empty() {
-        "fails a check".into()
     } else {
-        let r = format!("fails: {}", p.reason);
-        if r.chars().count() > 60 {
-            format!("{}…", r.chars().take(59).collect::<String>())
-        } else {
-            r
+        match p.reason.split("; ").next().filter(|r| !r.is_empty()) {
+            Some(first) => format!("fails: {first}"),
+            None => "fails a check".into(),
         }
+    }
+}
+
+/// The reasons of a failing point, each short: a check's label, or an
+/// engine message cut before its details (the part after the first ": ",
+/// which carries numbers that differ from point to point).
+fn reasons_of(p: &sweep::SweepPoint) -> Vec<&str> {
+    if p.values.is_none() {
+        vec![p.reason.split(": ").next().unwrap_or(&p.reason)]
+    } else {
+        p.reason.split("; ").filter(|r| !r.is_empty()).collect()
     }
 }
 
@@ -262,7 +273,7 @@ fn fail_runs(s: &sweep::Sweep, by_key: bool) -> Vec<FailRun> {
         let mut reasons: Vec<&str> = Vec::new();
         let mut more = false;
         for p in pts.get(start..=i).unwrap_or(&[]) {
-            for part in p.reason.split("; ").filter(|r| !r.is_empty()) {
+            for part in reasons_of(p) {
                 if !reasons.contains(&part) {
                     if reasons.len() < MAX_REASONS {
                         reasons.push(part);
@@ -392,14 +403,19 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         .ok();
         timer.set_value(handle);
     });
-    let sweep = Memo::new(move |_| {
+    // The sweep and how long it took, ms (shown as `data-sweep-ms`).
+    let timed = Memo::new(move |_| {
         swept.with(|d| {
             d.as_ref().and_then(|d| {
                 let (lo, hi) = sweep_range(d.spec.frequency);
-                sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()
+                let t0 = js_sys::Date::now();
+                let s = sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()?;
+                Some((s, js_sys::Date::now() - t0))
             })
         })
     });
+    let sweep = Memo::new(move |_| timed.with(|t| t.as_ref().map(|t| t.0.clone())));
+    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.1));
     let ready = move || swept.with(|s| design.with(|d| s == d));
 
     let mmf = Memo::new(move |_| {
@@ -562,7 +578,7 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         </figure>
         <figure class="plot" class:hidden=hidden class:stale=move || !ready() data-testid="sweep-figure"
             data-sweep-ready=move || if ready() { "true" } else { "false" }
-            data-min-hz=sweep_min data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
+            data-min-hz=sweep_min data-sweep-ms=sweep_ms data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
             title=fails_text>
             <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=360 draw=draw_sweep />
             <figcaption>
@@ -623,6 +639,16 @@ mod tests {
         assert_eq!(runs[0].key, "no design can be built");
         assert_eq!((runs[0].from, runs[0].to), (1e3, 8e3)); // √(4k·16k) = 8k
         assert_eq!(runs[0].detail, "window too small; other words");
+        let mut cut = pt(
+            1e3,
+            false,
+            "the windings do not fit this core's window: 0.45 mm × 21",
+            false,
+        );
+        assert_eq!(reasons_of(&cut), vec!["the windings do not fit this core's window"]);
+        cut.values = s.points[2].values;
+        cut.reason = "Duty; Hot-spot temperature".into();
+        assert_eq!(key_of(&cut), "fails: Duty");
         assert_eq!(runs[1].key, "fails: Hot-spot temperature");
         assert_eq!((runs[1].from, runs[1].to), (32e3, 256e3));
         // Listed: one range per stretch of failing points, reasons each once.
