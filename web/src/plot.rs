@@ -4,6 +4,9 @@
 //! * [`line_chart`]: several series against one x axis (linear or log),
 //!   an optional second y axis on the right, markers at chosen points (e.g.
 //!   a sweep's minimum) and shaded x ranges (e.g. where no design exists).
+//!   A series may show its points as dots (for data that is honestly
+//!   discrete, like a sweep whose turns and wire are integers), and a
+//!   non-finite y breaks its line (a gap, not a bridge over missing data).
 //! * [`cross_section`]: rectangles given in metres drawn to scale (the same
 //!   millimetres per pixel across and up), e.g. a winding window with its
 //!   bobbin, layers and insulation.
@@ -36,6 +39,18 @@ pub const GREEN: Rgb = Rgb(30, 128, 60);
 pub const RED: Rgb = Rgb(180, 30, 30);
 pub const GREY: Rgb = Rgb(90, 98, 110);
 pub const PURPLE: Rgb = Rgb(120, 60, 160);
+pub const TEAL: Rgb = Rgb(0, 120, 120);
+pub const BROWN: Rgb = Rgb(130, 80, 40);
+pub const MAGENTA: Rgb = Rgb(170, 40, 120);
+pub const OLIVE: Rgb = Rgb(100, 110, 20);
+/// The text colour, for a single main line.
+pub const INK_RGB: Rgb = Rgb(29, 37, 48);
+
+/// Line colours in order, for a variable number of series (e.g. windings).
+pub const PALETTE: [Rgb; 8] = [ORANGE, BLUE, GREEN, PURPLE, TEAL, BROWN, MAGENTA, OLIVE];
+
+/// Light band colours, for shaded ranges with different meanings.
+pub const BANDS: [Rgb; 4] = [Rgb(200, 60, 60), Rgb(215, 150, 20), Rgb(120, 70, 190), Rgb(90, 98, 110)];
 
 const FONT: &str = "sans-serif";
 const INK: RGBColor = RGBColor(29, 37, 48);
@@ -63,7 +78,13 @@ pub struct Axis {
 
 impl Axis {
     pub fn new(title: &str, unit: &str) -> Self {
-        Axis { title: title.into(), unit: unit.into(), log: false, from_zero: false, prefixed: false }
+        Axis {
+            title: title.into(),
+            unit: unit.into(),
+            log: false,
+            from_zero: false,
+            prefixed: false,
+        }
     }
     pub fn log(mut self) -> Self {
         self.log = true;
@@ -72,6 +93,11 @@ impl Axis {
     }
     pub fn from_zero(mut self) -> Self {
         self.from_zero = true;
+        self
+    }
+    /// SI-prefixed tick labels on a linear axis.
+    pub fn prefixed(mut self) -> Self {
+        self.prefixed = true;
         self
     }
     fn desc(&self) -> String {
@@ -102,11 +128,48 @@ pub struct Series {
     pub dashed: bool,
     /// Line width in pixels (2 unless `thin`).
     pub width: u32,
+    /// Draw a dot at every point (radius in pixels; 0: none).
+    pub dots: u32,
+    /// Draw no line, dots only.
+    pub no_line: bool,
+    /// Leave the series out of the legend.
+    pub unlisted: bool,
 }
 
 impl Series {
     pub fn new(label: &str, points: Vec<(f64, f64)>, color: Rgb) -> Self {
-        Series { label: label.into(), points, color, side: Side::Left, dashed: false, width: 2 }
+        Series {
+            label: label.into(),
+            points,
+            color,
+            side: Side::Left,
+            dashed: false,
+            width: 2,
+            dots: 0,
+            no_line: false,
+            unlisted: false,
+        }
+    }
+    /// A line of `px` pixels (e.g. a thick vertical bar of two points).
+    pub fn width(mut self, px: u32) -> Self {
+        self.width = px.max(1);
+        self
+    }
+    /// A dot of radius `r` pixels at every point.
+    pub fn dots(mut self, r: u32) -> Self {
+        self.dots = r;
+        self
+    }
+    /// Dots only, no line between them.
+    pub fn scatter(mut self, r: u32) -> Self {
+        self.dots = r.max(1);
+        self.no_line = true;
+        self
+    }
+    /// Not named in the legend (a second part of a listed series).
+    pub fn unlisted(mut self) -> Self {
+        self.unlisted = true;
+        self
     }
     /// A 1-pixel line, for a secondary quantity.
     pub fn thin(mut self) -> Self {
@@ -141,6 +204,8 @@ pub struct Shade {
     pub to: f64,
     /// Legend text; bands with the same label share one legend entry.
     pub label: String,
+    /// Band colour (drawn as a light tint of it).
+    pub color: Rgb,
 }
 
 /// Everything a line chart shows.
@@ -178,7 +243,11 @@ fn extent(values: impl Iterator<Item = f64>) -> Option<(f64, f64)> {
 
 /// A y range with some headroom, never empty.
 fn padded(lo: f64, hi: f64, from_zero: bool) -> (f64, f64) {
-    let (mut lo, mut hi) = if from_zero { (lo.min(0.0), hi.max(0.0)) } else { (lo, hi) };
+    let (mut lo, mut hi) = if from_zero {
+        (lo.min(0.0), hi.max(0.0))
+    } else {
+        (lo, hi)
+    };
     if hi - lo <= f64::EPSILON * hi.abs().max(1.0) {
         let d = if hi == 0.0 { 1.0 } else { hi.abs() * 0.1 };
         lo -= d;
@@ -205,9 +274,17 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     let Some((x_lo, x_hi)) = extent(xs) else {
         return note(&root, "nothing to draw");
     };
-    let (x_lo, x_hi) = if x_hi > x_lo { (x_lo, x_hi) } else { (x_lo - 1.0, x_hi + 1.0) };
+    let (x_lo, x_hi) = if x_hi > x_lo {
+        (x_lo, x_hi)
+    } else {
+        (x_lo - 1.0, x_hi + 1.0)
+    };
     let ys = |side: Side| {
-        let pts = spec.series.iter().filter(move |s| s.side == side).flat_map(|s| s.points.iter().copied());
+        let pts = spec
+            .series
+            .iter()
+            .filter(move |s| s.side == side)
+            .flat_map(|s| s.points.iter().copied());
         let marks = spec.markers.iter().filter(move |m| m.side == side).map(|m| (m.x, m.y));
         extent(pts.chain(marks).filter(|p| usable(p.0)).map(|p| p.1))
     };
@@ -227,19 +304,24 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
     let mut entries: Vec<(String, Swatch)> = Vec::new();
     for sh in &spec.shades {
         if !entries.iter().any(|e| e.0 == sh.label) {
-            entries.push((sh.label.clone(), Swatch::Band));
+            entries.push((sh.label.clone(), Swatch::Band(sh.color.c())));
         }
     }
-    for se in &spec.series {
+    for se in spec.series.iter().filter(|s| !s.unlisted) {
         let label = if se.side == Side::Right && y2_axis.is_some() {
             format!("{} (right)", se.label)
         } else {
             se.label.clone()
         };
-        entries.push((label, Swatch::Line(se.color.c(), se.width.max(1), se.dashed)));
+        let swatch = if se.no_line {
+            Swatch::Dot(se.color.c(), se.dots.max(2))
+        } else {
+            Swatch::Line(se.color.c(), se.width.max(1), se.dashed, se.dots)
+        };
+        entries.push((label, swatch));
     }
     for m in &spec.markers {
-        entries.push((m.label.clone(), Swatch::Dot(m.color.c())));
+        entries.push((m.label.clone(), Swatch::Dot(m.color.c(), 5)));
     }
     let (w, _) = root.dim_in_pixel();
     let placed = legend_layout(&entries, 58, w as i32 - 10);
@@ -273,7 +355,9 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             .y_label_formatter(&y_fmt)
             .y_labels(6);
         if log {
-            mesh.disable_x_mesh().x_label_formatter(&blank).set_tick_mark_size(LabelAreaPosition::Bottom, 0);
+            mesh.disable_x_mesh()
+                .x_label_formatter(&blank)
+                .set_tick_mark_size(LabelAreaPosition::Bottom, 0);
         } else {
             mesh.x_labels(8).x_label_formatter(&x_fmt);
         }
@@ -320,40 +404,72 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
             }
         }
         for v in &grid {
-            let style = if labels.contains(v) { GRID } else { RGBColor(246, 247, 249) };
-            chart.draw_series(LineSeries::new([(v.log10(), y_lo), (v.log10(), y_hi)], style)).map_err(err)?;
+            let style = if labels.contains(v) {
+                GRID
+            } else {
+                RGBColor(246, 247, 249)
+            };
+            chart
+                .draw_series(LineSeries::new([(v.log10(), y_lo), (v.log10(), y_hi)], style))
+                .map_err(err)?;
         }
-        let font = (FONT, 13).into_font().color(&INK).pos(Pos::new(HPos::Center, VPos::Top));
+        let font = (FONT, 13)
+            .into_font()
+            .color(&INK)
+            .pos(Pos::new(HPos::Center, VPos::Top));
         for v in labels {
             let (px, py) = chart.backend_coord(&(v.log10(), y_lo));
-            root.draw(&PathElement::new(vec![(px, py), (px, py + 5)], RGBColor(150, 158, 170))).map_err(err)?;
-            root.draw(&Text::new(x_axis.tick(v), (px, py + 7), font.clone())).map_err(err)?;
+            root.draw(&PathElement::new(vec![(px, py), (px, py + 5)], RGBColor(150, 158, 170)))
+                .map_err(err)?;
+            root.draw(&Text::new(x_axis.tick(v), (px, py + 7), font.clone()))
+                .map_err(err)?;
         }
     }
 
     // Shaded bands first, under the lines.
-    let shade = RGBColor(200, 60, 60).mix(0.13);
     for s in &spec.shades {
+        let shade = s.color.c().mix(0.13);
         let (a, b) = (s.from.max(x_lo), s.to.min(x_hi));
         if !(usable(a) && usable(b)) || b < a {
             continue;
         }
         let (a, b) = (fx(a), fx(b));
-        chart.draw_series(std::iter::once(Rectangle::new([(a, y_lo), (b, y_hi)], shade.filled()))).map_err(err)?;
+        chart
+            .draw_series(std::iter::once(Rectangle::new([(a, y_lo), (b, y_hi)], shade.filled())))
+            .map_err(err)?;
     }
 
     for s in &spec.series {
-        let pts: Vec<(f64, f64)> =
-            s.points.iter().filter(|p| usable(p.0) && p.1.is_finite()).map(|&(x, y)| (fx(x), y)).collect();
         let color = s.color.c();
         let style = color.stroke_width(s.width.max(1));
-        match (s.side, s.dashed) {
-            (Side::Left, false) => chart.draw_series(LineSeries::new(pts, style)),
-            (Side::Left, true) => chart.draw_series(DashedLineSeries::new(pts, 6, 4, style)),
-            (Side::Right, false) => chart.draw_secondary_series(LineSeries::new(pts, style)),
-            (Side::Right, true) => chart.draw_secondary_series(DashedLineSeries::new(pts, 6, 4, style)),
+        // A non-finite y ends one run of the line and a finite one starts the next.
+        let runs = s.points.split(|p| !p.1.is_finite());
+        for run in runs {
+            let pts: Vec<(f64, f64)> = run.iter().filter(|p| usable(p.0)).map(|&(x, y)| (fx(x), y)).collect();
+            if pts.is_empty() {
+                continue;
+            }
+            if !s.no_line && pts.len() >= 2 {
+                match (s.side, s.dashed) {
+                    (Side::Left, false) => chart.draw_series(LineSeries::new(pts.iter().copied(), style)),
+                    (Side::Left, true) => chart.draw_series(DashedLineSeries::new(pts.iter().copied(), 6, 4, style)),
+                    (Side::Right, false) => chart.draw_secondary_series(LineSeries::new(pts.iter().copied(), style)),
+                    (Side::Right, true) => {
+                        chart.draw_secondary_series(DashedLineSeries::new(pts.iter().copied(), 6, 4, style))
+                    }
+                }
+                .map_err(err)?;
+            }
+            if s.dots > 0 {
+                let r = s.dots as i32;
+                let dots = pts.iter().map(|&p| Circle::new(p, r, color.filled()));
+                match s.side {
+                    Side::Left => chart.draw_series(dots),
+                    Side::Right => chart.draw_secondary_series(dots),
+                }
+                .map_err(err)?;
+            }
         }
-        .map_err(err)?;
     }
 
     for m in &spec.markers {
@@ -371,26 +487,40 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
         .map_err(err)?;
     }
 
-    let font = (FONT, 12).into_font().color(&INK).pos(Pos::new(HPos::Left, VPos::Center));
+    let font = (FONT, 12)
+        .into_font()
+        .color(&INK)
+        .pos(Pos::new(HPos::Left, VPos::Center));
     for ((label, swatch), (x, row)) in entries.iter().zip(&placed) {
         let y = 12 + 18 * *row as i32;
         match *swatch {
-            Swatch::Line(c, width, dashed) => {
+            Swatch::Line(c, width, dashed, dots) => {
+                if dots > 0 {
+                    root.draw(&Circle::new((x + 9, y), dots as i32 + 1, c.filled()))
+                        .map_err(err)?;
+                }
                 if dashed {
                     for k in 0..3 {
-                        root.draw(&PathElement::new(vec![(x + 7 * k, y), (x + 7 * k + 4, y)], c.stroke_width(width)))
-                            .map_err(err)?;
+                        root.draw(&PathElement::new(
+                            vec![(x + 7 * k, y), (x + 7 * k + 4, y)],
+                            c.stroke_width(width),
+                        ))
+                        .map_err(err)?;
                     }
                 } else {
-                    root.draw(&PathElement::new(vec![(*x, y), (x + 18, y)], c.stroke_width(width))).map_err(err)?;
+                    root.draw(&PathElement::new(vec![(*x, y), (x + 18, y)], c.stroke_width(width)))
+                        .map_err(err)?;
                 }
             }
-            Swatch::Band => root
-                .draw(&Rectangle::new([(*x, y - 6), (x + 18, y + 6)], RGBColor(200, 60, 60).mix(0.3).filled()))
+            Swatch::Band(c) => root
+                .draw(&Rectangle::new([(*x, y - 6), (x + 18, y + 6)], c.mix(0.3).filled()))
                 .map_err(err)?,
-            Swatch::Dot(c) => root.draw(&Circle::new((x + 9, y), 5, c.filled())).map_err(err)?,
+            Swatch::Dot(c, r) => root
+                .draw(&Circle::new((x + 9, y), r.min(6) as i32, c.filled()))
+                .map_err(err)?,
         }
-        root.draw(&Text::new(label.clone(), (x + 24, y), font.clone())).map_err(err)?;
+        root.draw(&Text::new(label.clone(), (x + 24, y), font.clone()))
+            .map_err(err)?;
     }
     root.present().map_err(err)
 }
@@ -398,9 +528,11 @@ pub fn line_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(), St
 /// The sample drawn before a legend label.
 #[derive(Debug, Clone, Copy)]
 enum Swatch {
-    Line(RGBColor, u32, bool),
-    Band,
-    Dot(RGBColor),
+    /// Colour, width, dashed, dot radius.
+    Line(RGBColor, u32, bool, u32),
+    Band(RGBColor),
+    /// Colour, radius.
+    Dot(RGBColor, u32),
 }
 
 /// Rough width of a label at 12 px sans-serif (no text metrics here).
@@ -492,9 +624,10 @@ pub fn cross_section(canvas: &HtmlCanvasElement, rects: &[Rect]) -> Result<(), S
     let root = area(canvas)?;
     let ok = |r: &&Rect| [r.x, r.y, r.w, r.h].iter().all(|v| v.is_finite()) && r.w > 0.0 && r.h > 0.0;
     let rects: Vec<&Rect> = rects.iter().filter(ok).collect();
-    let (Some((x0, x1)), Some((y0, y1))) =
-        (extent(rects.iter().flat_map(|r| [r.x, r.x + r.w])), extent(rects.iter().flat_map(|r| [r.y, r.y + r.h])))
-    else {
+    let (Some((x0, x1)), Some((y0, y1))) = (
+        extent(rects.iter().flat_map(|r| [r.x, r.x + r.w])),
+        extent(rects.iter().flat_map(|r| [r.y, r.y + r.h])),
+    ) else {
         return note(&root, "nothing to draw");
     };
     let (w, h) = root.dim_in_pixel();
@@ -528,7 +661,10 @@ pub fn cross_section(canvas: &HtmlCanvasElement, rects: &[Rect]) -> Result<(), S
         .draw()
         .map_err(err)?;
     let mut kinds: Vec<Kind> = Vec::new();
-    let font = (FONT, 11).into_font().color(&INK).pos(Pos::new(HPos::Center, VPos::Center));
+    let font = (FONT, 11)
+        .into_font()
+        .color(&INK)
+        .pos(Pos::new(HPos::Center, VPos::Center));
     for r in &rects {
         let a = (r.x * 1e3, r.y * 1e3);
         let b = ((r.x + r.w) * 1e3, (r.y + r.h) * 1e3);
@@ -545,27 +681,47 @@ pub fn cross_section(canvas: &HtmlCanvasElement, rects: &[Rect]) -> Result<(), S
         let (pw, ph) = ((pb.0 - pa.0).abs(), (pb.1 - pa.1).abs());
         if !r.label.is_empty() && (r.label.chars().count() as i32) * 6 + 6 < pw && ph >= 14 {
             let c = ((pa.0 + pb.0) / 2, (pa.1 + pb.1) / 2);
-            plot_area.draw(&Text::new(r.label.clone(), c, font.clone())).map_err(err)?;
+            plot_area
+                .draw(&Text::new(r.label.clone(), c, font.clone()))
+                .map_err(err)?;
         }
     }
     // Legend at the right, one swatch per kind present.
-    let lf = (FONT, 12).into_font().color(&INK).pos(Pos::new(HPos::Left, VPos::Center));
+    let lf = (FONT, 12)
+        .into_font()
+        .color(&INK)
+        .pos(Pos::new(HPos::Left, VPos::Center));
     for (i, k) in kinds.iter().enumerate() {
         let y = margin as i32 + 12 + 22 * i as i32;
-        legend_area.draw(&Rectangle::new([(8, y - 7), (26, y + 7)], k.fill().filled())).map_err(err)?;
-        legend_area.draw(&Rectangle::new([(8, y - 7), (26, y + 7)], k.edge().stroke_width(1))).map_err(err)?;
-        legend_area.draw(&Text::new(k.name(), (32, y), lf.clone())).map_err(err)?;
+        legend_area
+            .draw(&Rectangle::new([(8, y - 7), (26, y + 7)], k.fill().filled()))
+            .map_err(err)?;
+        legend_area
+            .draw(&Rectangle::new([(8, y - 7), (26, y + 7)], k.edge().stroke_width(1)))
+            .map_err(err)?;
+        legend_area
+            .draw(&Text::new(k.name(), (32, y), lf.clone()))
+            .map_err(err)?;
     }
-    let sf = (FONT, 11).into_font().color(&RGBColor(91, 102, 117)).pos(Pos::new(HPos::Left, VPos::Center));
+    let sf = (FONT, 11)
+        .into_font()
+        .color(&RGBColor(91, 102, 117))
+        .pos(Pos::new(HPos::Left, VPos::Center));
     let y = margin as i32 + 12 + 22 * kinds.len() as i32 + 6;
-    legend_area.draw(&Text::new("drawn to scale", (8, y), sf)).map_err(err)?;
+    legend_area
+        .draw(&Text::new("drawn to scale", (8, y), sf))
+        .map_err(err)?;
     root.present().map_err(err)
 }
 
 fn note(root: &Area, text: &str) -> Result<(), String> {
     let (w, h) = root.dim_in_pixel();
-    let f = (FONT, 14).into_font().color(&RGBColor(91, 102, 117)).pos(Pos::new(HPos::Center, VPos::Center));
-    root.draw(&Text::new(text.to_string(), (w as i32 / 2, h as i32 / 2), f)).map_err(err)?;
+    let f = (FONT, 14)
+        .into_font()
+        .color(&RGBColor(91, 102, 117))
+        .pos(Pos::new(HPos::Center, VPos::Center));
+    root.draw(&Text::new(text.to_string(), (w as i32 / 2, h as i32 / 2), f))
+        .map_err(err)?;
     root.present().map_err(err)
 }
 
@@ -587,7 +743,11 @@ fn plain(v: f64) -> String {
 fn compact(v: f64) -> String {
     let s = notation::format(v, "", 3);
     let (num, prefix) = s.split_once(' ').unwrap_or((s.as_str(), ""));
-    let num = if num.contains('.') { num.trim_end_matches('0').trim_end_matches('.') } else { num };
+    let num = if num.contains('.') {
+        num.trim_end_matches('0').trim_end_matches('.')
+    } else {
+        num
+    };
     format!("{num}{prefix}")
 }
 

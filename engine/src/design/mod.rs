@@ -10,6 +10,7 @@ pub mod file;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;
+pub mod views;
 
 pub use file::{Choices, CoreChoice, Design, MaterialChoice};
 pub use solve::{evaluate, Report};

@@ -1,126 +1,670 @@
-//! Pictures: flux density over one period at both line corners, and the
-//! losses against switching frequency (the engine's own sweep).
+//! Pictures: what a magnetics engineer looks at after the numbers.
+//!
+//! 1. **Currents and flux density over one period** at the chosen line
+//!    corner: every winding's current (left axis) and B(t) (right axis).
+//! 2. **The operating point against saturation**: Bsat of the material
+//!    against temperature, the limit Bsat·(1 − margin) the check uses, the
+//!    design's Bpk at its equilibrium hot-spot temperature and its flux swing
+//!    as a bar. Chosen over a B–H plane because the question is "how far
+//!    from saturation, at the temperature it will run at": the material
+//!    model has Bsat at two temperatures and μi, not a measured B–H loop, so
+//!    a B–H picture would have to invent the curve.
+//! 3. **The MMF across the winding window** at the primary's current peak
+//!    of the chosen corner (engine: `design::views::mmf_profile`), with each
+//!    winding's layers shaded: the interleaving read at a glance.
+//! 4. **Loss against switching frequency**: the design redone at each of
+//!    [`SWEEP_POINTS`] frequencies (engine: `design::sweep::frequency`), core,
+//!    DC and AC copper and total loss, hot-spot temperature on the right
+//!    axis, the least-loss point marked, the failing ranges shaded by
+//!    reason (and listed below the picture).
+//!
+//! Speed: the sweep is the slow part (it redesigns at every point), so it
+//! does not run on the keystroke. The design it sweeps is copied into its
+//! own signal by a timer [`SWEEP_DELAY_MS`] after the last edit; the
+//! results and the other pictures update at once, the sweep once typing
+//! pauses (its figure is dimmed, and `data-sweep-ready="false"`, meanwhile).
+//!
+//! Every number comes from the engine; this module only arranges them.
 
-use crate::form::Outcome;
-use crate::plot::{self, Axis, LineChart, Marker, Series, Shade, Side};
+use crate::form::{Outcome, Report};
+use crate::plot::{self, Axis, LineChart, Marker, Rgb, Series, Shade, Side};
 use crate::ui::PlotCanvas;
 use leptos::prelude::*;
-use magwright_engine::design::{sweep, Design};
+use magwright_engine::design::{sweep, views, Design};
 use magwright_engine::notation;
+use magwright_engine::topology::Corner;
 use magwright_engine::waveform::Pwl;
+use std::time::Duration;
 
-/// Points of the page's frequency sweep (the engine asks at least 100).
+/// Points of the page's frequency sweep (the engine asks at least 2).
 pub const SWEEP_POINTS: usize = 100;
 
-fn flux_chart(r: &crate::form::Report) -> LineChart {
-    let pts = |w: &Pwl| w.points.iter().map(|&(t, b)| (t * 1e6, b * 1e3)).collect::<Vec<_>>();
-    let w = &r.waveforms;
-    let t_end = w.at_vin_min.flux.period * 1e6;
-    let b_sat = r.material.bsat_at(r.thermal.temperature);
-    let mut series = vec![
-        Series::new("Vin min", pts(&w.at_vin_min.flux), plot::BLUE),
-        Series::new("Vin max", pts(&w.at_vin_max.flux), plot::ORANGE),
-    ];
-    let b_pk = w.get("b_peak").map_or(0.0, |x| x.value);
-    if b_sat < 2.0 * b_pk {
-        series.push(Series::new("Bsat at hot spot", vec![(0.0, b_sat * 1e3), (t_end, b_sat * 1e3)], plot::RED).dashed());
-    }
-    LineChart { x: Axis::new("Time", "µs").from_zero(), y: Axis::new("Flux density", "mT"), y2: None, series, markers: vec![], shades: vec![] }
-}
+/// Pause after the last edit before the sweep runs, ms.
+pub const SWEEP_DELAY_MS: u64 = 150;
+
+/// Samples of the Bsat curve.
+const BSAT_POINTS: usize = 12;
+
+const CSS: &str = "
+.pictures .corner-pick { display:flex; gap:.4rem; align-items:center; margin:.1rem 0 .4rem; }
+.pictures .corner-pick select { font:inherit; padding:.15rem .3rem; border:1px solid #9aa4b1; border-radius:4px; background:#fff; }
+.pictures figure.stale canvas { opacity:.55; }
+.pictures ul.sweep-fails { margin:.15rem 0 0 1.1rem; padding:0; font-size:.82em; color:#5b6675; }
+";
 
 /// The sweep range: a decade each side of the design's frequency, within 1 kHz–10 MHz.
 pub fn sweep_range(f: f64) -> (f64, f64) {
     ((f / 10.0).max(1e3), (f * 10.0).min(10e6))
 }
 
-fn sweep_chart(s: &sweep::Sweep, f0: f64, r: &crate::form::Report) -> LineChart {
-    let ok: Vec<(f64, sweep::PointValues)> = s.points.iter().filter(|p| p.feasible).filter_map(|p| p.values.map(|v| (p.x, v))).collect();
-    let line = |f: fn(&sweep::PointValues) -> f64| ok.iter().map(|(x, v)| (*x, f(v))).collect::<Vec<_>>();
-    let mut shades = Vec::new();
-    let mut start: Option<f64> = None;
-    for (i, p) in s.points.iter().enumerate() {
-        match (p.feasible, start) {
-            (false, None) => start = Some(s.points.get(i.wrapping_sub(1)).map_or(p.x, |q| q.x)),
-            (true, Some(a)) => {
-                shades.push(Shade { from: a, to: p.x, label: "fails a check".into() });
-                start = None;
-            }
-            _ => {}
+fn corner_key(c: Corner) -> &'static str {
+    match c {
+        Corner::VinMin => "vin_min",
+        Corner::VinMax => "vin_max",
+    }
+}
+
+fn corner_name(c: Corner) -> &'static str {
+    match c {
+        Corner::VinMin => "Vin min",
+        Corner::VinMax => "Vin max",
+    }
+}
+
+fn op(r: &Report, c: Corner) -> &magwright_engine::topology::OperatingPoint {
+    match c {
+        Corner::VinMin => &r.waveforms.at_vin_min,
+        Corner::VinMax => &r.waveforms.at_vin_max,
+    }
+}
+
+/// One colour per winding, by its place in the corner's winding list.
+fn winding_color(r: &Report, name: &str) -> Rgb {
+    let i = r
+        .waveforms
+        .at_vin_min
+        .windings
+        .iter()
+        .position(|w| w.name == name)
+        .unwrap_or(0);
+    plot::PALETTE[i % plot::PALETTE.len()]
+}
+
+fn micro(w: &Pwl, scale: f64) -> Vec<(f64, f64)> {
+    w.points.iter().map(|&(t, y)| (t * 1e6, y * scale)).collect()
+}
+
+/// Currents of every winding and B(t), one corner.
+fn wave_chart(r: &Report, c: Corner) -> LineChart {
+    let p = op(r, c);
+    let mut series: Vec<Series> = p
+        .windings
+        .iter()
+        .map(|w| Series::new(&w.name, micro(&w.current, 1.0), winding_color(r, &w.name)))
+        .collect();
+    series.push(Series::new("B", micro(&p.flux, 1e3), plot::GREY).right().width(3));
+    LineChart {
+        x: Axis::new("Time", "µs").from_zero(),
+        y: Axis::new("Current", "A").from_zero(),
+        y2: Some(Axis::new("Flux density B", "mT")),
+        series,
+        markers: vec![],
+        shades: vec![],
+    }
+}
+
+/// Temperature range of the saturation picture: from the lower of the
+/// ambient and 25 °C to 30 K above the hotter of the limit and the
+/// operating point, not beyond the Curie temperature.
+fn saturation_range(r: &Report) -> (f64, f64) {
+    let hot = r
+        .checks
+        .iter()
+        .find(|c| c.key == "temperature")
+        .map_or(r.thermal.temperature, |c| c.limit);
+    let ambient = r.thermal.temperature - r.thermal.rise;
+    let lo = ambient.min(25.0).clamp(-55.0, 300.0);
+    let hi = (hot.max(r.thermal.temperature) + 30.0)
+        .min(r.material.curie_c)
+        .clamp(lo + 10.0, 390.0);
+    (lo, hi)
+}
+
+fn saturation_chart(v: &views::SaturationView) -> LineChart {
+    let mt = |pts: &[(f64, f64)]| pts.iter().map(|&(t, b)| (t, b * 1e3)).collect::<Vec<_>>();
+    let pct = (v.margin * 100.0).round();
+    let b_top = v.bsat.iter().map(|p| p.1).fold(0.0, f64::max) * 1e3;
+    let mut series = vec![
+        Series::new("Bsat of the material", mt(&v.bsat), plot::RED),
+        Series::new(&format!("limit: Bsat less {pct:.0} % margin"), mt(&v.limit), plot::RED).dashed(),
+        Series::new(
+            &format!("hot-spot limit {}", notation::format(v.hot_spot_max, "°C", 3)),
+            vec![(v.hot_spot_max, 0.0), (v.hot_spot_max, b_top)],
+            plot::GREY,
+        )
+        .dashed(),
+        Series::new(
+            &format!(
+                "flux swing at {} (ΔB {})",
+                corner_name(v.corner),
+                notation::format(v.b_max - v.b_min, "T", 3)
+            ),
+            vec![(v.temperature, v.b_min * 1e3), (v.temperature, v.b_max * 1e3)],
+            plot::BLUE,
+        )
+        .width(7),
+    ];
+    if v.b_min < 0.0 {
+        // Bipolar flux: the limit holds for −B too.
+        let neg = |pts: &[(f64, f64)]| pts.iter().map(|&(t, b)| (t, -b * 1e3)).collect::<Vec<_>>();
+        series.push(Series::new("Bsat", neg(&v.bsat), plot::RED).unlisted());
+        series.push(Series::new("limit", neg(&v.limit), plot::RED).dashed().unlisted());
+    }
+    LineChart {
+        x: Axis::new("Temperature", "°C"),
+        y: Axis::new("Flux density", "mT").from_zero(),
+        y2: None,
+        series,
+        markers: vec![Marker {
+            x: v.temperature,
+            y: v.b_peak * 1e3,
+            side: Side::Left,
+            label: format!(
+                "Bpk {} at {}",
+                notation::format(v.b_peak, "T", 3),
+                notation::format(v.temperature, "°C", 3)
+            ),
+            color: plot::GREEN,
+        }],
+        shades: vec![],
+    }
+}
+
+fn mmf_chart(r: &Report, m: &views::MmfProfile) -> LineChart {
+    let shades = m
+        .layers
+        .iter()
+        .map(|l| Shade {
+            from: l.h_bottom * 1e3,
+            to: (l.h_bottom + l.height) * 1e3,
+            label: l.winding.clone(),
+            color: winding_color(r, &l.winding),
+        })
+        .collect();
+    let pts: Vec<(f64, f64)> = m.points.iter().map(|&(h, f)| (h * 1e3, f)).collect();
+    LineChart {
+        x: Axis::new("Position across the window, from the bobbin", "mm").from_zero(),
+        y: Axis::new("MMF", "A·turns").from_zero(),
+        y2: None,
+        series: vec![Series::new("MMF", pts, plot::INK_RGB)],
+        markers: vec![],
+        shades,
+    }
+}
+
+/// A failing run of sweep points: its frequency range and why.
+#[derive(Debug, Clone, PartialEq)]
+struct FailRun {
+    from: f64,
+    to: f64,
+    /// Legend key: the failed checks, or "no design can be built".
+    key: String,
+    /// The run's reasons, each once.
+    detail: String,
+}
+
+/// Most distinct reasons listed for one failing range.
+const MAX_REASONS: usize = 4;
+
+/// The band a failing point belongs to: "no design can be built", or the
+/// first check it fails (the engine lists saturation, temperature, window,
+/// duty, switch voltage, Curie in that order); the other reasons are in
+/// the list under the picture.
+fn key_of(p: &sweep::SweepPoint) -> String {
+    if p.values.is_none() {
+        "no design can be built".into()
+    } else {
+        match p.reason.split("; ").next().filter(|r| !r.is_empty()) {
+            Some(first) => format!("fails: {first}"),
+            None => "fails a check".into(),
         }
     }
-    if let (Some(a), Some(last)) = (start, s.points.last()) {
-        shades.push(Shade { from: a, to: last.x, label: "fails a check".into() });
+}
+
+/// The reasons of a failing point, each short: a check's label, or an
+/// engine message cut before its details (the part after the first ": ",
+/// which carries numbers that differ from point to point).
+fn reasons_of(p: &sweep::SweepPoint) -> Vec<&str> {
+    if p.values.is_none() {
+        vec![p.reason.split(": ").next().unwrap_or(&p.reason)]
+    } else {
+        p.reason.split("; ").filter(|r| !r.is_empty()).collect()
     }
+}
+
+/// Consecutive failing points with the same key (`by_key`), or all
+/// consecutive failing points (`!by_key`, the reasons of the run collected,
+/// each once, at most [`MAX_REASONS`]), their edges halfway (geometrically)
+/// to the neighbouring points.
+fn fail_runs(s: &sweep::Sweep, by_key: bool) -> Vec<FailRun> {
+    let pts = &s.points;
+    let edge = |i: usize, j: usize| -> f64 {
+        match (pts.get(i), pts.get(j)) {
+            (Some(a), Some(b)) if a.x > 0.0 && b.x > 0.0 => (a.x * b.x).sqrt(),
+            (Some(a), _) => a.x,
+            (_, Some(b)) => b.x,
+            _ => 0.0,
+        }
+    };
+    let mut runs: Vec<FailRun> = Vec::new();
+    let mut i = 0;
+    while i < pts.len() {
+        if pts[i].feasible {
+            i += 1;
+            continue;
+        }
+        let key = key_of(&pts[i]);
+        let start = i;
+        while i + 1 < pts.len() && !pts[i + 1].feasible && (!by_key || key_of(&pts[i + 1]) == key) {
+            i += 1;
+        }
+        let from = if start == 0 { pts[0].x } else { edge(start - 1, start) };
+        let to = if i + 1 >= pts.len() { pts[i].x } else { edge(i, i + 1) };
+        let mut reasons: Vec<&str> = Vec::new();
+        let mut more = false;
+        for p in pts.get(start..=i).unwrap_or(&[]) {
+            for part in reasons_of(p) {
+                if !reasons.contains(&part) {
+                    if reasons.len() < MAX_REASONS {
+                        reasons.push(part);
+                    } else {
+                        more = true;
+                    }
+                }
+            }
+        }
+        let mut detail = reasons.join("; ");
+        if more {
+            detail.push_str("; and other reasons (see the CSV)");
+        }
+        runs.push(FailRun { from, to, key, detail });
+        i += 1;
+    }
+    runs
+}
+
+fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
+    // Feasible points only, with a gap (NaN) where a design fails.
+    let line = |f: fn(&sweep::PointValues) -> f64| -> Vec<(f64, f64)> {
+        s.points
+            .iter()
+            .map(|p| (p.x, p.values.filter(|_| p.feasible).map_or(f64::NAN, |v| f(&v))))
+            .collect()
+    };
+    let failing: Vec<(f64, f64)> = s
+        .points
+        .iter()
+        .filter(|p| !p.feasible)
+        .filter_map(|p| p.values.map(|v| (p.x, v.total)))
+        .collect();
+    let runs = fail_runs(s, true);
+    let mut keys: Vec<String> = Vec::new();
+    let shades = runs
+        .iter()
+        .map(|run| {
+            let k = match keys.iter().position(|k| k == &run.key) {
+                Some(k) => k,
+                None => {
+                    keys.push(run.key.clone());
+                    keys.len() - 1
+                }
+            };
+            Shade {
+                from: run.from,
+                to: run.to,
+                label: run.key.clone(),
+                color: plot::BANDS[k % plot::BANDS.len()],
+            }
+        })
+        .collect();
     let mut markers = vec![Marker {
-        x: f0,
+        x: r.frequency,
         y: r.losses.total,
         side: Side::Left,
         label: format!("this design: {}", notation::format(r.losses.total, "W", 3)),
         color: plot::GREY,
     }];
-    if let Some((x, v)) = s.minimum.and_then(|i| s.points.get(i)).and_then(|p| p.values.map(|v| (p.x, v))) {
+    if let Some((x, v)) = s
+        .minimum
+        .and_then(|i| s.points.get(i))
+        .and_then(|p| p.values.map(|v| (p.x, v)))
+    {
         markers.push(Marker {
             x,
             y: v.total,
             side: Side::Left,
-            label: format!("lowest: {} at {}", notation::format(v.total, "W", 3), notation::format(x, "Hz", 3)),
+            label: format!(
+                "least loss: {} at {}",
+                notation::format(v.total, "W", 3),
+                notation::format(x, "Hz", 3)
+            ),
             color: plot::GREEN,
         });
+    }
+    let mut series = vec![
+        Series::new("total", line(|v| v.total), plot::GREEN).dots(2),
+        Series::new("core", line(|v| v.core), plot::BLUE).thin().dots(2),
+        Series::new("copper DC", line(|v| v.copper_dc), plot::ORANGE)
+            .thin()
+            .dots(2),
+        Series::new("copper AC (above DC)", line(|v| v.copper_ac_extra), plot::PURPLE)
+            .thin()
+            .dots(2),
+        Series::new("hot spot", line(|v| v.temperature), plot::RED)
+            .right()
+            .thin()
+            .dots(1),
+    ];
+    if !failing.is_empty() {
+        series.push(Series::new("total of a failing design", failing, Rgb(150, 156, 166)).scatter(2));
     }
     LineChart {
         x: Axis::new("Switching frequency", "Hz").log(),
         y: Axis::new("Loss", "W").from_zero(),
         y2: Some(Axis::new("Hot spot", "°C")),
-        series: vec![
-            Series::new("total", line(|v| v.total), plot::GREEN),
-            Series::new("core", line(|v| v.core), plot::BLUE),
-            Series::new("copper DC", line(|v| v.copper_dc), plot::ORANGE),
-            Series::new("copper AC", line(|v| v.copper_ac_extra), plot::PURPLE),
-            Series::new("temperature", line(|v| v.temperature), plot::RED).right().thin(),
-        ],
+        series,
         markers,
         shades,
     }
 }
 
-/// The flux waveform and the frequency sweep.
+/// The four pictures, a line-corner selector and the sweep's CSV.
 #[component]
 pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl IntoView {
-    let sweep = Memo::new(move |_| {
-        design.with(|d| {
+    let corner = RwSignal::new(Corner::VinMin);
+
+    // The sweep runs on its own copy of the design, set by a timer after
+    // the last edit (module docs), so a keystroke never waits for it.
+    let swept = RwSignal::new(None::<Design>);
+    let timer = StoredValue::new(None::<leptos::prelude::TimeoutHandle>);
+    Effect::new(move |_| {
+        let d = design.get();
+        if let Some(h) = timer.get_value() {
+            h.clear();
+        }
+        let handle = set_timeout_with_handle(
+            move || {
+                if swept.with_untracked(|s| s != &d) {
+                    swept.set(d.clone());
+                }
+            },
+            Duration::from_millis(SWEEP_DELAY_MS),
+        )
+        .ok();
+        timer.set_value(handle);
+    });
+    // The sweep and how long it took, ms (shown as `data-sweep-ms`).
+    let timed = Memo::new(move |_| {
+        swept.with(|d| {
             d.as_ref().and_then(|d| {
                 let (lo, hi) = sweep_range(d.spec.frequency);
-                sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()
+                let t0 = js_sys::Date::now();
+                let s = sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()?;
+                Some((s, js_sys::Date::now() - t0))
             })
         })
     });
-    let draw_flux = move |c: &web_sys::HtmlCanvasElement| match outcome.get() {
-        Ok(r) => plot::line_chart(c, &flux_chart(&r)),
-        Err(_) => Ok(()),
+    let sweep = Memo::new(move |_| timed.with(|t| t.as_ref().map(|t| t.0.clone())));
+    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.1));
+    let ready = move || swept.with(|s| design.with(|d| s == d));
+
+    let mmf = Memo::new(move |_| {
+        let c = corner.get();
+        outcome.with(|o| o.as_ref().ok().and_then(|r| views::mmf_profile(r, c).ok()))
+    });
+    let saturation = Memo::new(move |_| {
+        outcome.with(|o| {
+            o.as_ref().ok().and_then(|r| {
+                let (lo, hi) = saturation_range(r);
+                views::saturation(r, lo, hi, BSAT_POINTS).ok()
+            })
+        })
+    });
+
+    let draw_waves = move |c: &web_sys::HtmlCanvasElement| {
+        let k = corner.get();
+        outcome.with(|o| match o {
+            Ok(r) => plot::line_chart(c, &wave_chart(r, k)),
+            Err(_) => Ok(()),
+        })
     };
-    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| match (outcome.get(), sweep.get()) {
-        (Ok(r), Some(s)) => plot::line_chart(c, &sweep_chart(&s, r.frequency, &r)),
-        _ => Ok(()),
+    let draw_sat = move |c: &web_sys::HtmlCanvasElement| match saturation.get() {
+        Some(v) => plot::line_chart(c, &saturation_chart(&v)),
+        None => Ok(()),
     };
+    let draw_mmf = move |c: &web_sys::HtmlCanvasElement| {
+        mmf.with(|m| {
+            outcome.with(|o| match (o, m) {
+                (Ok(r), Some(m)) => plot::line_chart(c, &mmf_chart(r, m)),
+                _ => Ok(()),
+            })
+        })
+    };
+    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
+        sweep.with(|s| {
+            outcome.with(|o| match (o, s) {
+                (Ok(r), Some(s)) => plot::line_chart(c, &sweep_chart(s, r)),
+                _ => Ok(()),
+            })
+        })
+    };
+
     let hidden = move || outcome.with(|o| o.is_err());
     let save_csv = move |_| {
         if let Some(s) = sweep.get_untracked() {
-            if let Err(e) = crate::browser::download("magwright-sweep.csv", "text/csv", &sweep::to_csv(&s, "frequency_Hz")) {
+            if let Err(e) =
+                crate::browser::download("magwright-sweep.csv", "text/csv", &sweep::to_csv(&s, "frequency_Hz"))
+            {
                 leptos::logging::warn!("sweep CSV: {e}");
             }
         }
     };
+    let vin = move |c: Corner| {
+        outcome.with(|o| {
+            o.as_ref().map_or(String::new(), |r| {
+                format!(" ({})", notation::format(op(r, c).vin, "V", 3))
+            })
+        })
+    };
+    let on_corner = move |ev: leptos::ev::Event| {
+        corner.set(if event_target_value(&ev) == "vin_max" {
+            Corner::VinMax
+        } else {
+            Corner::VinMin
+        });
+    };
+
+    // Figures' data attributes: what the tests compare with the engine.
+    let mmf_json = move || mmf.with(|m| m.as_ref().map(|m| serde_json::to_string(&m.points).unwrap_or_default()));
+    let mmf_peak = move || mmf.with(|m| m.as_ref().map(|m| m.peak));
+    let mmf_residual = move || mmf.with(|m| m.as_ref().map(|m| m.residual));
+    let mmf_caption = move || {
+        mmf.with(|m| {
+            m.as_ref().map_or(String::new(), |m| {
+                let ip = m.currents.iter().find(|c| c.0 == m.reference).map_or(0.0, |c| c.1);
+                format!(
+                    "MMF across the window at {}, t = {} (the {} current's peak, {}). Peak {}; left after the last layer {} \
+                     (the net ampere-turns: magnetising current and, for a transformer, the loss share the model adds to \
+                     the primary current; a flyback at its primary peak keeps all of Np·Ipk). One-dimensional field, \
+                     zero at the bobbin.",
+                    corner_name(m.corner),
+                    notation::format(m.time, "s", 3),
+                    m.reference,
+                    notation::format(ip.abs(), "A", 3),
+                    notation::format(m.peak, "A", 3),
+                    notation::format(m.residual, "A", 3),
+                )
+            })
+        })
+    };
+    let sweep_min = move || {
+        sweep.with(|s| {
+            s.as_ref()
+                .and_then(|s| s.minimum.and_then(|i| s.points.get(i)).map(|p| p.x))
+        })
+    };
+    let sweep_lo = move || swept.with(|d| d.as_ref().map(|d| sweep_range(d.spec.frequency).0));
+    let sweep_hi = move || swept.with(|d| d.as_ref().map(|d| sweep_range(d.spec.frequency).1));
+    let fails = move || sweep.with(|s| s.as_ref().map(|s| fail_runs(s, false)).unwrap_or_default());
+    let fails_text = move || {
+        fails()
+            .iter()
+            .map(|f| {
+                format!(
+                    "{} – {}: {}",
+                    notation::format(f.from, "Hz", 3),
+                    notation::format(f.to, "Hz", 3),
+                    f.detail
+                )
+            })
+            .collect::<Vec<_>>()
+            .join("\n")
+    };
+    let sat_caption = move || {
+        saturation.with(|v| {
+            v.as_ref().map_or(String::new(), |v| {
+                format!(
+                    "Bpk {} at the hot spot's {} against a limit of {} there (Bsat {} less {:.0} %). Bsat is the \
+                     material's 25 °C and 100 °C values joined by a line, extrapolated beyond. Read as: the dot must sit \
+                     under the dashed line at the temperature the core runs at.",
+                    notation::format(v.b_peak, "T", 3),
+                    notation::format(v.temperature, "°C", 3),
+                    notation::format(v.limit_at_operating, "T", 3),
+                    notation::format(v.bsat_at_operating, "T", 3),
+                    v.margin * 100.0
+                )
+            })
+        })
+    };
+
     view! {
+        <style>{CSS}</style>
         <p class="missing-note" class:hidden=move || !hidden()>"The pictures appear once the design computes."</p>
-        <figure class="plot" class:hidden=hidden>
-            <PlotCanvas testid="flux-plot" label="Flux density over one switching period" width=520 height=240 draw=draw_flux />
-            <figcaption>"Flux density over one switching period, at Vin min and Vin max."</figcaption>
+        <div class="corner-pick" class:hidden=hidden>
+            <label for="pic-corner">"Line corner for the waveforms and the MMF"</label>
+            <select id="pic-corner" data-testid="corner-select" on:change=on_corner prop:value=move || corner_key(corner.get())>
+                <option value="vin_min">{move || format!("Vin min{}", vin(Corner::VinMin))}</option>
+                <option value="vin_max">{move || format!("Vin max{}", vin(Corner::VinMax))}</option>
+            </select>
+        </div>
+        <figure class="plot" class:hidden=hidden data-testid="waves-figure" data-corner=move || corner_key(corner.get())>
+            <PlotCanvas testid="flux-plot" label="Winding currents and flux density over one switching period" width=520 height=280 draw=draw_waves />
+            <figcaption>{move || format!(
+                "Every winding's current (left axis, positive as the winding conducts) and the flux density B (right axis) over one switching period at {}.",
+                corner_name(corner.get())
+            )}</figcaption>
         </figure>
-        <figure class="plot" class:hidden=hidden>
-            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=300 draw=draw_sweep />
-            <figcaption>"The design redone at each of 100 frequencies: turns, gap, wire and temperature each time. "
+        <figure class="plot" class:hidden=hidden data-testid="saturation-figure"
+            data-b-peak=move || saturation.with(|v| v.as_ref().map(|v| v.b_peak))
+            data-temperature=move || saturation.with(|v| v.as_ref().map(|v| v.temperature))
+            data-limit=move || saturation.with(|v| v.as_ref().map(|v| v.limit_at_operating))>
+            <PlotCanvas testid="saturation-plot" label="Operating flux density against the saturation limit over temperature" width=520 height=280 draw=draw_sat />
+            <figcaption>{sat_caption}" A B–H plane is not drawn: the material is described by Bsat at two temperatures and μi, not by a measured loop."</figcaption>
+        </figure>
+        <figure class="plot" class:hidden=hidden data-testid="mmf-figure" data-corner=move || corner_key(corner.get())
+            data-mmf=mmf_json data-si-peak=mmf_peak data-si-residual=mmf_residual>
+            <PlotCanvas testid="mmf-plot" label="Magnetomotive force across the winding window" width=520 height=280 draw=draw_mmf />
+            <figcaption>{mmf_caption}</figcaption>
+        </figure>
+        <figure class="plot" class:hidden=hidden class:stale=move || !ready() data-testid="sweep-figure"
+            data-sweep-ready=move || if ready() { "true" } else { "false" }
+            data-min-hz=sweep_min data-sweep-ms=sweep_ms data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
+            title=fails_text>
+            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=360 draw=draw_sweep />
+            <figcaption>
+                {format!("The design redone at each of {SWEEP_POINTS} frequencies, a decade either side of this one: turns, gap, wire and temperature each time, so the curves step where an integer turn count or a wire size changes. Dots are the designs computed; lines only join passing ones. ")}
                 <button type="button" class="small" data-testid="sweep-csv" on:click=save_csv>"Download as CSV"</button>
+                <ul class="sweep-fails" data-testid="sweep-fails">
+                    {move || fails().into_iter().map(|f| view! {
+                        <li data-from-hz=f.from data-to-hz=f.to>
+                            {format!("{} to {}: {}", notation::format(f.from, "Hz", 3), notation::format(f.to, "Hz", 3), f.detail)}
+                        </li>
+                    }).collect_view()}
+                </ul>
             </figcaption>
         </figure>
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use magwright_engine::design::sweep::{PointValues, Sweep, SweepPoint};
+
+    fn pt(x: f64, ok: bool, reason: &str, values: bool) -> SweepPoint {
+        let v = PointValues {
+            core: 1.0,
+            copper_dc: 1.0,
+            copper_ac_extra: 0.1,
+            copper: 1.1,
+            total: 2.1,
+            temperature: 60.0,
+            b_peak: 0.1,
+            primary_turns: 10,
+        };
+        SweepPoint {
+            x,
+            feasible: ok,
+            values: values.then_some(v),
+            reason: reason.into(),
+        }
+    }
+
+    #[test]
+    fn failing_runs_group_by_reason_with_edges_between_points() {
+        let s = Sweep {
+            points: vec![
+                pt(1e3, false, "window too small", false),
+                pt(4e3, false, "other words", false),
+                pt(16e3, true, "", true),
+                pt(64e3, false, "Hot-spot temperature", true),
+                pt(256e3, false, "Hot-spot temperature", true),
+            ],
+            minimum: Some(2),
+            ratio_at_minimum: None,
+            two_over_beta: 1.0,
+        };
+        let runs = fail_runs(&s, true);
+        assert_eq!(runs.len(), 2);
+        assert_eq!(runs[0].key, "no design can be built");
+        assert_eq!((runs[0].from, runs[0].to), (1e3, 8e3)); // √(4k·16k) = 8k
+        assert_eq!(runs[0].detail, "window too small; other words");
+        let mut cut = pt(
+            1e3,
+            false,
+            "the windings do not fit this core's window: 0.45 mm × 21",
+            false,
+        );
+        assert_eq!(reasons_of(&cut), vec!["the windings do not fit this core's window"]);
+        cut.values = s.points[2].values;
+        cut.reason = "Duty; Hot-spot temperature".into();
+        assert_eq!(key_of(&cut), "fails: Duty");
+        assert_eq!(runs[1].key, "fails: Hot-spot temperature");
+        assert_eq!((runs[1].from, runs[1].to), (32e3, 256e3));
+        // Listed: one range per stretch of failing points, reasons each once.
+        let mut s2 = s.clone();
+        s2.points[4].reason = "Duty; Hot-spot temperature".into();
+        let list = fail_runs(&s2, false);
+        assert_eq!(list.len(), 2);
+        assert_eq!(list[1].detail, "Hot-spot temperature; Duty");
+        let bands = fail_runs(&s2, true);
+        assert_eq!(bands.len(), 3);
+    }
+
+    #[test]
+    fn sweep_range_stays_inside_the_engine_limits() {
+        assert_eq!(sweep_range(100e3), (10e3, 1e6));
+        assert_eq!(sweep_range(5e3), (1e3, 50e3));
+        assert_eq!(sweep_range(2e6), (200e3, 10e6));
     }
 }
