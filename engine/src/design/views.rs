@@ -49,7 +49,7 @@
 
 use super::solve::Report;
 use crate::error::{Error, Result};
-use crate::topology::{Corner, OperatingPoint, Topology};
+use crate::topology::{Corner, OperatingPoint};
 use crate::waveform::Pwl;
 use crate::winding::fit::LayerFit;
 use serde::Serialize;
@@ -144,35 +144,7 @@ pub fn peak_instant(w: &Pwl) -> (f64, Approach) {
     (t, side)
 }
 
-/// The sign that puts a winding's current (as the topology gives it,
-/// positive in the direction the winding conducts) into the loss model's
-/// dot convention. Forward-type secondaries oppose the primary; flyback
-/// secondaries carry the stored MMF on in the same sense; a push-pull's
-/// B halves drive the opposite sense of its A halves.
-///
-/// This is the convention of the solver's copper-loss currents
-/// (`solve::currents_of`), kept here in step with it so the picture shows
-/// the field the loss model sees.
-pub fn core_sense(topology: Topology, name: &str) -> f64 {
-    let secondary = name.starts_with("secondary");
-    let b_half = name.ends_with(" B");
-    match topology {
-        Topology::Flyback => 1.0,
-        Topology::Forward | Topology::TwoSwitchForward => {
-            if secondary {
-                -1.0
-            } else {
-                1.0
-            }
-        }
-        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => match (secondary, b_half) {
-            (false, false) => 1.0,
-            (false, true) => -1.0,
-            (true, false) => -1.0,
-            (true, true) => 1.0,
-        },
-    }
-}
+pub use super::solve::core_sense;
 
 /// One layer of the MMF diagram.
 #[derive(Debug, Clone, PartialEq, Serialize)]
