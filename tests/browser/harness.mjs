@@ -82,7 +82,10 @@ export function close(a, b, rel = 1e-9) {
 
 // The text of every input and select of the form, by element id.
 export async function formState(page) {
-  return page.$$eval('main input[id^="f-"], main select[id^="f-"]', (els) => Object.fromEntries(els.map((e) => [e.id, e.value])));
+  // The own-core entries (f-cc-*) are a scratch pad that starts from the
+  // core in use; they are not part of the design.
+  return page.$$eval('main input[id^="f-"], main select[id^="f-"]',
+    (els) => Object.fromEntries(els.filter((e) => !e.id.startsWith('f-cc-')).map((e) => [e.id, e.value])));
 }
 
 // Share of a canvas's pixels that are not white, and how many distinct colours.
