@@ -5,8 +5,9 @@
 //!    pinned to the exact version of the `wasm-bindgen` crate, so one lock
 //!    file holds both) with the `web` target;
 //! 2. inlines the JS glue into a `<script type="module">` and the wasm as
-//!    base64, because a page opened from file:// may neither import a
-//!    module file nor fetch a .wasm file;
+//!    base64 of its raw DEFLATE stream (inflated in the page by the
+//!    browser's `DecompressionStream`), because a page opened from file://
+//!    may neither import a module file nor fetch a .wasm file;
 //! 3. writes the template with `<!-- MAGWRIGHT_APP -->` replaced.
 
 use std::path::{Path, PathBuf};
@@ -47,17 +48,26 @@ fn run(wasm: &Path, template: &Path, out: &Path) -> Result<(), String> {
     if !page.contains(MARK) {
         return Err(format!("{} has no {MARK} marker", template.display()));
     }
+    // The wasm travels as base64 of its raw DEFLATE stream; the page inflates
+    // it with the browser's DecompressionStream (no network involved).
+    let packed = miniz_oxide::deflate::compress_to_vec(&bin, 9);
     let script = format!(
-        "<script type=\"module\">\n{}\nconst b64 = \"{}\";\nconst raw = atob(b64);\nconst bytes = new Uint8Array(raw.length);\nfor (let i = 0; i < raw.length; i++) bytes[i] = raw.charCodeAt(i);\nawait __wbg_init({{ module_or_path: bytes }});\n</script>",
+        "<script type=\"module\">\n{}\nconst b64 = \"{}\";\nconst raw = atob(b64);\nconst packed = new Uint8Array(raw.length);\nfor (let i = 0; i < raw.length; i++) packed[i] = raw.charCodeAt(i);\nconst inflated = new Blob([packed]).stream().pipeThrough(new DecompressionStream('deflate-raw'));\nconst bytes = new Uint8Array(await new Response(inflated).arrayBuffer());\nawait __wbg_init({{ module_or_path: bytes }});\n</script>",
         module_as_script(&js),
-        base64(&bin)
+        base64(&packed)
     );
     let html = page.replace(MARK, &script);
     if let Some(dir) = out.parent() {
         std::fs::create_dir_all(dir).map_err(|e| format!("{}: {e}", dir.display()))?;
     }
     std::fs::write(out, &html).map_err(|e| format!("{}: {e}", out.display()))?;
-    println!("wrote {} ({} KB; wasm {} KB)", out.display(), html.len() / 1024, bin.len() / 1024);
+    println!(
+        "wrote {} ({} KB; wasm {} KB, {} KB deflated)",
+        out.display(),
+        html.len() / 1024,
+        bin.len() / 1024,
+        packed.len() / 1024
+    );
     Ok(())
 }
 
@@ -105,6 +115,14 @@ mod tests {
         for (i, o) in [("", ""), ("f", "Zg=="), ("fo", "Zm8="), ("foo", "Zm9v"), ("foobar", "Zm9vYmFy")] {
             assert_eq!(base64(i.as_bytes()), o);
         }
+    }
+
+    #[test]
+    fn deflate_round_trips() {
+        let data: Vec<u8> = (0..50_000u32).map(|i| (i * 7 % 251) as u8).collect();
+        let packed = miniz_oxide::deflate::compress_to_vec(&data, 9);
+        assert!(packed.len() < data.len());
+        assert_eq!(miniz_oxide::inflate::decompress_to_vec(&packed).unwrap(), data);
     }
 
     #[test]
