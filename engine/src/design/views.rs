@@ -293,10 +293,12 @@ pub struct SaturationView {
     /// The hot-spot limit of the spec and the ambient, °C.
     pub hot_spot_max: f64,
     pub ambient: f64,
-    /// Worst-corner Bpk, T, and that corner.
+    /// Worst-corner Bpk in the smallest section (Bpk·Ae/Amin where
+    /// Amin < Ae), T, and that corner.
     pub b_peak: f64,
     pub corner: Corner,
-    /// Lowest and highest B over the period at that corner, T (the swing).
+    /// Lowest and highest B over the period at that corner, in the same
+    /// section, T (the swing).
     pub b_min: f64,
     pub b_max: f64,
     /// Bsat and the limit at the operating temperature, T.
@@ -337,6 +339,8 @@ pub fn saturation(report: &Report, t_from: f64, t_to: f64, n: usize) -> Result<S
     let worst = report.waveforms.get("b_peak");
     let corner = worst.map_or(report.loss_corner, |w| w.corner);
     let flux = &corner_point(report, corner).flux;
+    // Saturation is judged in the smallest section (see `solve::sat_scale`).
+    let k = super::solve::sat_scale(&report.core);
     Ok(SaturationView {
         bsat,
         limit,
@@ -344,10 +348,10 @@ pub fn saturation(report: &Report, t_from: f64, t_to: f64, n: usize) -> Result<S
         temperature: t_op,
         hot_spot_max,
         ambient: t_op - report.thermal.rise,
-        b_peak: worst.map_or(flux.peak_abs(), |w| w.value),
+        b_peak: worst.map_or(flux.peak_abs(), |w| w.value) * k,
         corner,
-        b_min: flux.min(),
-        b_max: flux.max(),
+        b_min: flux.min() * k,
+        b_max: flux.max() * k,
         bsat_at_operating: bsat_op,
         limit_at_operating: bsat_op * (1.0 - margin),
     })
@@ -519,9 +523,13 @@ mod tests {
         }
         // At 25 °C the curve is the material's 25 °C value (its data).
         assert!((v.bsat[0].1 - r.material.bsat_25).abs() < 1e-12);
-        // The swing bar spans the corner's ΔB (the topology's own figure).
+        // The swing bar spans the corner's ΔB (the topology's own figure),
+        // taken in the smallest section like the check.
         let op = corner_point(&r, v.corner);
-        assert!((v.b_max - v.b_min - op.delta_b).abs() < 1e-9);
+        let k = crate::design::solve::sat_scale(&r.core);
+        assert!((v.b_max - v.b_min - op.delta_b * k).abs() < 1e-9);
+        let check = r.checks.iter().find(|c| c.key == "saturation").unwrap();
+        assert!((v.b_peak - check.value).abs() < 1e-12, "the figure shows the check's Bpk");
         assert!((v.temperature - r.thermal.temperature).abs() < 1e-12);
         assert!(v.b_peak < v.limit_at_operating, "the demo passes the saturation check");
         assert!(saturation(&r, 25.0, 150.0, 1).is_err());

@@ -118,7 +118,7 @@ fn verdict(r: &Report) -> (String, String) {
 /// A short name for a check, read at a glance (the engine's label is the tooltip).
 fn short_label(c: &Check) -> String {
     match c.key.as_str() {
-        "saturation" => "Bpk vs Bsat (hot)".into(),
+        "saturation" => "Bpk in Amin vs Bsat (hot)".into(),
         "temperature" => "Hot spot".into(),
         "window" => "Window build".into(),
         "duty" => "Duty".into(),
@@ -298,7 +298,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                     {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, al.map(|a| format!("AL {} /turn²", notation::format(a, "H", 3))).unwrap_or_default())}
                     {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
                     {tile("gap", "Gap", r.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), r.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(&r))}
-                    {tile("b-peak", "Peak flux density", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, c)| corner_name(Some(c)).to_string()))}
+                    {tile("b-peak", "Bpk over Ae", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, c)| corner_name(Some(c)).to_string()))}
                     {tile("core-loss", "Core loss", notation::format(r.losses.core, "W", 3), r.losses.core, String::new())}
                     {tile("cu-loss", "Copper loss", notation::format(r.losses.copper, "W", 3), r.losses.copper, format!("DC {} + AC {}", notation::format(r.losses.copper_dc, "W", 2), notation::format(r.losses.copper_ac_extra, "W", 2)))}
                     {tile("total-loss", "Total loss", notation::format(r.losses.total, "W", 3), r.losses.total, corner_name(Some(r.loss_corner)).to_string())}
