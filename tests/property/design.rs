@@ -245,6 +245,7 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
                 turns,
                 gap_placement,
                 interleave,
+                section_order: Vec::new(),
                 window_utilisation,
                 wires,
                 insulation,

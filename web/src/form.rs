@@ -10,7 +10,7 @@
 
 use crate::field::Field;
 use leptos::prelude::*;
-use magwright_engine::design::file::{Insulation, Interleave, TurnsRule, WireOverride};
+use magwright_engine::design::file::{Insulation, Interleave, SectionTurns, TurnsRule, WireOverride};
 use magwright_engine::design::{self, Choices, CoreChoice, Design, MaterialChoice};
 use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
@@ -276,6 +276,8 @@ pub struct Form {
     pub material: RwSignal<MaterialChoice>,
     /// Conductors the user fixed per winding (the stack-up editor).
     pub wires: RwSignal<Vec<WireOverride>>,
+    /// The sections bobbin outward when the interleaving is custom.
+    pub section_order: RwSignal<Vec<SectionTurns>>,
 }
 
 /// The numeric values of a design, in [`NUMS`] order (entries the design
@@ -373,6 +375,7 @@ impl Form {
             core: RwSignal::new(d.core.clone()),
             material: RwSignal::new(d.material.clone()),
             wires: RwSignal::new(d.choices.wires.clone()),
+            section_order: RwSignal::new(d.choices.section_order.clone()),
         };
         f.set_choices(d);
         f
@@ -402,6 +405,7 @@ impl Form {
         self.core.set(d.core.clone());
         self.material.set(d.material.clone());
         self.wires.set(d.choices.wires.clone());
+        self.section_order.set(d.choices.section_order.clone());
     }
 
     /// Replaces every field with the values of `d` (opening a file).
@@ -505,6 +509,7 @@ impl Form {
             },
             gap_placement: self.gap.get(),
             interleave: self.interleave.get(),
+            section_order: self.section_order.get(),
             window_utilisation: g(ix::KU),
             wires: self.wires.get(),
             insulation: Insulation {

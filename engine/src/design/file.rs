@@ -78,6 +78,21 @@ pub enum Interleave {
     SplitPrimary,
     /// S-P-S: half of each other winding, the primary, the other halves.
     SplitSecondaries,
+    /// The sections in `Choices::section_order`, bobbin outward.
+    Custom,
+}
+
+/// One section of a custom winding order.
+#[derive(Debug, Clone, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct SectionTurns {
+    /// The winding's name, e.g. "primary", "secondary 1", "primary A".
+    pub winding: String,
+    /// Turns in this section; `None` shares the winding's remaining turns
+    /// equally with its other `None` sections (so P-S-P stays P-S-P when
+    /// the turns change).
+    #[serde(default)]
+    pub turns: Option<u32>,
 }
 
 /// A conductor the user fixes for one winding (others stay automatic).
@@ -138,6 +153,8 @@ pub struct Choices {
     /// Where a flyback's gap goes.
     pub gap_placement: GapPlacement,
     pub interleave: Interleave,
+    /// The sections bobbin outward when `interleave` is `custom`.
+    pub section_order: Vec<SectionTurns>,
     /// Fraction of the window area the copper may fill when the wire is
     /// chosen automatically (Ku of Erickson & Maksimovic ch. 15).
     pub window_utilisation: f64,
@@ -158,6 +175,7 @@ impl Default for Choices {
             turns: TurnsRule::LeastLoss,
             gap_placement: GapPlacement::CentreLeg,
             interleave: Interleave::Auto,
+            section_order: Vec::new(),
             window_utilisation: 0.3,
             wires: Vec::new(),
             insulation: Insulation::default(),

@@ -532,6 +532,7 @@ fn choose_stackup(
         Interleave::Sequential => Pattern::Sequential,
         Interleave::SplitPrimary => Pattern::SplitPrimary,
         Interleave::SplitSecondaries => Pattern::SplitSecondaries,
+        Interleave::Custom => Pattern::Custom(custom_order(&ch.section_order, windings)?),
         Interleave::Auto => {
             let centre_tapped = windings.iter().any(|w| w.0.ends_with(" A"));
             if windings.len() >= 2 && !centre_tapped && windings[0].1 >= 2 {
@@ -587,6 +588,9 @@ fn choose_stackup(
         });
         match built {
             Ok((st, f)) => return Ok((st, f, wires)),
+            Err(e) if e.field() == Some("pattern") => {
+                return Err(Error::infeasible(Some("choices.section_order"), e.message().to_string()))
+            }
             Err(e) => {
                 last_err = Some(e);
                 if ch.wires.len() == windings.len() {
@@ -598,6 +602,47 @@ fn choose_stackup(
     }
     let e = last_err.unwrap_or_else(|| Error::infeasible(Some("core"), "the windings do not fit"));
     Err(Error::infeasible(Some("core"), format!("the windings do not fit this core's window: {}", e.message())))
+}
+
+/// A custom section order as (winding index, turns), bobbin outward:
+/// sections without turns share their winding's remaining turns equally
+/// (the first ones take the odd turns).
+fn custom_order(order: &[super::file::SectionTurns], windings: &[(String, u32, f64)]) -> Result<Vec<(usize, u32)>> {
+    if order.is_empty() {
+        return Err(Error::input("choices.section_order", "a custom order needs its sections, bobbin outward"));
+    }
+    let mut out = Vec::with_capacity(order.len());
+    for (k, s) in order.iter().enumerate() {
+        let i = windings.iter().position(|w| w.0 == s.winding).ok_or_else(|| {
+            let names: Vec<&str> = windings.iter().map(|w| w.0.as_str()).collect();
+            Error::input(
+                &format!("choices.section_order[{k}].winding"),
+                format!("no winding \"{}\" in this design (windings: {})", s.winding, names.join(", ")),
+            )
+        })?;
+        out.push((i, s.turns.unwrap_or(0)));
+    }
+    for (i, (name, total, _)) in windings.iter().enumerate() {
+        let fixed: u64 = order.iter().zip(&out).filter(|(_, o)| o.0 == i).filter_map(|(s, _)| s.turns).map(u64::from).sum();
+        let shared: Vec<usize> = (0..order.len()).filter(|&k| out[k].0 == i && order[k].turns.is_none()).collect();
+        let has_any = out.iter().any(|o| o.0 == i);
+        if !has_any {
+            return Err(Error::input("choices.section_order", format!("the winding \"{name}\" has no section in the order")));
+        }
+        let total = u64::from(*total);
+        if fixed > total || (shared.is_empty() && fixed != total) {
+            return Err(Error::infeasible(
+                Some("choices.section_order"),
+                format!("the sections of \"{name}\" hold {fixed} turns but the design gives it {total}"),
+            ));
+        }
+        let rest = total - fixed;
+        let n = shared.len() as u64;
+        for (j, &k) in shared.iter().enumerate() {
+            out[k].1 = (rest / n.max(1) + u64::from((j as u64) < rest % n.max(1))) as u32;
+        }
+    }
+    Ok(out)
 }
 
 /// AWG whose bare diameter is the largest not above `d` (ASTM B258 inverse),
@@ -982,6 +1027,32 @@ mod tests {
         let mut d = Design::demo_forward();
         d.spec.frequency = f64::NAN;
         assert!(evaluate(&d).unwrap_err().field().is_some());
+    }
+
+    #[test]
+    fn custom_order_shares_turns_and_names_errors() {
+        use crate::design::file::{Interleave, SectionTurns};
+        let st = |w: &str, t: Option<u32>| SectionTurns { winding: w.into(), turns: t };
+        let mut d = Design::demo_forward();
+        d.choices.interleave = Interleave::Custom;
+        d.choices.section_order =
+            vec![st("primary", None), st("secondary 1", None), st("reset", None), st("primary", None)];
+        let r = evaluate(&d).unwrap();
+        let secs: Vec<(String, u32)> = r.stackup.sections().map(|(_, s)| (s.winding.clone(), s.turns)).collect();
+        let np = r.turns.primary;
+        assert_eq!(secs.first().unwrap(), &("primary".to_string(), np.div_ceil(2)));
+        assert_eq!(secs.last().unwrap(), &("primary".to_string(), np / 2));
+        assert_eq!(secs.len(), 4);
+        // The same as the built-in P-S-P order.
+        let mut psp = Design::demo_forward();
+        psp.choices.interleave = Interleave::SplitPrimary;
+        assert!((evaluate(&psp).unwrap().losses.total - r.losses.total).abs() < 1e-12);
+        d.choices.section_order = vec![st("primary", None), st("secondary 9", None)];
+        assert_eq!(evaluate(&d).unwrap_err().field(), Some("choices.section_order[1].winding"));
+        d.choices.section_order = vec![st("primary", None), st("secondary 1", None)];
+        assert_eq!(evaluate(&d).unwrap_err().field(), Some("choices.section_order"), "reset has no section");
+        d.choices.section_order = vec![st("primary", Some(1)), st("secondary 1", None), st("reset", None)];
+        assert_eq!(evaluate(&d).unwrap_err().field(), Some("choices.section_order"));
     }
 
     #[test]
