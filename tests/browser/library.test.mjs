@@ -2,7 +2,7 @@
 // library, pick a core and a material (the page then computes what the
 // native CLI computes for the same design file), define a core by
 // effective parameters (the engine's messages at the fields), and fit a
-// material to pasted loss measurements.
+// material to pasted loss measurements or enter one from its data.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
@@ -228,6 +228,76 @@ test('a material fitted to pasted measurements recovers known k, α, β and is u
   const back = await assertMatchesCli(page);
   assert.ok(close(back.want.losses.total, before.want.losses.total));
   assert.deepEqual(requests, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a material of your own by its data: start from the grade in use, edit, the engine checks each field', async () => {
+  const { context, page, requests, errors } = await openPage(browser);
+  const before = await assertMatchesCli(page);
+  const base = before.want.material;
+  assert.equal(base.name, 'MnZn-200k');
+  await page.click('[data-testid="own-material"] summary');
+  await page.focus('[data-testid="copy-material"]');
+  await page.keyboard.press('Enter');
+  assert.equal(await page.inputValue('#f-cm-name'), 'MnZn-200k (edited)');
+  // The grade's values, read back exactly (Bsat in T with an SI prefix).
+  assert.equal(await page.inputValue('#f-cm-bsat25'), '490m');
+  assert.equal(Number(await page.inputValue('#f-cm-alpha')), base.steinmetz.alpha);
+  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.ct1 / (2 * base.temp_factor.ct2));
+  assert.equal(await page.isChecked('#f-cm-flat'), false);
+
+  // An α outside the plausible range: the engine's message (Material::validate,
+  // field material.steinmetz.alpha) at the α entry, and the material cannot be used.
+  await typeInto(page, 'cm-alpha', '5');
+  await page.waitForFunction(() => document.querySelector('#e-cm-alpha')?.textContent.length > 0);
+  assert.match(await page.textContent('#e-cm-alpha'), /between 0\.9 and 3\.5/);
+  assert.equal(await page.getAttribute('#f-cm-alpha', 'aria-invalid'), 'true');
+  assert.ok(await page.isDisabled('[data-testid="use-own-material"]'));
+  await page.locator('[data-testid="own-material"]').screenshot({ path: join(OUT, 'library-own-material-bad.png') });
+  // Not a number: the parser's message at that entry.
+  await typeInto(page, 'cm-alpha', '1.3x');
+  assert.match(await page.textContent('#e-cm-alpha'), /not a number/);
+  await typeInto(page, 'cm-alpha', '1.35');
+  assert.equal(await page.textContent('#e-cm-alpha'), '');
+  // Bsat at 100 °C with its unit typed: read as 0.36 T.
+  await typeInto(page, 'cm-bsat100', '360 mT');
+  assert.equal(await page.textContent('#e-cm-bsat100'), '');
+  assert.match(await page.textContent('[data-testid="own-material"] .field:has(#f-cm-bsat100) .entry-echo'), /^= 0\.36 T$/);
+  // Flat (with the keyboard): the loss-minimum entries go; unticked, they come back as typed.
+  await page.focus('#f-cm-flat');
+  await page.keyboard.press('Space');
+  await page.waitForSelector('#f-cm-tref', { state: 'detached' });
+  await page.keyboard.press('Space');
+  await page.waitForSelector('#f-cm-tref');
+  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.ct1 / (2 * base.temp_factor.ct2));
+  await typeInto(page, 'cm-name', 'Bench grade');
+  assert.ok(!(await page.isDisabled('[data-testid="use-own-material"]')));
+  await page.focus('[data-testid="use-own-material"]');
+  await page.keyboard.press('Enter');
+  await waitStored(page, (d) => d.material?.from === 'custom' && d.material?.material?.name === 'Bench grade');
+
+  // The page's results are the CLI's for the saved design, whose material is ours.
+  const after = await assertMatchesCli(page);
+  const mat = after.design.material.material;
+  assert.equal(mat.steinmetz.alpha, 1.35);
+  assert.equal(mat.bsat_100, 0.36);
+  assert.equal(mat.provenance, 'your own data');
+  // Everything not edited is the grade's, exactly.
+  for (const key of ['mu_i', 'bsat_25', 'curie_c', 'resistivity', 'density']) assert.equal(mat[key], base[key], key);
+  for (const key of ['k', 'beta', 'f_min', 'f_max', 'b_min', 'b_max']) assert.equal(mat.steinmetz[key], base.steinmetz[key], key);
+  // Rebuilt as 1 + c·(T − Tmin)² (TempFactor::with_minimum): the same parabola.
+  for (const key of ['ct2', 'ct1', 'ct0']) assert.ok(close(mat.temp_factor[key], base.temp_factor[key], 1e-12), key);
+  assert.equal(after.want.material.bsat_100, 0.36);
+  // A higher α raises the loss above 1 Hz (the factor f^0.05 is about 1.8 at 100 kHz).
+  assert.ok(after.want.losses.core > before.want.losses.core, `core loss ${after.want.losses.core} vs ${before.want.losses.core}`);
+  assert.ok(close(await shown(page, 'mat-alpha'), 1.35));
+  assert.ok(close(await shown(page, 'mat-bsat100'), 0.36));
+  assert.equal(await page.textContent('[data-testid="mat-provenance"]'), 'your own data');
+  assert.match(await page.textContent('#f-material'), /Your own: Bench grade/);
+  assert.match(await page.textContent('[data-testid="own-material-state"]'), /In use/);
+  await page.locator('[data-testid="panel-core"]').screenshot({ path: join(OUT, 'library-own-material.png') });
+  assert.deepEqual(requests, [], 'the page made no network requests');
   assert.deepEqual(errors, []);
   await context.close();
 });

@@ -15,7 +15,11 @@
 //!   temperature of k, where the numbers come from). The material can also
 //!   be the user's own, fitted by the engine ([`fit::fit`]) to measured loss
 //!   points pasted as text; the fit takes μi, Bsat and the rest from the
-//!   grade in use ([`fit::LossFit::apply_to`]).
+//!   grade in use ([`fit::LossFit::apply_to`]). Or it can be entered field
+//!   by field from a datasheet (every field of [`Material`], the
+//!   temperature factor as its loss minimum and curvature,
+//!   [`TempFactor::with_minimum`]), checked by [`Material::validate`] on
+//!   every keystroke with its message at the field it names.
 //!
 //! Nothing here computes physics: every number shown is a field of an
 //! engine value (a library [`Core`] or [`Material`], a [`fit::LossFit`]).
@@ -29,7 +33,7 @@ use leptos::prelude::*;
 use magwright_engine::core::{library as cores, Core, Effective};
 use magwright_engine::design::{CoreChoice, MaterialChoice};
 use magwright_engine::material::fit::{self, LossFit, LossPoint};
-use magwright_engine::material::{library as materials, Material};
+use magwright_engine::material::{library as materials, Material, Steinmetz, TempFactor};
 use magwright_engine::{notation, Error};
 
 const CSS: &str = r#"
@@ -46,6 +50,8 @@ const CSS: &str = r#"
 .lib .entry-echo { font-size:.76em; color:var(--muted); min-height:0; }
 .lib textarea { width:100%; box-sizing:border-box; min-height:8em; font:.85em/1.35 ui-monospace, SFMono-Regular, Menlo, Consolas, monospace; border:1px solid #9aa4b1; border-radius:4px; padding:.3rem; color:var(--ink); }
 .lib .bad { color:var(--bad); font-size:.85em; }
+.lib .check { display:flex; gap:.4rem; align-items:center; font-size:.88em; margin:.3rem 0 .2rem; }
+.lib .check input { width:auto; margin:0; }
 .lib .note { font-size:.82em; color:var(--muted); margin:.2rem 0; }
 .lib ul.notes { font-size:.82em; margin:.2rem 0 .4rem 1.1rem; padding:0; color:var(--warn); }
 .lib-overlay { position:fixed; inset:0; background:rgba(20,28,38,.45); z-index:20; display:flex; align-items:flex-start; justify-content:center; padding:3vh 1rem; }
@@ -375,6 +381,7 @@ pub fn Library(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
             <CustomCore form=form />
             <MaterialPick form=form outcome=outcome />
             <MaterialData form=form />
+            <OwnMaterial form=form />
             <FittedMaterial form=form />
         </div>
         <CoreBrowser form=form open=browsing />
@@ -1068,6 +1075,241 @@ fn MaterialData(form: Form) -> impl IntoView {
     }
 }
 
+/// One entry of the user's own material.
+struct MatDef {
+    /// Element key: the input's id is `f-<key>`.
+    key: &'static str,
+    /// The field [`Material::validate`] names in its errors.
+    engine: &'static [&'static str],
+    label: &'static str,
+    /// Unit symbol that may follow the number (and is shown beside it).
+    unit: &'static str,
+    help: &'static str,
+}
+
+/// Index of the loss-minimum temperature and of the curvature in [`OWN`]
+/// (skipped when the temperature factor is flat).
+const T_REF: usize = 11;
+const CURVE: usize = 12;
+
+const OWN: [MatDef; 15] = [
+    MatDef { key: "cm-mu", engine: &["material.mu_i"], label: "μi", unit: "", help: "Initial relative permeability" },
+    MatDef { key: "cm-bsat25", engine: &["material.bsat_25"], label: "Bsat at 25 °C", unit: "T", help: "Saturation flux density at 25 °C, tesla (490m = 490 mT)" },
+    MatDef { key: "cm-bsat100", engine: &["material.bsat_100"], label: "Bsat at 100 °C", unit: "T", help: "Saturation flux density at 100 °C, tesla (390m = 390 mT)" },
+    MatDef { key: "cm-curie", engine: &["material.curie_c"], label: "Curie temperature", unit: "°C", help: "Where the ferrite stops being magnetic" },
+    MatDef { key: "cm-k", engine: &["material.steinmetz.k"], label: "Steinmetz k", unit: "", help: "Pv = k·f^α·B^β in W/m³ with f in Hz and B peak in T (sinusoid), at the loss minimum" },
+    MatDef { key: "cm-alpha", engine: &["material.steinmetz.alpha"], label: "α (frequency)", unit: "", help: "Frequency exponent of the Steinmetz law" },
+    MatDef { key: "cm-beta", engine: &["material.steinmetz.beta"], label: "β (flux)", unit: "", help: "Flux exponent of the Steinmetz law" },
+    MatDef { key: "cm-fmin", engine: &["material.steinmetz.f_min"], label: "Fitted from f", unit: "Hz", help: "Lowest frequency k, α, β hold at" },
+    MatDef { key: "cm-fmax", engine: &["material.steinmetz.f_max"], label: "Fitted to f", unit: "Hz", help: "Highest frequency k, α, β hold at" },
+    MatDef { key: "cm-bmin", engine: &["material.steinmetz.b_min"], label: "Fitted from B peak", unit: "T", help: "Lowest peak flux density k, α, β hold at" },
+    MatDef { key: "cm-bmax", engine: &["material.steinmetz.b_max"], label: "Fitted to B peak", unit: "T", help: "Highest peak flux density k, α, β hold at" },
+    MatDef { key: "cm-tref", engine: &["material.temp_factor.ct1"], label: "Loss minimum at", unit: "°C", help: "The temperature where the loss is least; k holds there" },
+    MatDef { key: "cm-curve", engine: &["material.temp_factor.ct2", "material.temp_factor.ct0"], label: "Curvature c", unit: "/°C²", help: "The loss rises as 1 + c·(T − Tmin)² either side of the minimum (1e-4: +25 % at 50 °C away)" },
+    MatDef { key: "cm-rho", engine: &["material.resistivity"], label: "Resistivity", unit: "Ω·m", help: "Bulk DC resistivity" },
+    MatDef { key: "cm-density", engine: &["material.density"], label: "Density", unit: "kg/m³", help: "For the core mass" },
+];
+
+/// `v` as short text that reads back exactly: with an SI prefix where the
+/// unit takes one ("490m" T, "20k" Hz), else plain or with an exponent.
+fn exact_text(v: f64, prefixed: bool) -> String {
+    if !v.is_finite() {
+        return String::new();
+    }
+    let reads_back = |t: &str| notation::parse(t, "").is_ok_and(|r| r == v);
+    if prefixed && v != 0.0 {
+        // Shortest digits of v, the decimal point moved by the prefix.
+        let e = format!("{v:e}");
+        if let Some((digits, exp)) = e.split_once('e').and_then(|(d, x)| x.parse::<i32>().ok().map(|x| (d, x))) {
+            for (p, shift) in [("m", -3), ("", 0), ("k", 3), ("M", 6)] {
+                if let Ok(m) = format!("{digits}e{}", exp - shift).parse::<f64>() {
+                    let t = format!("{m}{p}");
+                    if (1.0..1000.0).contains(&m.abs()) && reads_back(&t) {
+                        return t;
+                    }
+                }
+            }
+        }
+    }
+    let plain = format!("{v}");
+    if plain.len() <= 10 && reads_back(&plain) {
+        plain
+    } else {
+        format!("{v:e}")
+    }
+}
+
+/// The own-material entries' texts from a material, and whether its
+/// temperature factor is flat.
+fn material_texts(m: &Material) -> ([String; 15], bool) {
+    let s = &m.steinmetz;
+    let t_ref = m.reference_temperature();
+    let vals = [
+        m.mu_i,
+        m.bsat_25,
+        m.bsat_100,
+        m.curie_c,
+        s.k,
+        s.alpha,
+        s.beta,
+        s.f_min,
+        s.f_max,
+        s.b_min,
+        s.b_max,
+        t_ref.unwrap_or(100.0),
+        if t_ref.is_some() { m.temp_factor.ct2 } else { 1e-4 },
+        m.resistivity,
+        m.density,
+    ];
+    let texts = std::array::from_fn(|i| exact_text(vals[i], matches!(OWN[i].unit, "T" | "Hz")));
+    (texts, t_ref.is_none())
+}
+
+/// What the own-material entries say: messages per entry, or the material.
+#[derive(Debug, Clone, PartialEq)]
+struct MatCheck {
+    /// (entry key, message).
+    errors: Vec<(&'static str, String)>,
+    /// A message about no single entry.
+    general: Option<String>,
+    ok: Option<Material>,
+}
+
+/// Reads the own-material entries into a [`Material`] and has the engine
+/// check it ([`Material::validate`]); its message lands at the entry of
+/// the field it names.
+fn check_material(name: &str, texts: &[String; 15], flat: bool) -> MatCheck {
+    let mut errors = Vec::new();
+    let mut v = [0.0; 15];
+    for (i, d) in OWN.iter().enumerate() {
+        if flat && (i == T_REF || i == CURVE) {
+            continue;
+        }
+        match notation::parse(&texts[i], d.unit) {
+            Ok(x) => v[i] = x,
+            Err(e) => errors.push((d.key, e.to_string())),
+        }
+    }
+    if !errors.is_empty() {
+        return MatCheck { errors, general: None, ok: None };
+    }
+    let m = Material {
+        name: name.trim().to_string(),
+        description: "Your own material, entered from its data".into(),
+        mu_i: v[0],
+        bsat_25: v[1],
+        bsat_100: v[2],
+        curie_c: v[3],
+        steinmetz: Steinmetz { k: v[4], alpha: v[5], beta: v[6], f_min: v[7], f_max: v[8], b_min: v[9], b_max: v[10] },
+        temp_factor: if flat { TempFactor::flat() } else { TempFactor::with_minimum(v[T_REF], v[CURVE]) },
+        resistivity: v[13],
+        density: v[14],
+        provenance: "your own data".into(),
+    };
+    match m.validate() {
+        Ok(()) => MatCheck { errors, general: None, ok: Some(m) },
+        Err(e) => {
+            let at = e.field().and_then(|f| {
+                if f == "material.name" {
+                    Some("cm-name")
+                } else {
+                    OWN.iter().find(|d| d.engine.contains(&f)).map(|d| d.key)
+                }
+            });
+            match at {
+                Some(k) => MatCheck { errors: vec![(k, e.message().to_string())], general: None, ok: None },
+                None => MatCheck { errors, general: Some(e.message().to_string()), ok: None },
+            }
+        }
+    }
+}
+
+/// The user's own material, entered field by field from its data.
+#[component]
+fn OwnMaterial(form: Form) -> impl IntoView {
+    let start = material_of(&form.material.get_untracked()).ok();
+    let (t0, flat0) = start.as_ref().map(material_texts).unwrap_or_default();
+    let name = RwSignal::new(match form.material.get_untracked() {
+        MaterialChoice::Custom { material } => material.name,
+        MaterialChoice::Library { .. } => "My material".to_string(),
+    });
+    let texts: [RwSignal<String>; 15] = std::array::from_fn(|i| RwSignal::new(t0[i].clone()));
+    let flat = RwSignal::new(flat0);
+    let check = Memo::new(move |_| {
+        let t: [String; 15] = std::array::from_fn(|i| texts[i].get());
+        check_material(&name.get(), &t, flat.get())
+    });
+    let error_at = move |key: &'static str| {
+        Signal::derive(move || check.with(|c| c.errors.iter().find(|e| e.0 == key).map(|e| e.1.clone())))
+    };
+    let copy_current = move |_| {
+        if let Ok(m) = material_of(&form.material.get_untracked()) {
+            let (t, f) = material_texts(&m);
+            for (s, v) in texts.iter().zip(t) {
+                s.set(v);
+            }
+            flat.set(f);
+            name.set(format!("{} (edited)", m.name));
+        }
+    };
+    let applied = RwSignal::new(false);
+    let use_it = move |_| {
+        if let Some(material) = check.get_untracked().ok {
+            form.material.set(MaterialChoice::Custom { material });
+            applied.set(true);
+        }
+    };
+    let in_use = move || {
+        check.with(|c| match (&c.ok, form.material.get()) {
+            (Some(m), MaterialChoice::Custom { material }) => *m == material,
+            _ => false,
+        })
+    };
+    let entry = move |i: usize| {
+        let d = &OWN[i];
+        let text = texts[i];
+        let unit = d.unit;
+        // What a typed prefix or unit was read as.
+        let echo = Signal::derive(move || {
+            let t = text.get();
+            let plain = t.trim().parse::<f64>().is_ok();
+            match notation::parse(&t, unit) {
+                Ok(v) if !plain => Some(format!("= {} {unit}", exact_text(v, false)).trim_end().to_string()),
+                _ => None,
+            }
+        });
+        view! { <Entry key=d.key label=d.label unit=unit text=text error=error_at(d.key) echo=echo help=d.help /> }
+    };
+    view! {
+        <details data-testid="own-material">
+            <summary>"Your own material, by its data"</summary>
+            <p class="note">"Numbers in the unit shown; SI prefixes work (490m T = 490 mT, 20k Hz, 1e-4). Steinmetz k, α, β for a sinusoid, at the loss minimum."</p>
+            <div class="row-buttons">
+                <button type="button" class="small" data-testid="copy-material" on:click=copy_current>"Start from the material in use"</button>
+            </div>
+            <div class="fields">
+                <Entry key="cm-name" label="Name" unit="" text=name error=error_at("cm-name") echo=none() />
+                {(0..T_REF).map(entry).collect_view()}
+            </div>
+            <div class="check">
+                <input type="checkbox" id="f-cm-flat" prop:checked=move || flat.get()
+                    on:change:target=move |ev| flat.set(ev.target().checked()) />
+                <label for="f-cm-flat">"Loss does not depend on temperature (flat)"</label>
+            </div>
+            <div class="fields">
+                <Show when=move || !flat.get()>{move || (T_REF..=CURVE).map(entry).collect_view()}</Show>
+                {(CURVE + 1..OWN.len()).map(entry).collect_view()}
+            </div>
+            <p class="bad" role="alert" data-testid="own-material-error">{move || check.with(|c| c.general.clone()).unwrap_or_default()}</p>
+            <button type="button" data-testid="use-own-material" disabled=move || check.with(|c| c.ok.is_none())
+                on:click=use_it>"Use this material"</button>
+            <span class="note" role="status" data-testid="own-material-state">
+                {move || if in_use() { " In use." } else if applied.get() { " Changed since used: press again to use." } else { "" }}
+            </span>
+        </details>
+    }
+}
+
 /// The example shown in the empty text box.
 const PLACEHOLDER: &str = "f  B  T  Pv\n100k 0.1 100 80k\n200k 0.1 100 195k\n100k 0.2 100 480k";
 
@@ -1268,6 +1510,37 @@ mod tests {
         assert!(select("", "etd34", Order::Library)
             .iter()
             .any(|&i| cores::all()[i].designation == "ETD 34"));
+    }
+
+    #[test]
+    fn own_material_reads_back_and_messages_land_at_the_entry() {
+        // Round trip: a library grade's data as text give the same material
+        // back (the temperature factor rebuilt by TempFactor::with_minimum).
+        let m = materials::find("MnZn-200k").unwrap();
+        let (t, flat) = material_texts(&m);
+        assert!(!flat);
+        assert_eq!(t[1], "490m");
+        assert_eq!(t[7], "20k");
+        let c = check_material("Mine", &t, false);
+        let got = c.ok.expect("valid");
+        assert_eq!((got.mu_i, got.bsat_25, got.steinmetz.clone()), (m.mu_i, m.bsat_25, m.steinmetz.clone()));
+        assert_eq!(got.reference_temperature(), m.reference_temperature());
+        assert_eq!(got.provenance, "your own data");
+        let mut bad = t.clone();
+        bad[5] = "5".into();
+        assert_eq!(check_material("Mine", &bad, false).errors.first().map(|e| e.0), Some("cm-alpha"));
+        let mut bad = t.clone();
+        bad[CURVE] = "-1e-4".into();
+        assert_eq!(check_material("Mine", &bad, false).errors.first().map(|e| e.0), Some("cm-curve"));
+        // Flat: the curvature entry is not read at all.
+        assert!(check_material("Mine", &bad, true).ok.is_some_and(|m| m.temp_factor == TempFactor::flat()));
+        bad[2] = "x".into();
+        assert_eq!(check_material("Mine", &bad, true).errors.first().map(|e| e.0), Some("cm-bsat100"));
+        assert_eq!(check_material(" ", &t, false).errors.first().map(|e| e.0), Some("cm-name"));
+        for v in [0.39, 1.6e-3, 2.3e3, 4800.0, 1e5, 1.2e-4, 300e3] {
+            assert_eq!(notation::parse(&exact_text(v, true), "").unwrap(), v);
+            assert_eq!(notation::parse(&exact_text(v, false), "").unwrap(), v);
+        }
     }
 
     #[test]
