@@ -216,3 +216,61 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   assert.deepEqual(errors, []);
   await context.close();
 });
+
+test('a custom order by keyboard: seeded from the stack-up as wound, the secondary moved first, the CLI\'s losses', async () => {
+  const { context, page, requests, errors } = await openPage(browser);
+  await page.waitForSelector('[data-testid="windings-table"]');
+  const start = await matchesCli(page, 'demo');
+  const wound = (want) => want.stackup.items.filter((i) => i.Section).map((i) => i.Section.winding);
+  const order = (d) => d.choices.section_order.map((s) => ({ winding: s.winding, turns: s.turns ?? null }));
+  const asWound = wound(start.want);
+  assert.deepEqual(asWound, ['primary', 'secondary 1', 'reset', 'primary'], 'the demo winds P-S-R-P');
+  assert.equal(await page.isVisible('[data-testid="order-editor"]'), false, 'no order editor until Custom');
+
+  // Custom: the list starts as the stack-up was wound, so nothing changes.
+  await page.focus('#f-interleave');
+  await page.keyboard.press('End');
+  await page.waitForSelector('[data-testid="order-editor"]', { state: 'visible' });
+  await page.waitForFunction(() => document.querySelectorAll('[data-testid="order-edit"] li').length === 4);
+  const seeded = await matchesCli(page, 'custom, as wound');
+  assert.equal(seeded.design.choices.interleave, 'custom');
+  assert.deepEqual(order(seeded.design), asWound.map((w) => ({ winding: w, turns: null })));
+  for (const w of start.want.operating.copper.windings) {
+    const now = seeded.want.operating.copper.windings.find((x) => x.name === w.name);
+    assert.ok(close(now.ac_loss, w.ac_loss, 1e-12), `seeding changes nothing: ${w.name}`);
+  }
+  assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move secondary 1 section 1 up');
+  assert.equal(await page.getAttribute('#order-split-3', 'aria-label'), 'Split primary section 2 in two');
+
+  // Secondary first (S-P-R-P) with the keyboard; the focus stays on it.
+  const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));
+  await page.focus('#order-up-1');
+  await page.keyboard.press('Enter');
+  await changed(page, 'fr-primary', fr0);
+  const moved = await matchesCli(page, 'secondary first');
+  assert.equal(moved.design.choices.interleave, 'custom');
+  const want = ['secondary 1', 'primary', 'reset', 'primary'];
+  assert.deepEqual(order(moved.design), want.map((w) => ({ winding: w, turns: null })));
+  assert.deepEqual(wound(moved.want), want, 'the engine winds the order given');
+  const shown = await page.$$eval('[data-testid="stackup-order"] li.section .what', (e) => e.map((x) => x.textContent));
+  assert.deepEqual(shown, want);
+  assert.equal(await page.evaluate(() => document.activeElement?.id), 'order-down-0');
+  await page.locator('[data-testid="panel-windings"]').screenshot({ path: join(OUT, 'windings-custom-order.png') });
+
+  // Without a reset section the engine refuses, at the editor; adding one back heals it.
+  await page.focus('#order-remove-2');
+  await page.keyboard.press('Enter');
+  await page.waitForSelector('[data-testid="order-error"]');
+  assert.match(await page.textContent('[data-testid="order-error"]'), /the winding "reset" has no section in the order/);
+  await page.focus('#f-order-add');
+  await page.selectOption('#f-order-add', { label: 'reset' });
+  await page.focus('[data-testid="order-add"]');
+  await page.keyboard.press('Enter');
+  await page.waitForSelector('[data-testid="windings-table"]');
+  assert.equal(await page.isVisible('[data-testid="order-error"]'), false);
+  const healed = await matchesCli(page, 'reset added outside');
+  assert.deepEqual(wound(healed.want), ['secondary 1', 'primary', 'primary', 'reset']);
+  assert.deepEqual(requests, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
