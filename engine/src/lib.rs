@@ -7,16 +7,20 @@
 //! panic, NaN or infinity.
 //!
 //! Modules, from the bottom up:
-//! * [`waveform`]: periodic piecewise-linear waveforms (currents, B(t)).
-//! * [`core`]: core sets, their effective parameters and the library.
-//! * [`material`]: ferrite grades and their loss coefficients.
-//! * [`loss`]: core-loss density (Steinmetz family).
-//! * [`gap`]: gapped-core inductance and saturation.
-//! * [`winding`]: conductors and copper resistance.
-//! * [`topology`]: converter waveforms and stresses.
+//! * [`error`], [`notation`], [`json`]: typed errors naming their field;
+//!   engineering notation ("200k") and JSON for the edges.
+//! * [`waveform`]: periodic piecewise-linear waveforms (currents, B(t)) with
+//!   exact RMS and Fourier series.
+//! * [`core`]: core sets, IEC 60205 effective parameters from dimensions, the library.
+//! * [`material`]: ferrite grades, their loss coefficients, fitting from measurements.
+//! * [`loss`]: core-loss density, Steinmetz and iGSE.
+//! * [`gap`]: gapped-core inductance with fringing, gap solving, saturation.
 //! * [`thermal`]: temperature rise and thermal equilibrium.
-//! * [`design`]: converter designs, a spec in and a report out.
-//! * [`notation`]: engineering notation ("200k") for front ends.
+//! * [`winding`]: conductors, stack-up, fit, Dowell AC resistance of real
+//!   currents, leakage.
+//! * [`topology`]: converter specifications, waveforms and stresses at both
+//!   line corners.
+//! * [`design`]: the design file, the solver, sweeps and the optimiser.
 
 pub mod core;
 pub mod design;
