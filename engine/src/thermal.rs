@@ -24,7 +24,7 @@ pub const MCLYMAN_K: f64 = 450.0;
 pub const MCLYMAN_EXP: f64 = 0.826;
 
 /// Temperature rise (K) of `loss` watts over `surface` m² by McLyman's
-/// relation ΔT = 450·(P/A[cm²])^0.826.
+/// relation ΔT = 450·(P/A, A in cm²)^0.826.
 pub fn rise(loss: f64, surface: f64) -> Result<f64> {
     non_negative("loss", loss, "W")?;
     positive("surface_area", surface, "m²")?;

@@ -1,6 +1,6 @@
 //! Whole designs: a [`Design`] file in, a worst-case-checked [`Report`] out.
 //!
-//! * [`file`]: the design file type (spec, core, material, choices).
+//! * [`file`](mod@file): the design file type (spec, core, material, choices).
 //! * [`solve`]: the solver: turns, gap, wire, stack-up, losses at both line
 //!   corners, thermal equilibrium and the pass/fail checks.
 //! * [`sweep`]: loss against frequency and against flux density.
