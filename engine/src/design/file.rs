@@ -153,7 +153,9 @@ pub struct Choices {
     /// Where a flyback's gap goes.
     pub gap_placement: GapPlacement,
     pub interleave: Interleave,
-    /// The sections bobbin outward when `interleave` is `custom`.
+    /// The sections bobbin outward when `interleave` is `custom` (left out
+    /// of the file when empty).
+    #[serde(skip_serializing_if = "Vec::is_empty")]
     pub section_order: Vec<SectionTurns>,
     /// Fraction of the window area the copper may fill when the wire is
     /// chosen automatically (Ku of Erickson & Maksimovic ch. 15).
