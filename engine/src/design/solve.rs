@@ -141,6 +141,9 @@ pub struct Report {
     pub b_limit: f64,
     /// Primary (flyback) or magnetising inductance, H.
     pub inductance: f64,
+    /// AL of the core as wound, H/turn²: the gap's for a flyback, else the
+    /// mated halves' with the residual gap.
+    pub al: f64,
     /// The flyback's gap; `None` for an ungapped core.
     pub gap: Option<GapAl>,
     pub gap_placement: gap::GapPlacement,
@@ -328,6 +331,7 @@ fn flux_limited_turns(spec: &Spec, n: f64, lp: Option<f64>, b_limit: f64, ae: f6
 struct Candidate {
     turns: Turns,
     inductance: f64,
+    al: f64,
     gap: Option<GapAl>,
     waves: WorstCase,
     stackup: StackUp,
@@ -402,18 +406,18 @@ fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<Candidate> {
     };
     let turns = Turns { primary: np, secondaries, reset };
     let gcore = GapCore::from_core(core)?;
-    let (inductance, gap) = match lp {
+    let (inductance, al, gap) = match lp {
         Some(l) => {
             let g = gap::solve_gap_for_inductance(&gcore, material.mu_i, l, np as f64, ch.gap_placement, true)
                 .map_err(|e| match e.field() {
                     Some("al") | Some("inductance") => Error::infeasible(Some("gap.al"), e.message().to_string()),
                     _ => e,
                 })?;
-            (g.inductance(np as f64), Some(g))
+            (g.inductance(np as f64), g.al, Some(g))
         }
         None => {
             let al = gap::al_value(&gcore, material.mu_i, RESIDUAL_GAP, gap::GapPlacement::CentreLeg, false)?;
-            (al.inductance(np as f64), None)
+            (al.inductance(np as f64), al.al, None)
         }
     };
     let waves = topology::worst_case(spec, &turns, Some(inductance), core.ae)?;
@@ -445,7 +449,7 @@ fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<Candidate> {
         let total = copper.total + core_loss.watts;
         corners.push(CornerLosses { corner, core: core_loss, copper, total });
     }
-    Ok(Candidate { turns, inductance, gap, waves, stackup, fit, wires, corners })
+    Ok(Candidate { turns, inductance, al, gap, waves, stackup, fit, wires, corners })
 }
 
 /// The windings' currents in the loss model's dot convention: positive
@@ -921,6 +925,7 @@ fn finish(
         turns_reason: reason,
         b_limit,
         inductance: c.inductance,
+        al: c.al,
         gap: c.gap,
         gap_placement: ch.gap_placement,
         waveforms: c.waves,
@@ -1011,6 +1016,10 @@ mod tests {
         // L = AL·N² (AL definition) with the solved gap.
         assert!((g.al * (r.turns.primary as f64).powi(2) - r.inductance).abs() < 1e-9 * r.inductance);
         assert!(g.gap > 0.0 && g.gap < r.core.window_height);
+        assert_eq!(r.al, g.al);
+        // Ungapped: L = AL·N² with the residual gap's AL (AL definition).
+        let f = evaluate(&Design::demo_forward()).unwrap();
+        assert!((f.al * (f.turns.primary as f64).powi(2) - f.inductance).abs() < 1e-12 * f.inductance);
     }
 
     #[test]

@@ -3,14 +3,14 @@
 //! its margin and worst line corner), then the key figures, why the turns
 //! are what they are, the thermal iteration, and the engine's warnings.
 //!
-//! Every number is a report field or an engine call (the ungapped AL);
+//! Every number is a report field;
 //! nothing is computed here beyond unit changes for display.
 
 use super::Missing;
 use crate::form::{Outcome, Report};
 use leptos::prelude::*;
 use magwright_engine::design::solve::{Check, RESIDUAL_GAP};
-use magwright_engine::gap::{self, GapCore, GapPlacement};
+use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
 use magwright_engine::topology::{Corner, Topology};
 
@@ -157,18 +157,6 @@ fn check_row(c: &Check) -> impl IntoView {
     }
 }
 
-/// AL of the core as wound: the gap's for a gapped core, else the engine's
-/// AL at the residual gap the solver assumes.
-fn al_of(r: &Report) -> Option<f64> {
-    match &r.gap {
-        Some(g) => Some(g.al),
-        None => GapCore::from_core(&r.core)
-            .and_then(|gc| gap::al_value(&gc, r.material.mu_i, RESIDUAL_GAP, GapPlacement::CentreLeg, false))
-            .ok()
-            .map(|a| a.al),
-    }
-}
-
 /// The gap as a builder reads it.
 pub fn gap_text(r: &Report) -> String {
     match &r.gap {
@@ -258,7 +246,6 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
             let worst = |q: &str| w.get(q).map(|x| (x.value, x.corner));
             let sw_v = worst("switch_voltage");
             let sw_i = worst("switch_peak_current");
-            let al = al_of(&r);
             let is_flyback = r.topology == Topology::Flyback;
             let l_label = if is_flyback {
                 "Primary inductance Lp"
@@ -295,7 +282,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                 <p class="turns-line" data-testid="turns">{turns}</p>
                 <div class="tiles" data-testid="key-figures">
                     {tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new())}
-                    {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, al.map(|a| format!("AL {} /turn²", notation::format(a, "H", 3))).unwrap_or_default())}
+                    {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, format!("AL {} /turn²", notation::format(r.al, "H", 3)))}
                     {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
                     {tile("gap", "Gap", r.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), r.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(&r))}
                     {tile("b-peak", "Bpk over Ae", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, c)| corner_name(Some(c)).to_string()))}
