@@ -8,7 +8,7 @@
 //! the cautions, and lines to sign. Every figure is a report field.
 
 use super::results::{corner_name, gap_text};
-use super::windings::{conductor_text, css_colour, direction_name, margins_text, mm, side_name};
+use super::windings::{conductor_text, css_colour, direction_name, margins_text, mm, section_layout, side_name};
 use crate::form::{Outcome, Report};
 use leptos::prelude::*;
 use magwright_engine::notation;
@@ -100,8 +100,7 @@ fn stack_rows(r: &Report) -> impl IntoView {
         .map(|(i, it)| match it {
             Item::Section(s) => {
                 let w = r.stackup.winding_index(&s.winding).unwrap_or(0);
-                let (layers, tpl, build) =
-                    r.fit.sections.iter().find(|f| f.item == i).map_or((0, 0, 0.0), |f| (f.layers, f.turns_per_layer, f.build));
+                let (layers, tpl, build) = section_layout(r, i);
                 let between =
                     s.interlayer.as_ref().map(|t| format!("; {} × {:.3} mm between layers", t.wraps, t.thickness * 1e3)).unwrap_or_default();
                 view! {

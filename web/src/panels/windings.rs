@@ -144,6 +144,12 @@ pub fn conductor_text(c: &Conductor, parallel: u32) -> String {
     }
 }
 
+/// Layers, turns per layer and radial build of the section at item `i`,
+/// as the engine's fit laid it out (zeros if the fit has no such section).
+pub fn section_layout(r: &Report, i: usize) -> (u32, u32, f64) {
+    r.fit.sections.iter().find(|f| f.item == i).map_or((0, 0, 0.0), |f| (f.layers, f.turns_per_layer, f.build))
+}
+
 /// The sections and tapes as wound, bobbin outward, one line each.
 fn order_list(r: &Report) -> impl IntoView {
     let last = r.stackup.items.len().saturating_sub(1);
@@ -155,8 +161,7 @@ fn order_list(r: &Report) -> impl IntoView {
         .map(|(i, it)| match it {
             Item::Section(s) => {
                 let w = r.stackup.winding_index(&s.winding).unwrap_or(0);
-                let sf = r.fit.sections.iter().find(|f| f.item == i);
-                let (layers, tpl, build) = sf.map_or((0, 0, 0.0), |f| (f.layers, f.turns_per_layer, f.build));
+                let (layers, tpl, build) = section_layout(r, i);
                 let between = s
                     .interlayer
                     .as_ref()
