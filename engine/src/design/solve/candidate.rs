@@ -1,0 +1,228 @@
+//! Steps 4–6 for one primary turn count: secondaries, gap, waveforms at both
+//! corners, conductors and stack-up, losses at the selection temperature.
+
+use super::*;
+use crate::core::Core;
+use crate::design::file::Design;
+use crate::error::{Error, Result};
+use crate::gap::{self, GapAl, GapCore};
+use crate::loss::{self};
+use crate::material::Material;
+use crate::topology::{self, sizing, Corner, Topology, Turns, WorstCase};
+use crate::winding::dowell::MU0;
+use crate::winding::fit::FitReport;
+use crate::winding::loss::{LossModel, LossOptions, WindingCurrent};
+use crate::winding::stackup::StackUp;
+use crate::winding::wire::copper_resistivity;
+
+/// A design built with given primary turns, losses at the selection temperature.
+#[derive(Debug, Clone)]
+pub(super) struct Candidate {
+    pub(super) turns: Turns,
+    pub(super) inductance: f64,
+    pub(super) al: f64,
+    pub(super) gap: Option<GapAl>,
+    pub(super) waves: WorstCase,
+    pub(super) stackup: StackUp,
+    pub(super) fit: FitReport,
+    pub(super) wires: Vec<WireSummary>,
+    pub(super) corners: Vec<CornerLosses>,
+}
+
+impl Candidate {
+    pub(super) fn worst_corner(&self) -> &CornerLosses {
+        // `corners` holds one or two entries (see `build_corners`).
+        let mut w = &self.corners[0];
+        for c in &self.corners[1..] {
+            if c.total > w.total {
+                w = c;
+            }
+        }
+        w
+    }
+    pub(super) fn selection_total(&self) -> f64 {
+        self.worst_corner().total
+    }
+    pub(super) fn selection_core(&self) -> f64 {
+        self.worst_corner().core.watts
+    }
+    pub(super) fn selection_copper(&self) -> f64 {
+        self.worst_corner().copper.total
+    }
+}
+
+/// What every candidate of one design shares.
+pub(super) struct Ctx<'a> {
+    pub(super) design: &'a Design,
+    pub(super) core: &'a Core,
+    pub(super) material: &'a Material,
+    pub(super) prep: &'a Prepared,
+    /// The design ratio Np/Ns1.
+    pub(super) n: f64,
+    /// The flyback's target Lp.
+    pub(super) lp: Option<f64>,
+}
+
+/// Builds at `np` or, where the gap cannot reach Lp (too little AL), at the
+/// fewest turns above `np` that can.
+pub(super) fn build_at_least(cx: &Ctx, np: u32, reason: &mut String) -> Result<Candidate> {
+    match build(cx, np) {
+        Err(e) if cx.lp.is_some() && e.field() == Some("gap.al") => {
+            // AL ungapped = μ0·μi·Ae/le bounds the inductance per turn².
+            let al_max = MU0 * cx.material.mu_i * cx.core.ae / cx.core.le;
+            let np2 = ((cx.lp.unwrap_or(0.0) / al_max).sqrt() * 1.05).ceil() as u32;
+            *reason = format!("turns raised to {np2} so the core's AL can give Lp");
+            build(cx, np2.max(np + 1))
+        }
+        other => other,
+    }
+}
+
+/// Step 4–6 for one primary turn count.
+pub(super) fn build(cx: &Ctx, np: u32) -> Result<Candidate> {
+    build_corners(cx, np, None)
+}
+
+/// [`build`] evaluating the losses at one corner only (`Some`) or both.
+pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<Candidate> {
+    let (design, core, material, prep, n, lp) =
+        (cx.design, cx.core, cx.material, cx.prep, cx.n, cx.lp);
+    let spec = &design.spec;
+    let ch = &design.choices;
+    let secondaries = sizing::secondary_turns(spec, np, n)?;
+    let reset = match spec.topology {
+        Topology::Forward => Some(np.min(sizing::max_reset_turns(np, spec.duty_max)?)),
+        _ => None,
+    };
+    let turns = Turns {
+        primary: np,
+        secondaries,
+        reset,
+    };
+    let gcore = GapCore::from_core(core)?;
+    let (inductance, al, gap) = match lp {
+        Some(l) => {
+            let g = gap::solve_gap_for_inductance(
+                &gcore,
+                material.mu_i,
+                l,
+                np as f64,
+                ch.gap_placement,
+                true,
+            )
+            .map_err(|e| match e.field() {
+                Some("al") | Some("inductance") => {
+                    Error::infeasible(Some("gap.al"), e.message().to_string())
+                }
+                _ => e,
+            })?;
+            (g.inductance(np as f64), g.al, Some(g))
+        }
+        None => {
+            let al = gap::al_value(
+                &gcore,
+                material.mu_i,
+                RESIDUAL_GAP,
+                gap::GapPlacement::CentreLeg,
+                false,
+            )?;
+            (al.inductance(np as f64), al.al, None)
+        }
+    };
+    let waves = topology::worst_case(spec, &turns, Some(inductance), core.ae)?;
+    let names: Vec<(String, u32, f64)> = waves
+        .at_vin_min
+        .windings
+        .iter()
+        .map(|w| {
+            let other = waves
+                .at_vin_max
+                .windings
+                .iter()
+                .find(|x| x.name == w.name)
+                .map_or(0.0, |x| x.rms);
+            (w.name.clone(), w.turns, w.rms.max(other))
+        })
+        .collect();
+    // Losses for choosing are taken at the hot-spot limit, kept below the
+    // Curie temperature where the loss model ends (the Curie check reports it).
+    let t_sel = spec.hot_spot_max.min(material.curie_c - 5.0);
+    let rho = copper_resistivity(t_sel)?;
+    let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
+    let (stackup, fit, wires) = choose_stackup(design, core, &names, delta)?;
+    let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
+    let opts = LossOptions {
+        edge_time: ch.edge_time,
+        ..LossOptions::default()
+    };
+    let mut corners = Vec::with_capacity(2);
+    for (corner, op) in [
+        (Corner::VinMin, &waves.at_vin_min),
+        (Corner::VinMax, &waves.at_vin_max),
+    ] {
+        if only.is_some_and(|c| c != corner) {
+            continue;
+        }
+        let currents = currents_of(spec.topology, op);
+        let copper = model.evaluate(&currents, &opts)?;
+        let core_loss = loss::core_loss_with(&prep.igse, material, &op.flux, t_sel, core.ve)?;
+        let total = copper.total + core_loss.watts;
+        corners.push(CornerLosses {
+            corner,
+            core: core_loss,
+            copper,
+            total,
+        });
+    }
+    Ok(Candidate {
+        turns,
+        inductance,
+        al,
+        gap,
+        waves,
+        stackup,
+        fit,
+        wires,
+        corners,
+    })
+}
+
+/// The windings' currents in the loss model's dot convention: positive
+/// where the winding's ampere-turns drive flux in the core's positive sense.
+/// Forward-type secondaries oppose the primary; flyback secondaries carry
+/// the stored MMF on in the same sense; a push-pull's B halves drive the
+/// opposite sense of the A halves.
+pub fn currents_of(topo: Topology, op: &topology::OperatingPoint) -> Vec<WindingCurrent> {
+    op.windings
+        .iter()
+        .map(|w| {
+            let sign = core_sense(topo, &w.name);
+            WindingCurrent::new(&w.name, w.current.scaled(sign))
+        })
+        .collect()
+}
+
+/// +1 or −1: the sense in which winding `name` drives the core's flux
+/// (see [`currents_of`]).
+pub fn core_sense(topo: Topology, name: &str) -> f64 {
+    let secondary = name.starts_with("secondary");
+    let b_half = name.ends_with(" B");
+    match topo {
+        Topology::Flyback => 1.0,
+        Topology::Forward | Topology::TwoSwitchForward => {
+            if secondary {
+                -1.0
+            } else {
+                1.0
+            }
+        }
+        Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => {
+            match (secondary, b_half) {
+                (false, false) => 1.0,
+                (false, true) => -1.0,
+                (true, false) => -1.0,
+                (true, true) => 1.0,
+            }
+        }
+    }
+}

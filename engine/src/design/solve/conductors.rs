@@ -1,0 +1,346 @@
+//! Step 5: the conductors and the stack-up.
+
+use super::*;
+use crate::core::Core;
+use crate::design::file::{Design, Interleave, WireChoice};
+use crate::error::{Error, Result};
+use crate::topology::Isolation;
+use crate::winding::conductor::{Conductor, Grade};
+use crate::winding::fit::{fit, FitReport};
+use crate::winding::stackup::{
+    default_stackup, DefaultOptions, Item, Pattern, StackUp, Tape, WindingSpec,
+};
+use crate::winding::wire::awg_diameter;
+
+/// Step 5: conductors and the stack-up.
+pub(super) fn choose_stackup(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+) -> Result<(StackUp, FitReport, Vec<WireSummary>)> {
+    let spec = &design.spec;
+    let ch = &design.choices;
+    for o in &ch.wires {
+        if !windings.iter().any(|w| w.0 == o.winding) {
+            let names: Vec<&str> = windings.iter().map(|w| w.0.as_str()).collect();
+            return Err(Error::input(
+                "choices.wires",
+                format!(
+                    "no winding \"{}\" in this design (windings: {})",
+                    o.winding,
+                    names.join(", ")
+                ),
+            ));
+        }
+    }
+    let hazardous = !spec.safety_cautions().is_empty();
+    let ins = &ch.insulation;
+    let margin = ins.margin.unwrap_or(match (spec.isolation, hazardous) {
+        // Margin tape at each flange so the creepage path between primary
+        // and secondary crosses two margins (common practice, from memory;
+        // the standard's creepage table for the working voltage decides).
+        (Isolation::Basic, true) => 2.0e-3,
+        (Isolation::Reinforced, true) => 3.0e-3,
+        _ => 0.0,
+    });
+    let tape = |wraps: u32| Tape {
+        material: "polyester film".into(),
+        thickness: ins.tape_thickness,
+        wraps,
+    };
+    let section_wraps = if spec.isolation == Isolation::Reinforced && hazardous {
+        ins.section_wraps.max(3)
+    } else {
+        ins.section_wraps
+    };
+    let opts = DefaultOptions {
+        section_tape: tape(section_wraps.max(1)),
+        outer_tape: tape(ins.outer_wraps.max(1)),
+        interlayer: (ins.interlayer_wraps > 0).then(|| tape(ins.interlayer_wraps)),
+        margin,
+    };
+    if core.winding_breadth - 2.0 * margin <= 0.5e-3 {
+        return Err(Error::infeasible(
+            Some("choices.insulation.margin"),
+            format!(
+                "{:.1} mm margins leave no winding breadth on this bobbin",
+                margin * 1e3
+            ),
+        ));
+    }
+    let pattern = match ch.interleave {
+        Interleave::Sequential => Pattern::Sequential,
+        Interleave::SplitPrimary => Pattern::SplitPrimary,
+        Interleave::SplitSecondaries => Pattern::SplitSecondaries,
+        Interleave::Custom => Pattern::Custom(custom_order(&ch.section_order, windings)?),
+        Interleave::Auto => {
+            let centre_tapped = windings.iter().any(|w| w.0.ends_with(" A"));
+            if windings.len() >= 2 && !centre_tapped && windings[0].1 >= 2 {
+                Pattern::SplitPrimary
+            } else {
+                Pattern::Sequential
+            }
+        }
+    };
+    let at_sum: f64 = windings.iter().map(|w| w.1 as f64 * w.2).sum();
+    let breadth = core.winding_breadth - 2.0 * margin;
+    let tiw_secondaries = spec.isolation == Isolation::Reinforced && hazardous;
+    let mut ku = ch.window_utilisation;
+    let mut last_err = None;
+    for _ in 0..7 {
+        let mut specs = Vec::with_capacity(windings.len());
+        let mut wires = Vec::with_capacity(windings.len());
+        for (name, turns, rms) in windings {
+            let fixed = ch.wires.iter().find(|o| &o.winding == name);
+            let (conductor, parallel) = match fixed {
+                Some(o) => fixed_conductor(&o.wire, breadth)?,
+                None => {
+                    // E&M §15.1.4: α_k = N_k·I_k/Σ N_j·I_j; A_k = α_k·Ku·Wa/N_k.
+                    let share = if at_sum > 0.0 {
+                        *turns as f64 * rms / at_sum
+                    } else {
+                        1.0 / windings.len() as f64
+                    };
+                    let area = (share * ku * core.window_area / *turns as f64).max(1e-9);
+                    let tiw = tiw_secondaries && name.starts_with("secondary");
+                    auto_conductor(area, *turns, delta, breadth, tiw, share < 0.05)?
+                }
+            };
+            let copper = conductor.copper_area() * parallel as f64;
+            wires.push(WireSummary {
+                winding: name.clone(),
+                turns: *turns,
+                conductor: conductor.describe(),
+                parallel,
+                copper_area: copper,
+                rms_current: *rms,
+                current_density: rms / copper,
+                automatic: fixed.is_none(),
+            });
+            specs.push(WindingSpec {
+                name: name.clone(),
+                turns: *turns,
+                conductor,
+                parallel,
+            });
+        }
+        let built = default_stackup(core, &specs, &pattern, &opts).and_then(|mut st| {
+            // Foil turns need a film between them.
+            for it in &mut st.items {
+                if let Item::Section(sec) = it {
+                    if sec.conductor.is_foil() && sec.interlayer.is_none() {
+                        sec.interlayer = Some(Tape {
+                            material: "polyester film".into(),
+                            thickness: FOIL_FILM,
+                            wraps: 1,
+                        });
+                    }
+                }
+            }
+            fit(core, &st).map(|f| (st, f))
+        });
+        match built {
+            Ok((st, f)) => return Ok((st, f, wires)),
+            Err(e) if e.field() == Some("pattern") => {
+                return Err(Error::infeasible(
+                    Some("choices.section_order"),
+                    e.message().to_string(),
+                ))
+            }
+            Err(e) => {
+                last_err = Some(e);
+                if ch.wires.len() == windings.len() {
+                    break;
+                }
+                ku *= 0.8;
+            }
+        }
+    }
+    let e = last_err.unwrap_or_else(|| Error::infeasible(Some("core"), "the windings do not fit"));
+    Err(Error::infeasible(
+        Some("core"),
+        format!(
+            "the windings do not fit this core's window: {}",
+            e.message()
+        ),
+    ))
+}
+
+/// A custom section order as (winding index, turns), bobbin outward:
+/// sections without turns share their winding's remaining turns equally
+/// (the first ones take the odd turns).
+pub(super) fn custom_order(
+    order: &[crate::design::file::SectionTurns],
+    windings: &[(String, u32, f64)],
+) -> Result<Vec<(usize, u32)>> {
+    if order.is_empty() {
+        return Err(Error::input(
+            "choices.section_order",
+            "a custom order needs its sections, bobbin outward",
+        ));
+    }
+    let mut out = Vec::with_capacity(order.len());
+    for (k, s) in order.iter().enumerate() {
+        let i = windings
+            .iter()
+            .position(|w| w.0 == s.winding)
+            .ok_or_else(|| {
+                let names: Vec<&str> = windings.iter().map(|w| w.0.as_str()).collect();
+                Error::input(
+                    &format!("choices.section_order[{k}].winding"),
+                    format!(
+                        "no winding \"{}\" in this design (windings: {})",
+                        s.winding,
+                        names.join(", ")
+                    ),
+                )
+            })?;
+        out.push((i, s.turns.unwrap_or(0)));
+    }
+    for (i, (name, total, _)) in windings.iter().enumerate() {
+        let fixed: u64 = order
+            .iter()
+            .zip(&out)
+            .filter(|(_, o)| o.0 == i)
+            .filter_map(|(s, _)| s.turns)
+            .map(u64::from)
+            .sum();
+        let shared: Vec<usize> = (0..order.len())
+            .filter(|&k| out[k].0 == i && order[k].turns.is_none())
+            .collect();
+        let has_any = out.iter().any(|o| o.0 == i);
+        if !has_any {
+            return Err(Error::input(
+                "choices.section_order",
+                format!("the winding \"{name}\" has no section in the order"),
+            ));
+        }
+        let total = u64::from(*total);
+        if fixed > total || (shared.is_empty() && fixed != total) {
+            return Err(Error::infeasible(
+                Some("choices.section_order"),
+                format!(
+                    "the sections of \"{name}\" hold {fixed} turns but the design gives it {total}"
+                ),
+            ));
+        }
+        let rest = total - fixed;
+        let n = shared.len() as u64;
+        for (j, &k) in shared.iter().enumerate() {
+            out[k].1 = (rest / n.max(1) + u64::from((j as u64) < rest % n.max(1))) as u32;
+        }
+    }
+    Ok(out)
+}
+
+/// AWG whose bare diameter is the largest not above `d` (ASTM B258 inverse),
+/// limited to 8..=46.
+pub(super) fn awg_not_above(d: f64) -> i32 {
+    let n = 36.0 - 39.0 * (d / 0.127e-3).ln() / 92f64.ln();
+    (n - 1e-9).ceil().clamp(8.0, 46.0) as i32
+}
+
+/// Realises a copper area (step 5 of the module docs): one round wire when
+/// its diameter is at most 2δ; otherwise the candidate with the least radial
+/// build among parallel round wires of at most 2δ, foil (eight turns or
+/// fewer) and litz of strands at most δ; one wire of at most 2δ for a
+/// `minor` winding (under 5 % of the ampere-turns). Common practice, no source.
+pub(super) fn auto_conductor(
+    area: f64,
+    turns: u32,
+    delta: f64,
+    breadth: f64,
+    tiw: bool,
+    minor: bool,
+) -> Result<(Conductor, u32)> {
+    let d_need = (4.0 * area / std::f64::consts::PI).sqrt();
+    let d_max = (2.0 * delta).max(0.1e-3);
+    let round_of = |d: f64| -> Result<Conductor> {
+        let bare = awg_diameter(awg_not_above(d))?;
+        if tiw {
+            // Triple-insulated: about 0.2 mm over the bare diameter (from memory).
+            Conductor::triple_insulated(bare, bare + 0.2e-3)
+        } else {
+            Conductor::awg(awg_not_above(d), Grade::G2)
+        }
+    };
+    // A winding with a small share of the ampere-turns (a reset winding)
+    // gets one round wire of at most 2δ: its loss is small either way, and
+    // a sheet or a row of wires across the breadth would sit in the full
+    // field of its neighbours.
+    if d_need <= d_max || minor {
+        return Ok((round_of(d_need.min(d_max))?, 1));
+    }
+    // Radial build of `turns` turns of `c` with `par` in hand across `breadth`.
+    let build = |c: &Conductor, par: u32| -> f64 {
+        if c.is_foil() {
+            return turns as f64 * par as f64 * (c.outer_height() + FOIL_FILM);
+        }
+        let per_layer = (breadth / c.outer_width()).floor().max(1.0);
+        let layers = ((turns as f64 * par as f64) / per_layer).ceil();
+        layers * c.outer_height()
+    };
+    let mut options: Vec<(Conductor, u32)> = Vec::with_capacity(3);
+    let a_strand = std::f64::consts::PI * d_max * d_max / 4.0;
+    let par = (area / a_strand).ceil().clamp(1.0, 40.0) as u32;
+    let d_par = (4.0 * area / (std::f64::consts::PI * par as f64))
+        .sqrt()
+        .min(d_max);
+    options.push((round_of(d_par)?, par));
+    if !tiw {
+        if turns <= 8 {
+            let t = ((area / breadth).clamp(0.03e-3, d_max) * 1e5).round() / 1e5;
+            options.push((Conductor::foil(t.max(0.03e-3), breadth)?, 1));
+        }
+        // Litz of strands no thicker than δ (AWG 30..46).
+        let g = awg_not_above(delta).max(30);
+        let ds = awg_diameter(g)?;
+        let strands = (area / (std::f64::consts::PI * ds * ds / 4.0))
+            .ceil()
+            .clamp(2.0, 2000.0) as u32;
+        options.push((Conductor::litz(strands, ds, Grade::G1, 0.65, 0.03e-3)?, 1));
+    }
+    options
+        .into_iter()
+        .min_by(|a, b| build(&a.0, a.1).total_cmp(&build(&b.0, b.1)))
+        .ok_or_else(|| Error::infeasible(None, "no conductor realises the copper area"))
+}
+
+/// Insulating film wound between foil turns, m (common practice, no source).
+pub(super) const FOIL_FILM: f64 = 0.025e-3;
+
+pub(super) fn fixed_conductor(w: &WireChoice, breadth: f64) -> Result<(Conductor, u32)> {
+    let par = |p: u32| -> Result<u32> {
+        if p == 0 || p > 100 {
+            return Err(Error::input(
+                "choices.wires.parallel",
+                "1 to 100 conductors in hand",
+            ));
+        }
+        Ok(p)
+    };
+    Ok(match *w {
+        WireChoice::Round { awg, parallel } => (Conductor::awg(awg, Grade::G2)?, par(parallel)?),
+        WireChoice::Litz {
+            strands,
+            strand_awg,
+        } => {
+            if strands == 0 || strands > 10_000 {
+                return Err(Error::input("choices.wires.strands", "1 to 10000 strands"));
+            }
+            (
+                Conductor::litz(strands, awg_diameter(strand_awg)?, Grade::G1, 0.65, 0.03e-3)?,
+                1,
+            )
+        }
+        WireChoice::Foil { thickness } => {
+            crate::error::in_range("choices.wires.thickness", thickness, 5e-6, 3e-3, "m")?;
+            (Conductor::foil(thickness, breadth)?, 1)
+        }
+        WireChoice::TripleInsulated { awg, parallel } => {
+            let d = awg_diameter(awg)?;
+            (Conductor::triple_insulated(d, d + 0.2e-3)?, par(parallel)?)
+        }
+    })
+}

@@ -1,0 +1,202 @@
+//! Steps 7–8: thermal equilibrium at the loss corner, then the checks.
+
+use super::*;
+use crate::core::Core;
+use crate::design::file::Design;
+use crate::error::{Error, Result};
+use crate::loss::{self};
+use crate::material::Material;
+use crate::thermal::{self};
+use crate::topology::Corner;
+use crate::winding::leakage::leakage;
+use crate::winding::loss::{LossModel, LossOptions};
+use crate::winding::wire::copper_resistivity;
+
+/// Steps 7–8.
+#[allow(clippy::too_many_arguments)]
+pub(super) fn finish(
+    design: &Design,
+    core: &Core,
+    material: &Material,
+    prep: &Prepared,
+    c: Candidate,
+    n_design: f64,
+    b_limit: f64,
+    reason: String,
+) -> Result<Report> {
+    let spec = &design.spec;
+    let ch = &design.choices;
+    let loss_corner = c.worst_corner().corner;
+    let op = match loss_corner {
+        Corner::VinMin => &c.waves.at_vin_min,
+        Corner::VinMax => &c.waves.at_vin_max,
+    };
+    let currents = currents_of(spec.topology, op);
+    let opts = LossOptions {
+        edge_time: ch.edge_time,
+        ..LossOptions::default()
+    };
+    let sel = c.worst_corner();
+    let core_pv_ref = sel.core.pv_reference;
+    let core_at = |t: f64| core_pv_ref * material.temp_factor.at(t) * core.ve;
+    // Copper between exact evaluations: the DC part scales with ρ(T), the
+    // part above DC with √ρ(T) (Dowell's large-Δ limit, Rac ∝ ρ/δ ∝ √ρ).
+    // Anchored at an exact evaluation; re-anchored at the equilibrium until
+    // it moves less than 0.5 K (at most three anchors).
+    let ceiling = (material.curie_c).min(250.0).max(spec.ambient + 1.0);
+    let mut t_k = spec
+        .hot_spot_max
+        .min(material.curie_c - 5.0)
+        .clamp(-60.0, 250.0);
+    let mut anchor = sel.copper.clone();
+    let mut history = Vec::new();
+    let mut iterations = 0;
+    let mut thermal = None;
+    let mut copper = anchor.clone();
+    for pass in 0..3 {
+        let dc: f64 = anchor.windings.iter().map(|w| w.dc_loss).sum();
+        let extra = (anchor.total - dc).max(0.0);
+        let rho_k = copper_resistivity(t_k)?;
+        let e = thermal::equilibrium(spec.ambient, core.surface_area, ceiling, |t| {
+            let r = copper_resistivity(t.clamp(-60.0, 250.0))? / rho_k;
+            Ok(core_at(t) + dc * r + extra * r.sqrt())
+        })?;
+        iterations += e.iterations;
+        history.extend_from_slice(&e.history);
+        let moved = (e.temperature - t_k).abs();
+        let runaway = e.runaway;
+        t_k = e.temperature.min(250.0);
+        thermal = Some(e);
+        copper = LossModel::from_fit(&c.stackup, &c.fit, t_k)?.evaluate(&currents, &opts)?;
+        anchor = copper.clone();
+        if runaway || moved < 0.5 || pass == 2 {
+            break;
+        }
+    }
+    let mut thermal =
+        thermal.ok_or_else(|| Error::infeasible(None, "thermal iteration did not run"))?;
+    thermal.iterations = iterations;
+    thermal.history = history;
+    let t_op = thermal.temperature;
+    // In runaway the iteration stops at the Curie temperature, where the
+    // loss model is undefined: report the loss just below it.
+    let t_loss = if thermal.runaway {
+        t_op.min(material.curie_c - 1.0)
+    } else {
+        t_op
+    };
+    let core_loss = loss::core_loss_with(&prep.igse, material, &op.flux, t_loss, core.ve)?;
+    let copper_dc: f64 = copper.windings.iter().map(|w| w.dc_loss).sum();
+    let losses = Losses {
+        core: core_loss.watts,
+        copper_dc,
+        copper_ac_extra: (copper.total - copper_dc).max(0.0),
+        copper: copper.total,
+        total: core_loss.watts + copper.total,
+    };
+    thermal.loss = losses.total;
+    let operating = CornerLosses {
+        corner: loss_corner,
+        total: losses.total,
+        core: core_loss,
+        copper,
+    };
+
+    let output = spec.output_power();
+    let power = Power {
+        output,
+        input: spec.input_power(),
+        magnetic_loss: losses.total,
+        magnetic_efficiency: output / (output + losses.total),
+    };
+
+    let checks = checks::checks(&checks::CheckInputs {
+        design,
+        core,
+        material,
+        c: &c,
+        thermal: &thermal,
+        loss_corner,
+    });
+    let pass = checks.iter().all(|k| k.pass);
+
+    let mut warnings: Vec<String> = Vec::new();
+    for w in c
+        .waves
+        .at_vin_min
+        .warnings
+        .iter()
+        .chain(c.waves.at_vin_max.warnings.iter())
+    {
+        if !warnings.contains(w) {
+            warnings.push(w.clone());
+        }
+    }
+    for w in operating.core.warnings.iter().map(|w| w.message()) {
+        if !warnings.contains(&w) {
+            warnings.push(w);
+        }
+    }
+    if ch
+        .b_max
+        .is_some_and(|b| b > material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin))
+    {
+        warnings.push(
+            "the Bpk limit you set is above Bsat at the hot-spot limit less the margin".into(),
+        );
+    }
+    if !operating.copper.converged {
+        warnings.push(
+            "the copper-loss harmonic sum reached its harmonic limit before 0.1 % convergence"
+                .into(),
+        );
+    }
+    let leakage = if c.stackup.windings.len() >= 2 {
+        let reference = c
+            .stackup
+            .windings
+            .first()
+            .map(|w| w.name.clone())
+            .unwrap_or_default();
+        leakage(core, &c.stackup, &reference).ok()
+    } else {
+        None
+    };
+    // Filled in by `evaluate` (sweeps and the optimiser do not need it).
+    let stackup_json = String::new();
+    let n_actual =
+        c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
+    let _ = n_design;
+    Ok(Report {
+        name: design.name.clone(),
+        topology: spec.topology,
+        dc: c.waves.dc,
+        frequency: spec.frequency,
+        core: core.clone(),
+        material: material.clone(),
+        turns: c.turns,
+        turns_ratio: n_actual,
+        turns_reason: reason,
+        b_limit,
+        inductance: c.inductance,
+        al: c.al,
+        gap: c.gap,
+        gap_placement: ch.gap_placement,
+        waveforms: c.waves,
+        wires: c.wires,
+        stackup: c.stackup,
+        stackup_json,
+        fit: c.fit,
+        leakage,
+        corners: c.corners,
+        loss_corner,
+        thermal,
+        operating,
+        losses,
+        power,
+        checks,
+        pass,
+        cautions: spec.safety_cautions(),
+        warnings,
+    })
+}

@@ -1,0 +1,128 @@
+//! The report's types: what the solver found, every intermediate quantity included.
+
+use crate::core::Core;
+use crate::gap::{self, GapAl};
+use crate::loss::CoreLoss;
+use crate::material::Material;
+use crate::thermal::Equilibrium;
+use crate::topology::{Corner, DcRange, Topology, Turns, WorstCase};
+use crate::winding::fit::FitReport;
+use crate::winding::loss::LossReport;
+use crate::winding::stackup::StackUp;
+use serde::Serialize;
+
+/// One pass/fail figure.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Check {
+    /// Key: "saturation", "temperature", "window", "duty", "switch_voltage", "curie".
+    pub key: String,
+    pub label: String,
+    pub value: f64,
+    pub limit: f64,
+    pub unit: String,
+    /// (limit − value)/limit: positive passes, negative fails by that fraction.
+    pub margin: f64,
+    pub pass: bool,
+    /// The tightest passing checks and every failing one.
+    pub binding: bool,
+    /// Line corner the value belongs to, where it depends on the line.
+    pub corner: Option<Corner>,
+    pub note: String,
+}
+
+/// The conductor chosen for one winding.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct WireSummary {
+    pub winding: String,
+    pub turns: u32,
+    pub conductor: String,
+    pub parallel: u32,
+    /// Copper area per turn, m².
+    pub copper_area: f64,
+    /// Worst-corner RMS current, A, and its current density, A/m².
+    pub rms_current: f64,
+    pub current_density: f64,
+    /// Chosen automatically (false: the user fixed it).
+    pub automatic: bool,
+}
+
+/// Losses at one corner and one temperature.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct CornerLosses {
+    pub corner: Corner,
+    pub core: CoreLoss,
+    pub copper: LossReport,
+    pub total: f64,
+}
+
+/// Loss totals at the operating (equilibrium) temperature, W.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Losses {
+    pub core: f64,
+    pub copper_dc: f64,
+    /// Copper loss above the DC part (skin and proximity), W.
+    pub copper_ac_extra: f64,
+    pub copper: f64,
+    pub total: f64,
+}
+
+/// Power flow, W.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct Power {
+    pub output: f64,
+    /// Pout/η as the spec estimates it.
+    pub input: f64,
+    /// The magnetic's share of the input power lost.
+    pub magnetic_loss: f64,
+    /// Pout/(Pout + magnetic loss).
+    pub magnetic_efficiency: f64,
+}
+
+/// Everything the solver found, every intermediate quantity included.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Report {
+    pub name: String,
+    pub topology: Topology,
+    pub dc: DcRange,
+    pub frequency: f64,
+    pub core: Core,
+    pub material: Material,
+    pub turns: Turns,
+    /// Np/Ns1 as wound.
+    pub turns_ratio: f64,
+    /// Why Np is what it is.
+    pub turns_reason: String,
+    /// The Bpk limit used for the turns, T.
+    pub b_limit: f64,
+    /// Primary (flyback) or magnetising inductance, H.
+    pub inductance: f64,
+    /// AL of the core as wound, H/turn²: the gap's for a flyback, else the
+    /// mated halves' with the residual gap.
+    pub al: f64,
+    /// The flyback's gap; `None` for an ungapped core.
+    pub gap: Option<GapAl>,
+    pub gap_placement: gap::GapPlacement,
+    pub waveforms: WorstCase,
+    pub wires: Vec<WireSummary>,
+    pub stackup: StackUp,
+    /// The stack-up in its JSON schema (what the page exports); filled by
+    /// [`evaluate`], empty from [`evaluate_with`].
+    pub stackup_json: String,
+    pub fit: FitReport,
+    /// Leakage inductance referred to the primary, H (`None` with one winding).
+    pub leakage: Option<f64>,
+    /// Losses at both corners at the hot-spot limit (selection), and the
+    /// corner whose total is larger.
+    pub corners: Vec<CornerLosses>,
+    pub loss_corner: Corner,
+    pub thermal: Equilibrium,
+    /// Losses at the equilibrium temperature, at the loss corner.
+    pub operating: CornerLosses,
+    pub losses: Losses,
+    pub power: Power,
+    pub checks: Vec<Check>,
+    /// Every check passes.
+    pub pass: bool,
+    pub cautions: Vec<String>,
+    pub warnings: Vec<String>,
+}
