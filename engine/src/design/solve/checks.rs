@@ -109,6 +109,7 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         None,
         "20 K below the Curie temperature".into(),
     ));
+    checks.extend(mode_check_of(design, c));
     let min_margin = checks
         .iter()
         .filter(|k| k.pass)
@@ -118,6 +119,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         k.binding = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
+}
+
+/// The flyback's "mode" check (see [`super::mode`]); none for the others.
+fn mode_check_of(design: &Design, c: &Candidate) -> Option<Check> {
+    let cond = super::mode::conduction(design, &c.turns, c.inductance, &c.waves)?;
+    super::mode::mode_check(&cond)
 }
 
 pub(super) fn check(

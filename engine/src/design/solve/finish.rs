@@ -132,7 +132,16 @@ pub(super) fn finish(
             warnings.push(w.clone());
         }
     }
-    for w in operating.core.warnings.iter().map(|w| w.message()) {
+    // Core-loss warnings of both corners, each naming its corner.
+    for w in super::warnings::core_loss_warnings(
+        prep,
+        material,
+        core,
+        &c.waves,
+        loss_corner,
+        &operating.core,
+        t_loss,
+    ) {
         if !warnings.contains(&w) {
             warnings.push(w);
         }
@@ -167,6 +176,7 @@ pub(super) fn finish(
     let n_actual =
         c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
     let _ = n_design;
+    let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -182,6 +192,7 @@ pub(super) fn finish(
         al: c.al,
         gap: c.gap,
         gap_placement: ch.gap_placement,
+        conduction,
         waveforms: c.waves,
         wires: c.wires,
         stackup: c.stackup,

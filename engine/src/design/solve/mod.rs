@@ -40,7 +40,9 @@ mod candidate;
 mod checks;
 mod conductors;
 mod finish;
+pub mod mode;
 mod report;
+mod warnings;
 
 use crate::core::Core;
 use crate::design::file::{Choices, Design, TurnsRule};
