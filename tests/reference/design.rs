@@ -551,13 +551,13 @@ fn flyback_boundary_held_after_rounding() {
         // zero and there is no idle time (the duty is the CCM one).
         let i0 = op.windings[0].current.points[0].1;
         let ipk = op.windings[0].peak;
-        match rr {
-            x if x == 2.0 => {
-                assert!(i0.abs() < 1e-6 * ipk, "Vor {vor}: Imin {i0} of {ipk}");
-                assert!(rel(op.duty, dd) < 1e-9);
-            }
-            x if x < 2.0 => assert!(i0 > 0.1 * ipk, "CCM"),
-            _ => assert!(op.duty < dd * (1.0 - 1e-6), "DCM: shorter on-time than CCM's"),
+        if rr == 2.0 {
+            assert!(i0.abs() < 1e-6 * ipk, "Vor {vor}: Imin {i0} of {ipk}");
+            assert!(rel(op.duty, dd) < 1e-9);
+        } else if rr < 2.0 {
+            assert!(i0 > 0.1 * ipk, "CCM");
+        } else {
+            assert!(op.duty < dd * (1.0 - 1e-6), "DCM: shorter on-time than CCM's");
         }
         if rr == 2.0 {
             assert_eq!(op.mode, Mode::Boundary, "Vor {vor}");

@@ -110,6 +110,7 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         "20 K below the Curie temperature".into(),
     ));
     checks.extend(mode_check_of(design, c));
+    checks.extend(super::balance::magnetising_check(design, c.turns.primary, &c.waves));
     let min_margin = checks
         .iter()
         .filter(|k| k.pass)

@@ -36,6 +36,7 @@
 //!    temperature, window build, duty, switch voltage; each with its margin,
 //!    the ones that bind marked.
 
+mod balance;
 mod candidate;
 mod checks;
 mod conductors;
