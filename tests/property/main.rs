@@ -4,6 +4,8 @@
 //!   thrown at `design::evaluate`, `sweep::frequency` and `sweep::flux`.
 //! * [`stackup`]: random stack-up documents at `winding::stackup::from_json`,
 //!   then `winding::fit::fit` and `winding::loss::copper_losses`.
+//! * [`optimise`]: the optimiser against a brute force over a small library,
+//!   and its Pareto front against the definition.
 //! * [`fuzz`]: a deterministic mutation loop over the files in
 //!   `tests/fuzz/corpus/` (design files and stack-ups), at `Design::from_json`
 //!   + `evaluate` and `stackup::from_json`/`import`.
@@ -21,6 +23,7 @@
 mod design;
 mod finite;
 mod fuzz;
+mod optimise;
 mod stackup;
 
 use magwright_engine::error::Error;
