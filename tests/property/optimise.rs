@@ -153,5 +153,5 @@ fn forward_demo_over_etd_family_has_a_front() {
     let r = optimise(&design, etd, vec![mat.clone()], &[]).unwrap();
     assert!(r.passed >= 3, "{} passed", r.passed);
     assert!(!r.pareto.is_empty());
-    assert_eq!(brute_force(&design, &names, &[mat.name.clone()]).len(), r.passed);
+    assert_eq!(brute_force(&design, &names, std::slice::from_ref(&mat.name)).len(), r.passed);
 }
