@@ -39,6 +39,7 @@
 mod candidate;
 mod checks;
 mod conductors;
+pub(crate) use conductors::fixed_conductor;
 mod finish;
 mod report;
 
@@ -183,7 +184,7 @@ pub fn sat_scale(core: &Core) -> f64 {
     }
 }
 
-fn check_choices(ch: &Choices) -> Result<()> {
+pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     crate::error::in_range(
         "choices.saturation_margin",
         ch.saturation_margin,
