@@ -214,3 +214,38 @@ fn every_refusal_names_its_path() {
     }
     assert!(wrong.is_empty(), "{} of {} wrong:\n{}", wrong.len(), table.len(), wrong.join("\n"));
 }
+
+/// The stack-up file (docs/stackup.md): a misspelt key in any of its objects
+/// is refused with its path and the key it was likely meant to be.
+#[test]
+fn stackup_misspelt_key_at_every_level() {
+    let r = magwright_engine::design::evaluate(&Design::demo_forward()).unwrap();
+    let good: Value = serde_json::from_str(&r.stackup_json).unwrap();
+    fn objects(v: &Value, path: String, out: &mut Vec<(String, Vec<String>)>) {
+        match v {
+            Value::Object(m) => {
+                out.push((path.clone(), m.keys().cloned().collect()));
+                for (k, x) in m {
+                    objects(x, if path.is_empty() { k.clone() } else { format!("{path}.{k}") }, out);
+                }
+            }
+            Value::Array(a) => a.iter().enumerate().for_each(|(i, x)| objects(x, format!("{path}[{i}]"), out)),
+            _ => {}
+        }
+    }
+    let mut objs = Vec::new();
+    objects(&good, String::new(), &mut objs);
+    assert!(objs.len() > 5);
+    for (path, keys) in objs {
+        let Some(k) = keys.iter().find(|k| k.len() > 4 && k.as_str() != "schema") else { continue };
+        let bogus = format!("{k}{}", &k[k.len() - 1..]);
+        let mut w = good.clone();
+        let ptr = format!("/{}", path.replace('.', "/").replace('[', "/").replace(']', ""));
+        let obj = if path.is_empty() { &mut w } else { w.pointer_mut(&ptr).unwrap() };
+        obj.as_object_mut().unwrap().insert(bogus.clone(), json!(1));
+        let e = magwright_engine::winding::stackup::from_json(&w.to_string()).expect_err(&bogus);
+        let want = if path.is_empty() { bogus.clone() } else { format!("{path}.{bogus}") };
+        assert_eq!(e.field(), Some(want.as_str()), "{e}");
+        assert!(e.message().contains(&format!("did you mean \"{k}\"")), "{e}");
+    }
+}
