@@ -17,8 +17,10 @@ use crate::error::{Error, Result};
 use serde::de::DeserializeOwned;
 use serde::Serialize;
 
-/// Largest document accepted, bytes (a design file is a few kB).
-pub const MAX_LEN: usize = 4 << 20;
+/// Largest document accepted, bytes (a design file is a few kB). The CLI
+/// reads at most this much and the page opens at most this much, so both
+/// refuse the same files.
+pub const MAX_LEN: usize = 16 << 20;
 
 /// Parses `text` into `T`; the error names the field path and line.
 /// A leading UTF-8 byte-order mark is skipped (editors on some systems
@@ -26,7 +28,7 @@ pub const MAX_LEN: usize = 4 << 20;
 pub fn from_str<T: DeserializeOwned>(text: &str) -> Result<T> {
     let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     if text.len() > MAX_LEN {
-        return Err(Error::format(None, format!("the file is too large ({} kB); a design is a few kB", text.len() / 1024)));
+        return Err(Error::format(None, format!("the file is too large ({} kB, at most {} MB); a design is a few kB", text.len() / 1024, MAX_LEN >> 20)));
     }
     if text.trim().is_empty() {
         return Err(Error::format(None, "the file is empty"));
