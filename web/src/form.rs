@@ -445,8 +445,9 @@ impl Form {
             if d.optional && text.trim().is_empty() {
                 continue;
             }
-            match notation::parse(&text, d.unit) {
-                Ok(v) if d.whole && v.fract() != 0.0 => errs.push((d.key, "a whole number".to_string())),
+            // Counts are read as counts: "-1" or "2.5" is refused, never made 0.
+            let read = if d.whole { notation::parse_count(&text).map(f64::from) } else { notation::parse(&text, d.unit) };
+            match read {
                 Ok(v) => vals[i] = Some(v),
                 Err(e) => errs.push((d.key, e.to_string())),
             }

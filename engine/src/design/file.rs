@@ -247,7 +247,7 @@ impl Design {
             }
             _ => return Err(Error::format(Some("version"), format!("the file's \"version\" must be {VERSION}"))),
         }
-        crate::json::from_str(text)
+        crate::json::from_str_checked(text)
     }
 
     /// Writes the design file (pretty JSON).

@@ -7,6 +7,7 @@
 //! * [`optimise`]: every library core × material ranked, with the Pareto front.
 
 pub mod file;
+mod load;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;

@@ -31,6 +31,7 @@ use serde::{Deserialize, Serialize};
 /// [`TempFactor`]), with the ranges they were fitted over (Steinmetz 1892
 /// form, generalised to a frequency exponent as is usual for ferrites).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Steinmetz {
     pub k: f64,
     pub alpha: f64,
@@ -53,6 +54,7 @@ pub struct Steinmetz {
 /// factor(T) = 1 + ct2·(T − T_ref)², built by [`TempFactor::with_minimum`].
 /// A flat factor (ct2 = ct1 = 0, ct0 = 1) means no temperature dependence.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct TempFactor {
     pub ct2: f64,
     pub ct1: f64,
@@ -136,6 +138,7 @@ impl TempFactor {
 
 /// One ferrite grade.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Material {
     pub name: String,
     pub description: String,

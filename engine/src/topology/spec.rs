@@ -92,7 +92,7 @@ impl Topology {
 
 /// Capacitor on the rectified line: its value, or a ripple figure.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Bulk {
     /// Bulk capacitance, F.
     Capacitance { farads: f64 },
@@ -103,7 +103,7 @@ pub enum Bulk {
 
 /// The converter's input.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Input {
     /// A DC bus, V.
     Dc { min: f64, nominal: f64, max: f64 },
@@ -132,6 +132,7 @@ pub struct DcRange {
 
 /// One output.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Output {
     /// Output voltage, V.
     pub voltage: f64,
@@ -156,7 +157,7 @@ pub enum Isolation {
 
 /// How the flyback's turns ratio is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", content = "value", rename_all = "snake_case")]
+#[serde(tag = "kind", content = "value", rename_all = "snake_case", deny_unknown_fields)]
 pub enum FlybackRatio {
     /// The ratio that gives `duty_max` at Vin min in CCM.
     FromDutyMax,
@@ -168,6 +169,7 @@ pub enum FlybackRatio {
 
 /// Flyback design choices.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct FlybackOptions {
     pub ratio: FlybackRatio,
     /// Primary ripple ratio at Vin min and full load: r = ΔIp/Ic with Ic
@@ -192,6 +194,7 @@ fn default_choke_ripple() -> f64 {
 
 /// A converter specification (SI units, °C).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Spec {
     pub topology: Topology,
     pub input: Input,

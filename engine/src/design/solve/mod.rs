@@ -40,6 +40,7 @@ mod balance;
 mod candidate;
 mod checks;
 mod conductors;
+pub(crate) use conductors::fixed_conductor;
 mod finish;
 pub mod mode;
 mod report;
@@ -186,7 +187,7 @@ pub fn sat_scale(core: &Core) -> f64 {
     }
 }
 
-fn check_choices(ch: &Choices) -> Result<()> {
+pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     crate::error::in_range(
         "choices.saturation_margin",
         ch.saturation_margin,
