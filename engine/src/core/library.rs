@@ -318,8 +318,9 @@ fn build() -> Vec<Core> {
             let mut c = Core::from_shape(en.designation, en.shape).ok()?;
             c.provenance = format!(
                 "{}; effective parameters computed from these dimensions (IEC 60205 method); \
-                 bobbin from typical wall and flange thicknesses; use your supplier's data",
-                en.source
+                 bobbin from typical wall and flange thicknesses; {}; use your supplier's data",
+                en.source,
+                c.residual_gap_note()
             );
             Some(c)
         })

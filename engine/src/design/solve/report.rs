@@ -14,7 +14,8 @@ use serde::Serialize;
 /// One pass/fail figure.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Check {
-    /// Key: "saturation", "temperature", "window", "duty", "switch_voltage", "curie".
+    /// Key: "saturation", "temperature", "window", "duty", "switch_voltage",
+    /// "curie", "loss_budget", "material_range".
     pub key: String,
     pub label: String,
     pub value: f64,
