@@ -131,7 +131,8 @@ pub mod ix {
     pub const LAYER_WRAPS: usize = 25;
     pub const TAPE: usize = 26;
     pub const FLANGE: usize = 27;
-    pub const COUNT: usize = 28;
+    pub const LOSS_SHARE: usize = 28;
+    pub const COUNT: usize = 29;
 }
 
 /// Every numeric entry except the outputs, in [`ix`] order.
@@ -184,6 +185,13 @@ pub const NUMS: [NumDef; ix::COUNT] = [
         optional: true,
         ..num("choices.insulation.margin", "Flange margin", "m", Group::Winding, "Margin tape at each flange; empty: from the isolation class")
     },
+    num(
+        "choices.magnetic_loss_share",
+        "Loss share",
+        "",
+        Group::Converter,
+        "The magnetic's share of the converter's loss budget Pin − Pout, e.g. 0.5",
+    ),
 ];
 
 /// The outputs' keys: voltage, current, rectifier drop, for up to four.
@@ -345,6 +353,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(f64::from(ch.insulation.interlayer_wraps)),
         Some(ch.insulation.tape_thickness),
         ch.insulation.margin,
+        Some(ch.magnetic_loss_share),
     ]
 }
 
@@ -522,6 +531,7 @@ impl Form {
             },
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],
+            magnetic_loss_share: g(ix::LOSS_SHARE),
         };
         Ok(Design {
             schema: design::file::SCHEMA.into(),

@@ -167,7 +167,19 @@ pub struct Choices {
     pub edge_time: f64,
     /// The switch's voltage rating to check against, V (`None`: not checked).
     pub switch_voltage_rating: Option<f64>,
+    /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
+    /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
+    /// a design whose magnetic loses more. 0.01 to 1; default
+    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
+    pub magnetic_loss_share: f64,
 }
+
+/// Default share of the converter's loss budget for the magnetic: one half
+/// (common practice, no source: in a switch-mode converter the magnetics
+/// commonly take a third to a half of the losses, the switches, rectifiers
+/// and capacitors the rest; a half is the lenient end, so a design only
+/// fails when its magnetic alone leaves too little for everything else).
+pub const DEFAULT_MAGNETIC_LOSS_SHARE: f64 = 0.5;
 
 impl Default for Choices {
     fn default() -> Self {
@@ -183,6 +195,7 @@ impl Default for Choices {
             insulation: Insulation::default(),
             edge_time: 0.0,
             switch_voltage_rating: None,
+            magnetic_loss_share: DEFAULT_MAGNETIC_LOSS_SHARE,
         }
     }
 }

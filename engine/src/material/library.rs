@@ -35,6 +35,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-200k-flat".into(),
@@ -49,6 +50,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-500k".into(),
@@ -63,6 +65,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 8.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-1M".into(),
@@ -77,6 +80,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 10.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiperm".into(),
@@ -91,6 +95,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 0.5,
             density: 4900.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiBsat".into(),
@@ -105,6 +110,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 4.0,
             density: 4850.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "NiZn-5M".into(),
@@ -119,6 +125,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 1.0e5,
             density: 5000.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
     ]
 }

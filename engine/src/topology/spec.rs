@@ -445,13 +445,15 @@ impl Spec {
             Input::Dc { min, nominal, max } => {
                 positive("input.min", min, "V")?;
                 in_range("input.max", max, 0.0, 2000.0, "V")?;
-                in_range("input.nominal", nominal, min, max, "V")?;
+                // The order of the range first: a swapped pair is reported
+                // as such, not as a nominal value outside it.
                 if max < min {
                     return Err(Error::input(
                         "input.max",
-                        format!("must be at least input.min ({min} V)"),
+                        format!("Vin min ({min} V) is above Vin max ({max} V): swap them or correct one"),
                     ));
                 }
+                in_range("input.nominal", nominal, min, max, "V")?;
             }
             Input::Ac {
                 vac_min,
@@ -466,7 +468,7 @@ impl Spec {
                 if vac_max < vac_min {
                     return Err(Error::input(
                         "input.vac_max",
-                        format!("must be at least input.vac_min ({vac_min} V)"),
+                        format!("Vac min ({vac_min} V) is above Vac max ({vac_max} V): swap them or correct one"),
                     ));
                 }
                 in_range("input.vac_nominal", vac_nominal, vac_min, vac_max, "V")?;

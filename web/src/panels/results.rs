@@ -65,6 +65,7 @@ fn check_texts(c: &Check) -> (String, String) {
         "T" => (format!("{:.0} mT", c.value * 1e3), format!("{:.0} mT", c.limit * 1e3)),
         "" => (format!("{:.1} %", c.value * 100.0), format!("{:.1} %", c.limit * 100.0)),
         "°C" => (format!("{:.1} °C", c.value), format!("{:.0} °C", c.limit)),
+        "×" => (format!("×{:.2}", c.value), format!("×{:.2}", c.limit)),
         u => (notation::format(c.value, u, 3), notation::format(c.limit, u, 3)),
     }
 }
@@ -167,6 +168,8 @@ fn short_label(c: &Check) -> String {
         "curie" => "Curie − 20 K".into(),
         "mode" => "Mode as wound".into(),
         "magnetising" => "Magnetising in dead time".into(),
+        "loss_budget" => "Loss budget share".into(),
+        "material_range" => "Material data range".into(),
         _ => c.label.clone(),
     }
 }
@@ -213,6 +216,7 @@ pub fn gap_text(r: &Report) -> String {
                 )
             }
         },
+        None if r.core.is_one_piece() => "none: one-piece core, no residual gap".into(),
         None => format!("none: mated halves ({:.0} µm residual assumed)", RESIDUAL_GAP * 1e6),
     }
 }
@@ -235,6 +239,7 @@ fn mm(x: f64) -> String {
 /// Where the gap is (the tile's second line).
 fn gap_place(r: &Report) -> String {
     match (&r.gap, r.gap_placement) {
+        (None, _) if r.core.is_one_piece() => "one-piece core, no residual gap".into(),
         (None, _) => format!("mated halves, {:.0} µm residual", RESIDUAL_GAP * 1e6),
         (Some(_), GapPlacement::CentreLeg) => "ground in the centre leg".into(),
         (Some(g), GapPlacement::Spacer) => format!("spacer in every leg ({:.3} mm in the path)", g.path_gap * 1e3),

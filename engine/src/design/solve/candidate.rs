@@ -131,7 +131,7 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
             let al = gap::al_value(
                 &gcore,
                 material.mu_i,
-                RESIDUAL_GAP,
+                core.residual_gap(),
                 gap::GapPlacement::CentreLeg,
                 false,
             )?;

@@ -15,7 +15,8 @@ use serde::Serialize;
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Check {
     /// Key: "saturation", "temperature", "window", "duty", "switch_voltage",
-    /// "curie", "mode" (flyback), "magnetising" (push-pull and bridges).
+    /// "curie", "loss_budget", "material_range", "mode" (flyback),
+    /// "magnetising" (push-pull and bridges).
     pub key: String,
     pub label: String,
     pub value: f64,
