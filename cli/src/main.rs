@@ -39,7 +39,10 @@ fn run(args: &[String]) -> Result<String, String> {
     let file = || -> Result<Design, String> {
         let path = args.get(1).ok_or(format!("{cmd} needs a design file (or - for stdin)"))?;
         let text = read_input(path)?;
-        let d = Design::from_json(&text).map_err(|e| format!("{path}: {e}"))?;
+        let (d, notes) = Design::from_json_noted(&text).map_err(|e| format!("{path}: {e}"))?;
+        for n in notes {
+            eprintln!("magwright: note: {path}: {n}");
+        }
         d.check_envelope().map_err(|e| format!("{path}: {e}"))?;
         Ok(d)
     };

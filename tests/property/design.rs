@@ -307,7 +307,7 @@ fn material() -> impl Strategy<Value = MaterialChoice> {
             4 => m.steinmetz.k *= x * 2.0,
             5 => m.steinmetz.alpha *= x * 2.0,
             6 => m.steinmetz.beta *= x * 2.0,
-            _ => m.temp_factor.ct2 *= x * 2.0,
+            _ => m.temp_factor.curvature *= x * 2.0,
         }
         MaterialChoice::Custom { material: m }
     });

@@ -5,11 +5,13 @@
 //!   corners, thermal equilibrium and the pass/fail checks.
 //! * [`sweep`]: loss against frequency and against flux density.
 //! * [`optimise`]: every library core × material ranked, with the Pareto front.
+//! * [`upgrade`]: older design files converted to the current version.
 
 pub mod file;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;
+pub mod upgrade;
 pub mod views;
 
 pub use file::{Choices, CoreChoice, Design, MaterialChoice};
