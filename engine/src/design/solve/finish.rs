@@ -167,6 +167,8 @@ pub(super) fn finish(
     let n_actual =
         c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
     let _ = n_design;
+    // The switch node counts for the hazardous-voltage cautions too.
+    let cautions = spec.cautions_with_switch(c.waves.get("switch_voltage").map(|w| w.value));
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -196,7 +198,7 @@ pub(super) fn finish(
         power,
         checks,
         pass,
-        cautions: spec.safety_cautions(),
+        cautions,
         warnings,
     })
 }
