@@ -13,6 +13,8 @@
 //! Output is JSON on stdout (CSV for `sweep --csv`). Bad input: a message on
 //! stderr and exit code 2.
 
+mod help;
+
 use magwright_engine::design::{self, optimise, sweep, Design};
 use magwright_engine::{core::library as cores, json, material::library as materials, notation};
 use std::io::Read;
@@ -32,7 +34,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials  |  help";
 
 fn run(args: &[String]) -> Result<String, String> {
     let cmd = args.first().map(String::as_str).ok_or(USAGE)?;
@@ -81,7 +83,7 @@ fn run(args: &[String]) -> Result<String, String> {
         },
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),
-        "-h" | "--help" | "help" => Ok(USAGE.to_string()),
+        "-h" | "--help" | "help" => Ok(help::help()),
         other => Err(format!("unknown command \"{other}\"; {USAGE}")),
     }
 }

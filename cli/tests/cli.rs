@@ -119,3 +119,16 @@ fn bad_input_exits_2_with_a_message() {
     bad(&run(&["flux-sweep", examples()[1].to_str().unwrap(), "1"]));
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn help_lists_every_command_and_option_and_the_standing_caution() {
+    let out = run(&["--help"]);
+    assert!(out.status.success());
+    let text = String::from_utf8_lossy(&out.stdout);
+    for word in [
+        "evaluate", "sweep", "FROM TO POINTS", "--csv", "flux-sweep", "rank", "stackup", "demo", "cores", "materials",
+        "IEC 62368-1", "IEC 61558", "does not certify", "McLyman",
+    ] {
+        assert!(text.contains(word), "help lacks {word}: {text}");
+    }
+}

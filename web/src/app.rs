@@ -152,6 +152,9 @@ pub fn App() -> impl IntoView {
             <span class="saved" data-testid="saved-state">
                 {move || if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
             </span>
+            <p class="standing-caution" data-testid="standing-caution" role="note">
+                {magwright_engine::topology::spec::STANDING_CAUTION}
+            </p>
         </header>
         <main class="layout">
             <div class="col inputs">

@@ -54,6 +54,10 @@ pub const MAX_OUTPUTS: usize = 4;
 pub const ES1_DC_LIMIT: f64 = 60.0;
 /// ES1 AC peak voltage limit of IEC 62368-1 (Table 4, from memory), V.
 pub const ES1_AC_PEAK_LIMIT: f64 = 42.4;
+/// The one-line caution every front end shows at all times, whatever the
+/// design: the page in its header and on the build sheet, the CLI in its help.
+pub const STANDING_CAUTION: &str = "Magwright computes; it does not certify. Defer to IEC 62368-1 / IEC 61558, \
+     local codes and licensed practice.";
 
 /// The converter circuit around the magnetic.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
