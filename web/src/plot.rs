@@ -16,10 +16,8 @@
 //! every number drawn is one the caller got from the engine.
 
 use magwright_engine::notation;
-use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
-use plotters_canvas::CanvasBackend;
 use web_sys::HtmlCanvasElement;
 
 /// A colour, so that callers need not depend on plotters.
@@ -220,17 +218,15 @@ pub struct LineChart {
     pub shades: Vec<Shade>,
 }
 
-type Area = DrawingArea<CanvasBackend, Shift>;
+use crate::hidpi::Area;
 
 fn err<E: std::fmt::Display>(e: E) -> String {
     e.to_string()
 }
 
+/// The canvas at the device pixel ratio ([`crate::hidpi`]), filled white.
 fn area(canvas: &HtmlCanvasElement) -> Result<Area, String> {
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
-    let root = backend.into_drawing_area();
-    root.fill(&WHITE).map_err(err)?;
-    Ok(root)
+    crate::hidpi::area(canvas)
 }
 
 /// Smallest and largest finite value, or None.

@@ -33,7 +33,6 @@ use magwright_engine::design::{CoreChoice, Design, MaterialChoice};
 use magwright_engine::notation;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
-use plotters_canvas::CanvasBackend;
 use web_sys::HtmlCanvasElement;
 
 /// Most candidates evaluated in one animation frame.
@@ -515,9 +514,7 @@ enum Key {
 /// cores span two decades), loss linear from zero. The legend is a row
 /// above the plot, so it never hides a point.
 fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, MaterialChoice)) -> Result<(), String> {
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
-    let root = backend.into_drawing_area();
-    root.fill(&WHITE).map_err(err)?;
+    let root = crate::hidpi::area(canvas)?;
     let point = |c: &Ranked| (c.volume * 1e6, c.total_loss);
     let ok = |p: &(f64, f64)| p.0.is_finite() && p.0 > 0.0 && p.1.is_finite();
     let pts: Vec<(f64, f64)> = r.by_volume.iter().map(point).filter(ok).collect();
