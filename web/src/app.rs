@@ -164,6 +164,7 @@ pub fn App() -> impl IntoView {
                 <Panel id="core" title="Core and material" help="The core set and its material from the built-in libraries, or your own; the flux limit and how turns are chosen.">
                     <Library form=form outcome=outcome />
                     <FluxFields form=form outcome=outcome />
+                    <crate::panels::material_curves::MaterialCurves form=form />
                 </Panel>
             </div>
             <div class="col outputs">

@@ -15,6 +15,7 @@
 //! * [`panic`]: the panic hook and its message over the page.
 //! * [`plot`]: line charts and to-scale cross-sections on canvas.
 //! * [`hidpi`]: canvases drawn at the device pixel ratio.
+//! * [`plot_log`]: charts with both axes logarithmic.
 //! * [`field`], [`ui`]: a text field holding what was typed; panels, canvases.
 
 pub mod app;
@@ -27,6 +28,7 @@ pub mod panels;
 pub mod panic;
 pub mod persist;
 pub mod plot;
+pub mod plot_log;
 pub mod ui;
 
 use wasm_bindgen::prelude::wasm_bindgen;

@@ -5,9 +5,11 @@
 //!   corners, thermal equilibrium and the pass/fail checks.
 //! * [`sweep`]: loss against frequency and against flux density.
 //! * [`optimise`]: every library core × material ranked, with the Pareto front.
+//! * [`material_view`]: a material's Pv–B loss curves for the page's chart.
 //! * [`upgrade`]: older design files converted to the current version.
 
 pub mod file;
+pub mod material_view;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;

@@ -330,6 +330,15 @@ pub fn Suggest(form: Form) -> impl IntoView {
     let has_list = move || count_passed() > 0;
     let has_ranking = move || run.ranking.with(|r| r.is_some());
 
+    // What the empty list means depends on how far the search got: before
+    // the first run nothing has been tried.
+    let missing_note = move || match run.phase.get() {
+        Phase::Idle => "Not run yet.",
+        Phase::Running => "None passes yet; searching.",
+        Phase::Cancelled => "No candidate evaluated so far passes every check.",
+        Phase::Finished | Phase::Failed(_) => "No candidate passes every check.",
+    };
+
     let failures = move || {
         run.ranking.with(|r| {
             r.as_ref().map(|r| {
@@ -411,7 +420,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
                         " smallest volume"
                     </label>
                 </fieldset>
-                <p class="missing-note" class:hidden=has_list>"No candidate passes every check."</p>
+                <p class="missing-note" data-testid="suggest-missing" class:hidden=has_list>{missing_note}</p>
                 <table class="ranked" data-testid="ranked" class:hidden=move || !has_list()>
                     <caption class="sr">"Passing candidates"</caption>
                     <thead>
