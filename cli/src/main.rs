@@ -16,6 +16,8 @@
 //! (an extra file, an unknown `--flag`, a count that is not whole) is
 //! refused, never ignored.
 
+mod help;
+
 use magwright_engine::design::{self, optimise, sweep, Design};
 use magwright_engine::{core::library as cores, json, material::library as materials, notation};
 use std::io::Read;
@@ -35,7 +37,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials  |  help";
 
 /// Largest input read, bytes (the engine's limit, 16 MB): more than any
 /// design file (a few kB), little enough that `magwright evaluate /dev/zero`
@@ -92,7 +94,11 @@ fn run(args: &[String]) -> Result<String, String> {
     let file = || -> Result<Design, String> {
         let path = args.get(1).ok_or(format!("{cmd} needs a design file (or - for stdin)"))?;
         let text = read_input(path)?;
-        Design::load(&text).map_err(|e| format!("{path}: {e}"))
+        let (d, notes) = Design::load_noted(&text).map_err(|e| format!("{path}: {e}"))?;
+        for n in notes {
+            eprintln!("magwright: note: {path}: {n}");
+        }
+        Ok(d)
     };
     match cmd {
         "evaluate" => Ok(json::to_string_pretty(&design::evaluate(&file()?).map_err(|e| e.to_string())?)),
@@ -124,7 +130,7 @@ fn run(args: &[String]) -> Result<String, String> {
         },
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),
-        "-h" | "--help" | "help" => Ok(USAGE.to_string()),
+        "-h" | "--help" | "help" => Ok(help::help()),
         other => Err(format!("unknown command \"{other}\"; {USAGE}")),
     }
 }

@@ -21,7 +21,8 @@ use magwright_engine::Error;
 pub type Report = design::Report;
 
 /// What the page designs, shown under its name.
-pub const TITLE: &str = "Transformers and coupled inductors for forward, flyback and push-pull converters";
+pub const TITLE: &str =
+    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters";
 
 /// The design shown to a first-time visitor: the forward demo, which passes.
 pub fn demo() -> Design {

@@ -14,8 +14,8 @@ use serde::{Deserialize, Serialize};
 
 /// The `schema` field's value.
 pub const SCHEMA: &str = "magwright-design";
-/// The version this engine writes and reads.
-pub const VERSION: u32 = 1;
+/// The version this engine writes and reads (older ones are converted).
+pub const VERSION: u32 = 2;
 
 /// One design: specification, core, material and the designer's choices.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -240,7 +240,13 @@ impl Design {
     /// `schema`), a newer `version`, or a design that does not fit the
     /// schema (the error names the field, e.g. `spec.outputs[0].voltage`).
     pub fn from_json(text: &str) -> Result<Design> {
-        let value: serde_json::Value = crate::json::from_str(text)?;
+        Design::from_json_noted(text).map(|(d, _)| d)
+    }
+
+    /// [`Design::from_json`], also returning the notes of converting an
+    /// older file ([`super::upgrade`]; empty for a current file).
+    pub fn from_json_noted(text: &str) -> Result<(Design, Vec<String>)> {
+        let mut value: serde_json::Value = crate::json::from_str(text)?;
         let Some(obj) = value.as_object() else {
             return Err(foreign("the file holds no JSON object"));
         };
@@ -251,16 +257,17 @@ impl Design {
             None => return Err(foreign("it has no \"schema\" key")),
         }
         match obj.get("version").and_then(serde_json::Value::as_u64) {
-            Some(v) if v == u64::from(VERSION) => {}
-            Some(v) if v > u64::from(VERSION) => {
-                return Err(Error::format(
-                    Some("version"),
-                    format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
-                ))
+            Some(v) if v == u64::from(VERSION) => Ok((crate::json::from_str_checked(text)?, Vec::new())),
+            Some(v) if v > u64::from(VERSION) => Err(Error::format(
+                Some("version"),
+                format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
+            )),
+            Some(v) if v >= 1 => {
+                let notes = super::upgrade::upgrade(&mut value, v)?;
+                Ok((crate::json::from_str_checked(&crate::json::to_string_pretty(&value))?, notes))
             }
-            _ => return Err(Error::format(Some("version"), format!("the file's \"version\" must be {VERSION}"))),
+            _ => Err(Error::format(Some("version"), format!("the file's \"version\" must be 1 to {VERSION}"))),
         }
-        crate::json::from_str_checked(text)
     }
 
     /// Writes the design file (pretty JSON).

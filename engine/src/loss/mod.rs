@@ -250,8 +250,9 @@ mod tests {
         let base = c.pv_triangle(100e3, 0.2, 0.5).unwrap();
         for t in [25.0, 60.0, 100.0, 120.0] {
             let r = core_loss(&m, &w, t, ve).unwrap();
-            // Factor = ct2·T² − ct1·T + ct0 (the material's definition).
-            let factor = m.temp_factor.ct2 * t * t - m.temp_factor.ct1 * t + m.temp_factor.ct0;
+            // Factor = 1 + c·(T − Tm)² (the material's definition).
+            let d = t - m.temp_factor.least_loss_c;
+            let factor = 1.0 + m.temp_factor.curvature * d * d;
             assert!((r.temp_factor - factor).abs() < 1e-12);
             assert!((r.pv / (base * factor) - 1.0).abs() < 1e-12);
             assert!((r.watts - r.pv * ve).abs() < 1e-12 * r.watts);

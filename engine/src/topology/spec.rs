@@ -54,6 +54,10 @@ pub const MAX_OUTPUTS: usize = 4;
 pub const ES1_DC_LIMIT: f64 = 60.0;
 /// ES1 AC peak voltage limit of IEC 62368-1 (Table 4, from memory), V.
 pub const ES1_AC_PEAK_LIMIT: f64 = 42.4;
+/// The one-line caution every front end shows at all times, whatever the
+/// design: the page in its header and on the build sheet, the CLI in its help.
+pub const STANDING_CAUTION: &str = "Magwright computes; it does not certify. Defer to IEC 62368-1 / IEC 61558, \
+     local codes and licensed practice.";
 
 /// The converter circuit around the magnetic.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -532,8 +536,18 @@ impl Spec {
     /// Safety cautions for this spec: empty only when the input is DC and
     /// every specified voltage is within the ES1 limits of IEC 62368-1
     /// (60 V DC; 42.4 V peak AC; Table 4, from memory). Internal nodes (the
-    /// switch) can still exceed ES1: the operating point warns about those.
+    /// switch) can still exceed ES1: [`Spec::cautions_with_switch`] adds them.
     pub fn safety_cautions(&self) -> Vec<String> {
+        self.cautions_with_switch(None)
+    }
+
+    /// The safety cautions of a design whose switch node reaches
+    /// `switch_voltage` V (worst corner; `None`: not known): as
+    /// [`Spec::safety_cautions`], and a switch node above the ES1 limit of
+    /// 60 V DC (IEC 62368-1, from memory) makes the design hazardous too,
+    /// with its own caution, even when the input and outputs are within ES1.
+    pub fn cautions_with_switch(&self, switch_voltage: Option<f64>) -> Vec<String> {
+        let switch_high = switch_voltage.is_some_and(|v| v > ES1_DC_LIMIT || !v.is_finite());
         let mains = matches!(self.input, Input::Ac { .. });
         let input_high = match self.input {
             Input::Dc { max, .. } => max > ES1_DC_LIMIT || !max.is_finite(),
@@ -544,7 +558,7 @@ impl Spec {
             .iter()
             .any(|o| o.voltage > ES1_DC_LIMIT || !o.voltage.is_finite());
         let mut c = Vec::new();
-        if !(mains || input_high || out_high) {
+        if !(mains || input_high || out_high || switch_high) {
             return c;
         }
         if mains {
@@ -566,8 +580,15 @@ impl Spec {
                  the secondary side is hazardous too."
             ));
         }
+        if let Some(v) = switch_voltage.filter(|_| switch_high && !(mains || input_high)) {
+            c.push(format!(
+                "The switch node reaches {v:.0} V (plus the leakage spike), above the ES1 limit of \
+                 {ES1_DC_LIMIT} V DC of IEC 62368-1 (from memory), although the input is lower: treat the \
+                 primary winding, the switch and its heat sink as hazardous."
+            ));
+        }
         c.push(match self.isolation {
-            Isolation::Functional if mains || input_high => {
+            Isolation::Functional if mains || input_high || switch_high => {
                 "Functional isolation is chosen but the input is hazardous: functional insulation is \
                  no protection against electric shock. Outputs that can be touched need basic plus \
                  supplementary, or reinforced, insulation."
@@ -760,6 +781,22 @@ mod tests {
         let mut s = Spec::demo_flyback();
         s.flyback.ratio = FlybackRatio::ReflectedVoltage(1000.0);
         assert_eq!(s.validate().unwrap_err().field(), Some("flyback.ratio"));
+    }
+
+    #[test]
+    fn switch_node_above_es1_raises_the_cautions() {
+        // ES1 = 60 V DC (IEC 62368-1 Table 4, from memory): a 48 V input
+        // whose switch node reaches 120 V is hazardous on the primary side.
+        let s = Spec::demo_forward();
+        assert!(s.safety_cautions().is_empty());
+        let c = s.cautions_with_switch(Some(120.0));
+        assert!(c.iter().any(|t| t.contains("switch node reaches 120 V")), "{c:?}");
+        assert!(c.iter().any(|t| t.contains("IEC 61558")), "{c:?}");
+        assert!(s.cautions_with_switch(Some(59.0)).is_empty());
+        assert!(s.cautions_with_switch(Some(f64::NAN)).iter().any(|t| t.contains("IEC 62368-1")));
+        // Mains: no second switch-node caution (the mains one names it).
+        let f = Spec::demo_flyback();
+        assert_eq!(f.cautions_with_switch(Some(600.0)).len(), f.safety_cautions().len());
     }
 
     #[test]

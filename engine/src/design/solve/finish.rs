@@ -177,6 +177,8 @@ pub(super) fn finish(
         c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
     let _ = n_design;
     let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
+    // The switch node counts for the hazardous-voltage cautions too.
+    let cautions = spec.cautions_with_switch(c.waves.get("switch_voltage").map(|w| w.value));
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -207,7 +209,7 @@ pub(super) fn finish(
         power,
         checks,
         pass,
-        cautions: spec.safety_cautions(),
+        cautions,
         warnings,
     })
 }
