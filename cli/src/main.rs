@@ -5,7 +5,7 @@
 //! magwright sweep FILE|- [FROM TO POINTS]    loss against switching frequency (default 20k 1M 200)
 //! magwright flux-sweep FILE|- [POINTS]       loss against peak flux density at the design's frequency
 //! magwright rank FILE|-                      rank every library core × material for the design's spec
-//! magwright demo [forward|flyback|push-pull] print a demo design file
+//! magwright demo [forward|flyback|push-pull|inductor] print a demo design file
 //! magwright stackup FILE|-                   the design's winding stack-up in its JSON schema
 //! magwright cores                            the core library (effective parameters, provenance)
 //! magwright materials                        the material library (provenance)
@@ -32,7 +32,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials";
 
 fn run(args: &[String]) -> Result<String, String> {
     let cmd = args.first().map(String::as_str).ok_or(USAGE)?;
@@ -74,7 +74,8 @@ fn run(args: &[String]) -> Result<String, String> {
             "forward" => Ok(Design::demo_forward().to_json()),
             "flyback" => Ok(Design::demo_flyback().to_json()),
             "push-pull" => Ok(Design::demo_push_pull().to_json()),
-            other => Err(format!("no demo \"{other}\" (forward, flyback, push-pull)")),
+            "inductor" => Ok(Design::demo_inductor().to_json()),
+            other => Err(format!("no demo \"{other}\" (forward, flyback, push-pull, inductor)")),
         },
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),

@@ -148,6 +148,7 @@ fn spec() -> impl Strategy<Value = Spec> {
                     ripple_ratio,
                 },
                 choke_ripple_ratio,
+                inductor: None,
             },
         )
 }
@@ -251,6 +252,7 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
                 insulation,
                 edge_time,
                 switch_voltage_rating,
+                choke_core: None,
             },
         )
 }

@@ -167,6 +167,11 @@ pub struct Choices {
     pub edge_time: f64,
     /// The switch's voltage rating to check against, V (`None`: not checked).
     pub switch_voltage_rating: Option<f64>,
+    /// Forward, push-pull and bridges: the output choke's core (`None`:
+    /// chosen from the library by least loss, `design::solve::choke`).
+    /// Left out of the file when absent.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub choke_core: Option<CoreChoice>,
 }
 
 impl Default for Choices {
@@ -183,6 +188,7 @@ impl Default for Choices {
             insulation: Insulation::default(),
             edge_time: 0.0,
             switch_voltage_rating: None,
+            choke_core: None,
         }
     }
 }
@@ -220,6 +226,11 @@ impl Design {
     /// The 24 V push-pull demo (a scenario of our own).
     pub fn demo_push_pull() -> Design {
         Design::new("24 V push-pull", Spec::demo_push_pull(), "ETD 34", "MnZn-200k")
+    }
+
+    /// The 24 V buck inductor demo (a scenario of our own).
+    pub fn demo_inductor() -> Design {
+        Design::new("24 V to 5 V buck inductor", Spec::demo_inductor(), "E 20/10/6", "MnZn-200k")
     }
 
     /// Reads a design file, refusing foreign and future files with a

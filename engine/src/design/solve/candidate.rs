@@ -208,7 +208,7 @@ pub fn core_sense(topo: Topology, name: &str) -> f64 {
     let secondary = name.starts_with("secondary");
     let b_half = name.ends_with(" B");
     match topo {
-        Topology::Flyback => 1.0,
+        Topology::Flyback | Topology::Inductor => 1.0,
         Topology::Forward | Topology::TwoSwitchForward => {
             if secondary {
                 -1.0

@@ -38,6 +38,7 @@
 
 mod candidate;
 mod checks;
+mod choke;
 mod conductors;
 mod finish;
 mod report;
@@ -51,6 +52,7 @@ use crate::topology::{self, sizing, Spec, Topology};
 use crate::winding::stackup::to_json;
 use candidate::*;
 pub use candidate::{core_sense, currents_of};
+pub use choke::{choke_design, choke_spec};
 use conductors::*;
 pub use report::*;
 
@@ -62,8 +64,12 @@ pub fn evaluate(design: &Design) -> Result<Report> {
     design.check_envelope()?;
     let core = design.resolve_core()?;
     let material = design.resolve_material()?;
-    let mut r = evaluate_with(design, &core, &material, &Prepared::new(&material)?)?;
+    let prep = Prepared::new(&material)?;
+    let mut r = evaluate_with(design, &core, &material, &prep)?;
     r.stackup_json = to_json(&r.stackup);
+    // The output choke is designed once per evaluation (sweeps and the
+    // optimiser, which call `evaluate_with`, skip it).
+    choke::attach(design, &material, &prep, &mut r)?;
     Ok(r)
 }
 
@@ -96,10 +102,10 @@ pub fn evaluate_with(
     let n = sizing::turns_ratio(spec)?;
     let b_auto = material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin);
     let b_limit = ch.b_max.unwrap_or(b_auto);
-    let lp_target = if spec.topology == Topology::Flyback {
-        Some(sizing::flyback_lp(spec, n)?)
-    } else {
-        None
+    let lp_target = match spec.topology {
+        Topology::Flyback => Some(sizing::flyback_lp(spec, n)?),
+        Topology::Inductor => Some(topology::inductor::target_inductance(spec)?),
+        _ => None,
     };
     let cx = Ctx {
         design,
@@ -259,6 +265,12 @@ fn flux_limited_turns(spec: &Spec, n: f64, lp: Option<f64>, b_limit: f64, ae: f6
                 ae,
             )
         }
+        // N = L·Ipk/(Bpk·Ae), the peak current's flux DC bias included.
+        Topology::Inductor => {
+            let l = lp.ok_or_else(|| Error::input("inductor.inductance", "the inductor needs L"))?;
+            let ipk = topology::inductor::peak_current(spec, l)?;
+            sizing::flyback_primary_turns(l, ipk, b_limit, ae)
+        }
     }
 }
 
@@ -294,6 +306,7 @@ mod tests {
             Design::demo_forward(),
             Design::demo_flyback(),
             Design::demo_push_pull(),
+            Design::demo_inductor(),
         ] {
             let r = evaluate(&d).unwrap_or_else(|e| panic!("{}: {e}", d.name));
             assert!(
