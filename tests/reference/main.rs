@@ -4,6 +4,7 @@
 mod conductors;
 mod cores;
 mod design;
+mod inductor;
 mod materials;
 mod topologies;
 mod transformer;
