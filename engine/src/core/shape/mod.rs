@@ -30,11 +30,12 @@
 //!   IEC 60205 measures s per family (as recalled, from memory); so do we:
 //!   - rectangular legs (E, EFD, planar E and E + PLT, module `etype`):
 //!     s = w/2 for a leg of width w, i.e. the standard's E-core corner
-//!     l = (π/8)·(w + h). For the flat EFD leg and any leg that is not a
-//!     rectangle of the yoke's depth C, w is the equivalent width A_leg/(2·C)
-//!     (outer legs: one leg's area over C; centre leg: half its area over C,
-//!     since half the flux turns each way); for a plain E core exactly F/2
-//!     and (A − E)/2;
+//!     l = (π/8)·(w + h). The centre leg's w is F/2 (half the flux turns
+//!     each way), also for the flat EFD leg whatever its thickness K: its
+//!     width along the yoke is F. (An earlier equivalent width F·K/(2·C)
+//!     shrank the EFD corners and left EFD le 4–5 % short of the published
+//!     values; with F/2 all four sizes agree within 2 %.) The outer legs' w
+//!     is one leg's area over C, exactly (A − E)/2 for a plain E core;
 //!   - round centre legs (ETD, ER, PQ, RM, EP, module `round`): s is the
 //!     depth of the chord that halves the half-leg feeding each side
 //!     (`round::half_area_depth`, ≈ 0.596·F/2 for a solid leg), the
@@ -133,8 +134,8 @@ pub enum Shape {
     },
     /// EFD pair: flat rectangular centre leg F (width) × K (thickness, along
     /// the depth, K ≤ C). Simplification: the centre leg is taken centred in
-    /// the depth (in the real core it is offset) and the corner at the
-    /// centre leg uses the equivalent width (F·K/2)/C.
+    /// the depth (in the real core it is offset); the corner at the centre
+    /// leg uses its width along the yoke, F/2 (module docs).
     Efd {
         a: f64,
         b: f64,
