@@ -331,8 +331,9 @@ fn build() -> Vec<Core> {
             };
             c.provenance = format!(
                 "{mark}; {}; effective parameters computed from these dimensions (IEC 60205 method); \
-                 bobbin from typical wall and flange thicknesses; use your supplier's data",
-                en.source
+                 bobbin from typical wall and flange thicknesses; {}; use your supplier's data",
+                en.source,
+                c.residual_gap_note()
             );
             Some(c)
         })
