@@ -116,6 +116,23 @@ export async function waitSaved(page, pred, arg) {
   }, [pred.toString(), arg]);
 }
 
+// Opens the file chooser of the button `testid` with the keyboard (focus,
+// Space) and gives it `file`. The chooser is intercepted only once a
+// listener is registered in the browser: one is registered for the page's
+// life, with a round trip to the page, before the first Space (without it
+// the chooser could open first and the wait time out under load).
+export async function chooseWithKeyboard(page, testid, file) {
+  if (!page.__chooserListener) {
+    page.__chooserListener = () => {};
+    page.on('filechooser', page.__chooserListener);
+    await page.evaluate(() => true);
+  }
+  await page.focus(`[data-testid="${testid}"]`);
+  await page.waitForFunction((t) => document.activeElement?.dataset?.testid === t, testid);
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
+  await chooser.setFiles(file);
+}
+
 // Waits for `n` rendered frames of the page (requestAnimationFrame): the
 // condition "the page has drawn n times since", for checks that something
 // did NOT happen (never a fixed sleep).

@@ -6,7 +6,7 @@ import assert from 'node:assert/strict';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { launch, openPage, cli, shown, canvasInk, close, drawn, OUT } from './harness.mjs';
+import { launch, openPage, cli, shown, canvasInk, close, drawn, OUT, chooseWithKeyboard } from './harness.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 let browser;
@@ -86,9 +86,7 @@ test('print build sheet of the forward demo: the sheet only, the engine\'s turns
 test('build sheet of the offline flyback: gap, margins and the safety cautions', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = readFileSync(join(root, 'examples', 'flyback-offline-24w.json'), 'utf8');
-  await page.focus('[data-testid="open"]');
-  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
-  await chooser.setFiles({ name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+  await chooseWithKeyboard(page, 'open', { name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
   await page.waitForFunction(() => document.querySelector('[data-testid="file-status"]')?.textContent.includes('Opened'));
   const want = cli(['evaluate', join(root, 'examples', 'flyback-offline-24w.json')]);
   await page.waitForFunction((np) => document.querySelector('[data-testid="np"]')?.dataset.si === String(np), want.turns.primary);
