@@ -100,10 +100,9 @@ fn loss_budget_share_is_the_users_and_demos_keep_the_energy_balance() {
     let mut d = Design::demo_forward();
     d.choices.magnetic_loss_share = 0.3;
     assert_eq!(Design::from_json(&d.to_json()).unwrap(), d);
-    let text = Design::demo_forward()
-        .to_json()
-        .replace("\"magnetic_loss_share\": 0.5,", "")
-        .replace(",\n    \"magnetic_loss_share\": 0.5", "");
+    assert!(d.to_json().contains("\"magnetic_loss_share\": 0.3"));
+    // The default is left out of the file, so older files round-trip.
+    let text = Design::demo_forward().to_json();
     assert!(!text.contains("magnetic_loss_share"));
     assert_eq!(
         Design::from_json(&text).unwrap().choices.magnetic_loss_share,

@@ -170,7 +170,9 @@ pub struct Choices {
     /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
     /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
     /// a design whose magnetic loses more. 0.01 to 1; default
-    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
+    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`], left out of the file when it is the
+    /// default (so files without it round-trip byte for byte).
+    #[serde(skip_serializing_if = "is_default_share")]
     pub magnetic_loss_share: f64,
 }
 
@@ -180,6 +182,10 @@ pub struct Choices {
 /// and capacitors the rest; a half is the lenient end, so a design only
 /// fails when its magnetic alone leaves too little for everything else).
 pub const DEFAULT_MAGNETIC_LOSS_SHARE: f64 = 0.5;
+
+fn is_default_share(s: &f64) -> bool {
+    *s == DEFAULT_MAGNETIC_LOSS_SHARE
+}
 
 impl Default for Choices {
     fn default() -> Self {
