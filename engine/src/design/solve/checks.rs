@@ -109,6 +109,8 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         None,
         "20 K below the Curie temperature".into(),
     ));
+    checks.extend(mode_check_of(design, c));
+    checks.extend(super::balance::magnetising_check(design, c.turns.primary, &c.waves));
     checks.push(loss_budget(x));
     checks.push(material_range(x));
     let min_margin = checks
@@ -120,6 +122,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         k.binding = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
+}
+
+/// The flyback's "mode" check (see [`super::mode`]); none for the others.
+fn mode_check_of(design: &Design, c: &Candidate) -> Option<Check> {
+    let cond = super::mode::conduction(design, &c.turns, c.inductance, &c.waves)?;
+    super::mode::mode_check(&cond)
 }
 
 /// Energy balance: the magnetic's loss at its operating temperature (the
@@ -171,6 +179,12 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
     };
     let what = if r.f_factor >= r.b_factor { "frequency" } else { "flux amplitude" };
     let note = match r.verdict {
+        crate::loss::RangeVerdict::Extrapolated if r.factor <= 1.0 => format!(
+            "ΔB/2 {:.1} mT below the fit's {:.0} mT at {:.1} kHz: core loss taken as its upper bound (∝ B² below the fit)",
+            r.b_amplitude * 1e3,
+            s.b_min * 1e3,
+            r.frequency / 1e3
+        ),
         crate::loss::RangeVerdict::Inside => format!(
             "{:.1} kHz, ΔB/2 {:.1} mT inside the fit ({:.0}–{:.0} kHz, {:.0}–{:.0} mT)",
             r.frequency / 1e3,
