@@ -163,6 +163,7 @@ fn spec(f_lo: f64, f_hi: f64) -> impl Strategy<Value = Spec> {
                         ripple_ratio,
                     },
                     choke_ripple_ratio,
+                    inductor: None,
                 };
                 if let (Some(x), Ok(dc)) = (ratio, spec.dc_range()) {
                     spec.flyback.ratio =
@@ -199,7 +200,7 @@ pub fn plausible() -> impl Strategy<Value = Design> {
         })
         .prop_map(|((material, ci, rule, il), spec)| Design {
             schema: "magwright-design".into(),
-            version: 1,
+            version: magwright_engine::design::file::VERSION,
             name: "invariants".into(),
             core: CoreChoice::Library {
                 designation: core_for(&spec, ci),

@@ -8,6 +8,8 @@
 //!   balance, energy, saturation, loss against turns, Fr against frequency,
 //!   mode against waveform) over at least 1,000 accepted random designs
 //!   per property.
+//! * [`optimise`]: the optimiser against a brute force over a small library,
+//!   and its Pareto front against the definition.
 //! * [`fuzz`]: a deterministic mutation loop over the files in
 //!   `tests/fuzz/corpus/` (design files and stack-ups), at `Design::from_json`
 //!   + `evaluate` and `stackup::from_json`/`import`.
@@ -26,6 +28,7 @@ mod design;
 mod finite;
 mod fuzz;
 mod invariants;
+mod optimise;
 mod stackup;
 
 use magwright_engine::error::Error;
