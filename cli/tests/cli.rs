@@ -17,6 +17,11 @@ fn examples() -> Vec<PathBuf> {
     v
 }
 
+/// The forward example (its frequency, 200 kHz, is what some checks edit).
+fn forward_example() -> PathBuf {
+    PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("../examples/forward-48v-bus.json")
+}
+
 fn run(args: &[&str]) -> Output {
     bin().args(args).output().expect("run magwright")
 }
@@ -44,7 +49,7 @@ fn evaluate_each_example() {
 
 #[test]
 fn sweep_flux_sweep_rank_stackup_on_examples() {
-    let p = examples()[1].clone();
+    let p = forward_example().clone();
     let f = p.to_str().unwrap();
     let s = ok_json(&run(&["sweep", f, "50k", "400k", "5"]));
     assert_eq!(s["points"].as_array().unwrap().len(), 5);
@@ -103,14 +108,32 @@ fn bad_input_exits_2_with_a_message() {
     let e = bad(&run(&["evaluate", &write("empty.json", "")]));
     assert!(e.contains("empty"), "{e}");
     bad(&run(&["evaluate", &write("notjson.json", "{ nope")]));
-    let example = std::fs::read_to_string(&examples()[1]).unwrap();
-    let e = bad(&run(&["evaluate", &write("v2.json", &example.replace("\"version\": 1", "\"version\": 2"))]));
+    let example = std::fs::read_to_string(&forward_example()).unwrap();
+    let e = bad(&run(&["evaluate", &write("v3.json", &example.replace("\"version\": 2", "\"version\": 3"))]));
     assert!(e.contains("version"), "{e}");
+    // A version-1 file opens, converted, with a note on stderr (design::upgrade).
+    let old = run(&["evaluate", &write("v1.json", &example.replace("\"version\": 2", "\"version\": 1"))]);
+    let v = ok_json(&old);
+    assert!(v["losses"]["total"].as_f64().is_some_and(|x| x > 0.0));
+    assert!(String::from_utf8_lossy(&old.stderr).contains("note:"), "stderr: {}", String::from_utf8_lossy(&old.stderr));
     let e = bad(&run(&["evaluate", &write("f.json", &example.replace("200000.0", "-5.0"))]));
     assert!(e.contains("frequency"), "{e}");
-    let e = bad(&run(&["sweep", examples()[1].to_str().unwrap(), "1M", "10k", "5"]));
+    let e = bad(&run(&["sweep", forward_example().to_str().unwrap(), "1M", "10k", "5"]));
     assert!(e.contains("sweep.f_max"), "{e}");
-    bad(&run(&["sweep", examples()[1].to_str().unwrap(), "abc"]));
-    bad(&run(&["flux-sweep", examples()[1].to_str().unwrap(), "1"]));
+    bad(&run(&["sweep", forward_example().to_str().unwrap(), "abc"]));
+    bad(&run(&["flux-sweep", forward_example().to_str().unwrap(), "1"]));
     let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn help_lists_every_command_and_option_and_the_standing_caution() {
+    let out = run(&["--help"]);
+    assert!(out.status.success());
+    let text = String::from_utf8_lossy(&out.stdout);
+    for word in [
+        "evaluate", "sweep", "FROM TO POINTS", "--csv", "flux-sweep", "rank", "stackup", "demo", "cores", "materials",
+        "IEC 62368-1", "IEC 61558", "does not certify", "McLyman",
+    ] {
+        assert!(text.contains(word), "help lacks {word}: {text}");
+    }
 }

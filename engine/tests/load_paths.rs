@@ -190,7 +190,7 @@ fn every_refusal_names_its_path() {
         (0, "/material/material/bsat_100", Some(json!(0.0)), "material.material.bsat_100"),
         (0, "/material/material/steinmetz/alpha", Some(json!("x")), "material.material.steinmetz.alpha"),
         (0, "/material/material/steinmetz/k", Some(json!(-1.0)), "material.material.steinmetz.k"),
-        (0, "/material/material/temp_factor/ct2", None, "material.material.temp_factor.ct2"),
+        (0, "/material/material/temp_factor/curvature", None, "material.material.temp_factor.curvature"),
         (2, "/version", Some(json!(99)), "version"),
         (2, "/schema", Some(json!("other")), "schema"),
         (2, "/name", Some(json!(5)), "name"),

@@ -119,8 +119,13 @@ fn initial(hash: &str) -> Start {
         }
     }
     if let (Some(text), None) = (&stored, &held) {
-        if let Ok(d) = files::from_json(text) {
-            return Start { design: d, source: Source::Storage, note, held: None, replaced: false };
+        match files::from_json_noted(text) {
+            Ok((d, notes)) if !notes.is_empty() && note.is_none() => {
+                let note = Status::ok(files::with_notes("The design saved in this browser:", &notes));
+                return Start { design: d, source: Source::Storage, note, held: None, replaced: false };
+            }
+            Ok((d, _)) => return Start { design: d, source: Source::Storage, note, held: None, replaced: false },
+            Err(_) => {}
         }
     }
     Start { design: form::demo(), source: Source::Demo, note, held, replaced: false }
@@ -205,6 +210,9 @@ pub fn App() -> impl IntoView {
                     "Not saved: the design stored in this browser is kept (see above)"
                 } else if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
             </span>
+            <p class="standing-caution" data-testid="standing-caution" role="note">
+                {magwright_engine::topology::spec::STANDING_CAUTION}
+            </p>
         </header>
         <StorageNotes form=form held=held replaced=replaced status=status />
         <main class="layout">
@@ -215,6 +223,7 @@ pub fn App() -> impl IntoView {
                 <Panel id="core" title="Core and material" help="The core set and its material from the built-in libraries, or your own; the flux limit and how turns are chosen.">
                     <Library form=form outcome=outcome />
                     <FluxFields form=form outcome=outcome />
+                    <crate::panels::material_curves::MaterialCurves form=form />
                 </Panel>
             </div>
             <div class="col outputs">
@@ -356,11 +365,11 @@ fn FileActions(
         spawn_local(async move {
             let result = browser::read_text(file, files::MAX_BYTES)
                 .await
-                .and_then(|text| files::from_json(&text).map_err(|e| describe(&e)));
+                .and_then(|text| files::from_json_noted(&text).map_err(|e| describe(&e)));
             match result {
-                Ok(s) => {
+                Ok((s, notes)) => {
                     form.set(&s);
-                    status.set(Status::ok(format!("Opened {name}.")));
+                    status.set(Status::ok(files::with_notes(&format!("Opened {name}."), &notes)));
                 }
                 Err(m) => status.set(Status::err(format!("Could not open {name}: {m}. Nothing was changed."))),
             }

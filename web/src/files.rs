@@ -16,11 +16,22 @@ pub fn to_json(d: &Design) -> String {
 
 /// Reads a design file.
 pub fn from_json(text: &str) -> Result<Design, Error> {
+    from_json_noted(text).map(|(d, _)| d)
+}
+
+/// Reads a design file, with the engine's notes on converting an older
+/// version (empty for a current file); the page shows them.
+pub fn from_json_noted(text: &str) -> Result<(Design, Vec<String>), Error> {
     if text.len() > MAX_BYTES {
         return Err(Error::format(None, format!("the file is {} KB; a design file is a few KB", text.len() / 1024)));
     }
     // The engine's one reader and check, as the CLI calls it.
-    Design::load(text)
+    Design::load_noted(text)
+}
+
+/// A status line with the conversion notes after it.
+pub fn with_notes(first: &str, notes: &[String]) -> String {
+    std::iter::once(first).chain(notes.iter().map(String::as_str)).collect::<Vec<_>>().join(" ")
 }
 
 #[cfg(test)]

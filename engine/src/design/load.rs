@@ -40,9 +40,15 @@ impl Design {
     /// Reads a design file and checks every value: what the CLI and the
     /// page accept. Errors name the full path of the value in the file.
     pub fn load(text: &str) -> Result<Design> {
-        let d = Design::from_json(text)?;
+        Design::load_noted(text).map(|(d, _)| d)
+    }
+
+    /// [`Design::load`], also returning the notes of converting an older
+    /// file (`design::upgrade`; empty for a current file).
+    pub fn load_noted(text: &str) -> Result<(Design, Vec<String>)> {
+        let (d, notes) = Design::from_json_noted(text)?;
         d.validate()?;
-        Ok(d)
+        Ok((d, notes))
     }
 
     /// Checks every value of the design, errors named by full path.

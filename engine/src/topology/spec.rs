@@ -54,6 +54,10 @@ pub const MAX_OUTPUTS: usize = 4;
 pub const ES1_DC_LIMIT: f64 = 60.0;
 /// ES1 AC peak voltage limit of IEC 62368-1 (Table 4, from memory), V.
 pub const ES1_AC_PEAK_LIMIT: f64 = 42.4;
+/// The one-line caution every front end shows at all times, whatever the
+/// design: the page in its header and on the build sheet, the CLI in its help.
+pub const STANDING_CAUTION: &str = "Magwright computes; it does not certify. Defer to IEC 62368-1 / IEC 61558, \
+     local codes and licensed practice.";
 
 /// The converter circuit around the magnetic.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -75,6 +79,11 @@ pub enum Topology {
     HalfBridge,
     /// Full bridge: one primary driven ±Vin, centre-tapped secondaries.
     FullBridge,
+    /// A DC-biased inductor with ripple (a buck's or boost's inductor, or
+    /// the output choke of a forward-type converter): one winding on a
+    /// gapped core. Its circuit and target are `Spec::inductor`
+    /// (`topology::inductor`).
+    Inductor,
 }
 
 impl Topology {
@@ -86,6 +95,7 @@ impl Topology {
             Topology::PushPull => "push-pull",
             Topology::HalfBridge => "half bridge",
             Topology::FullBridge => "full bridge",
+            Topology::Inductor => "inductor",
         }
     }
 }
@@ -219,8 +229,15 @@ pub struct Spec {
     /// Forward and push-pull: output choke ripple ΔIL/Iout at Vin max
     /// (its largest), default 0.2 (common practice, no source). Each output
     /// has its own choke with the same ratio. 0 ≤ r ≤ 2.
+    /// Inductor kind: ΔIL/IL at its largest over the input range, which
+    /// sets L when `inductor.inductance` is not given.
     #[serde(default = "default_choke_ripple")]
     pub choke_ripple_ratio: f64,
+    /// Inductor kind only: the circuit around the inductor and its target
+    /// inductance (`None`: a buck, L from `choke_ripple_ratio`). Left out
+    /// of the file when absent.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub inductor: Option<super::inductor::InductorOptions>,
 }
 
 /// Field name of output `i`'s member, e.g. "outputs[1].voltage".
@@ -259,6 +276,7 @@ impl Spec {
                 ripple_ratio: 0.6,
             },
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -285,6 +303,7 @@ impl Spec {
             isolation: Isolation::Basic,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -311,6 +330,7 @@ impl Spec {
             isolation: Isolation::Functional,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -330,6 +350,8 @@ impl Spec {
         in_range("frequency", f, 1e3, 10e6, "Hz")?;
         let d_hi = match self.topology {
             Topology::Flyback | Topology::Forward => 0.95,
+            // A buck's or an output choke's on-time may approach the whole period.
+            Topology::Inductor => 1.0,
             Topology::TwoSwitchForward
             | Topology::PushPull
             | Topology::HalfBridge
@@ -415,6 +437,9 @@ impl Spec {
             "",
         )?;
         in_range("choke_ripple_ratio", self.choke_ripple_ratio, 0.0, 2.0, "")?;
+        if self.topology == Topology::Inductor {
+            super::inductor::validate(self)?;
+        }
         if self.topology == Topology::Flyback {
             let dc = self.dc_range()?;
             let vo = self.outputs[0].voltage + self.outputs[0].rectifier_drop;
@@ -445,13 +470,15 @@ impl Spec {
             Input::Dc { min, nominal, max } => {
                 positive("input.min", min, "V")?;
                 in_range("input.max", max, 0.0, 2000.0, "V")?;
-                in_range("input.nominal", nominal, min, max, "V")?;
+                // The order of the range first: a swapped pair is reported
+                // as such, not as a nominal value outside it.
                 if max < min {
                     return Err(Error::input(
                         "input.max",
-                        format!("must be at least input.min ({min} V)"),
+                        format!("Vin min ({min} V) is above Vin max ({max} V): swap them or correct one"),
                     ));
                 }
+                in_range("input.nominal", nominal, min, max, "V")?;
             }
             Input::Ac {
                 vac_min,
@@ -466,7 +493,7 @@ impl Spec {
                 if vac_max < vac_min {
                     return Err(Error::input(
                         "input.vac_max",
-                        format!("must be at least input.vac_min ({vac_min} V)"),
+                        format!("Vac min ({vac_min} V) is above Vac max ({vac_max} V): swap them or correct one"),
                     ));
                 }
                 in_range("input.vac_nominal", vac_nominal, vac_min, vac_max, "V")?;
@@ -530,8 +557,18 @@ impl Spec {
     /// Safety cautions for this spec: empty only when the input is DC and
     /// every specified voltage is within the ES1 limits of IEC 62368-1
     /// (60 V DC; 42.4 V peak AC; Table 4, from memory). Internal nodes (the
-    /// switch) can still exceed ES1: the operating point warns about those.
+    /// switch) can still exceed ES1: [`Spec::cautions_with_switch`] adds them.
     pub fn safety_cautions(&self) -> Vec<String> {
+        self.cautions_with_switch(None)
+    }
+
+    /// The safety cautions of a design whose switch node reaches
+    /// `switch_voltage` V (worst corner; `None`: not known): as
+    /// [`Spec::safety_cautions`], and a switch node above the ES1 limit of
+    /// 60 V DC (IEC 62368-1, from memory) makes the design hazardous too,
+    /// with its own caution, even when the input and outputs are within ES1.
+    pub fn cautions_with_switch(&self, switch_voltage: Option<f64>) -> Vec<String> {
+        let switch_high = switch_voltage.is_some_and(|v| v > ES1_DC_LIMIT || !v.is_finite());
         let mains = matches!(self.input, Input::Ac { .. });
         let input_high = match self.input {
             Input::Dc { max, .. } => max > ES1_DC_LIMIT || !max.is_finite(),
@@ -542,7 +579,7 @@ impl Spec {
             .iter()
             .any(|o| o.voltage > ES1_DC_LIMIT || !o.voltage.is_finite());
         let mut c = Vec::new();
-        if !(mains || input_high || out_high) {
+        if !(mains || input_high || out_high || switch_high) {
             return c;
         }
         if mains {
@@ -564,8 +601,15 @@ impl Spec {
                  the secondary side is hazardous too."
             ));
         }
+        if let Some(v) = switch_voltage.filter(|_| switch_high && !(mains || input_high)) {
+            c.push(format!(
+                "The switch node reaches {v:.0} V (plus the leakage spike), above the ES1 limit of \
+                 {ES1_DC_LIMIT} V DC of IEC 62368-1 (from memory), although the input is lower: treat the \
+                 primary winding, the switch and its heat sink as hazardous."
+            ));
+        }
         c.push(match self.isolation {
-            Isolation::Functional if mains || input_high => {
+            Isolation::Functional if mains || input_high || switch_high => {
                 "Functional isolation is chosen but the input is hazardous: functional insulation is \
                  no protection against electric shock. Outputs that can be touched need basic plus \
                  supplementary, or reinforced, insulation."
@@ -758,6 +802,22 @@ mod tests {
         let mut s = Spec::demo_flyback();
         s.flyback.ratio = FlybackRatio::ReflectedVoltage(1000.0);
         assert_eq!(s.validate().unwrap_err().field(), Some("flyback.ratio"));
+    }
+
+    #[test]
+    fn switch_node_above_es1_raises_the_cautions() {
+        // ES1 = 60 V DC (IEC 62368-1 Table 4, from memory): a 48 V input
+        // whose switch node reaches 120 V is hazardous on the primary side.
+        let s = Spec::demo_forward();
+        assert!(s.safety_cautions().is_empty());
+        let c = s.cautions_with_switch(Some(120.0));
+        assert!(c.iter().any(|t| t.contains("switch node reaches 120 V")), "{c:?}");
+        assert!(c.iter().any(|t| t.contains("IEC 61558")), "{c:?}");
+        assert!(s.cautions_with_switch(Some(59.0)).is_empty());
+        assert!(s.cautions_with_switch(Some(f64::NAN)).iter().any(|t| t.contains("IEC 62368-1")));
+        // Mains: no second switch-node caution (the mains one names it).
+        let f = Spec::demo_flyback();
+        assert_eq!(f.cautions_with_switch(Some(600.0)).len(), f.safety_cautions().len());
     }
 
     #[test]

@@ -44,6 +44,9 @@ const CSS: &str = r#"
 .lib table.data tr + tr { border-top:1px solid #eef0f3; }
 .lib table.data td.text { text-align:left; white-space:normal; }
 .lib .prov { font-size:.8em; color:var(--muted); margin:.1rem 0 .5rem; }
+.lib .mark { font-size:.82em; margin:.2rem 0 .1rem; padding:.15rem .4rem; border-radius:3px; }
+.lib .mark.checked { background:#eef7ee; }
+.lib .mark.unconfirmed { background:#fff4e0; color:var(--warn); font-weight:600; }
 .lib details { border:1px solid var(--line); border-radius:4px; padding:.3rem .5rem; margin:.4rem 0; }
 .lib details > summary { cursor:pointer; font-weight:600; font-size:.92em; }
 .lib details[open] > summary { margin-bottom:.3rem; }
@@ -68,6 +71,7 @@ const CSS: &str = r#"
 .lib-dialog tbody th { white-space:nowrap; font-weight:600; padding:.16rem .45rem; }
 .lib-dialog td { text-align:right; font-variant-numeric:tabular-nums; padding:.16rem .45rem; white-space:nowrap; }
 .lib-dialog td.src { white-space:normal; min-width:14em; color:var(--muted); font-size:.92em; }
+.lib-dialog td.src.unconfirmed { color:var(--warn); font-weight:600; }
 .lib-dialog tbody tr:nth-child(even) { background:#fafbfc; }
 .lib-dialog tbody tr.current { background:#e6effa; }
 .lib-dialog .count { font-size:.85em; color:var(--muted); }
@@ -322,6 +326,45 @@ fn figure_n(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'s
     }
 }
 
+/// Whether the engine marked a library core unconfirmed (its provenance
+/// starts so; the engine's `core::library` docs say when).
+fn is_unconfirmed(c: &Core) -> bool {
+    c.provenance.starts_with("unconfirmed")
+}
+
+/// The library core's computed values against its published effective
+/// parameters, as the engine's `core::library::agreement` reports them: a
+/// visible mark above the provenance note. Nothing for the user's own core.
+fn agreement_note(c: &Core) -> Option<impl IntoView> {
+    c.shape?;
+    let a = cores::agreement(&c.designation)?;
+    let diffs = format!(
+        "Ae {}, le {}, Ve {}",
+        signed_pct(a.ae),
+        signed_pct(a.le),
+        signed_pct(a.ve)
+    );
+    let (class, text) = if a.confirmed {
+        ("mark checked", format!("Checked: computed {diffs} from the published effective parameters (from memory)."))
+    } else {
+        (
+            "mark unconfirmed",
+            format!("Unconfirmed: computed {diffs} from the published effective parameters (from memory); the dimensions are in doubt, use your supplier's data."),
+        )
+    };
+    Some(view! { <p class=class data-testid="core-check">{text}</p> })
+}
+
+fn signed_pct(d: f64) -> String {
+    // Rounded to 0.1 %; a value that rounds to zero is shown unsigned.
+    let p = (d * 1000.0).round() / 10.0;
+    if p == 0.0 {
+        "0.0 %".to_string()
+    } else {
+        format!("{p:+.1} %").replace('-', "−")
+    }
+}
+
 /// The first clause of a provenance note (the rest goes in a tooltip).
 fn short_source(p: &str) -> &str {
     p.split(';').next().unwrap_or(p).trim()
@@ -476,6 +519,7 @@ fn CoreData(form: Form) -> impl IntoView {
                     {figure("core-surface", "Outer surface", c.surface_area, 1e-4, "cm²")}
                     {figure("core-mass", "Mass (set)", c.mass, 1e-3, "g")}
                 </table>
+                {agreement_note(&c)}
                 <p class="prov" data-testid="core-provenance">{c.provenance.clone()}</p>
             }
             .into_any()
@@ -585,7 +629,7 @@ fn CoreBrowser(form: Form, open: RwSignal<bool>) -> impl IntoView {
                         {cell(c.turn_length_inner, 1e-3, 3)}
                         {cell(c.surface_area, 1e-4, 3)}
                         {cell(c.mass, 1e-3, 3)}
-                        <td class="src text" title=c.provenance.clone()>{short_source(&c.provenance).to_string()}</td>
+                        <td class="src text" class:unconfirmed=is_unconfirmed(c) title=c.provenance.clone()>{short_source(&c.provenance).to_string()}</td>
                     </tr>
                 }
             })
@@ -1060,9 +1104,15 @@ fn MaterialData(form: Form) -> impl IntoView {
                     {figure_n("mat-curie", "Curie temperature", m.curie_c, 1.0, "°C", 3)}
                     {steinmetz_rows("mat", &m.steinmetz)}
                     <tr>
-                        <th scope="row" title="k holds here; the loss rises as 1 + c·(T − Tref)² either side">"k holds at"</th>
+                        <th scope="row" title="The temperature of least loss Tm: k holds here; Pv(T) = Pv(Tm)·(1 + c·(T − Tm)²)">"Least loss at (k holds)"</th>
                         <td data-testid="mat-tref" data-si=t_ref.map(si_attr).unwrap_or_default()>
-                            {match t_ref { Some(t) => format!("{} °C (loss minimum)", sig(t, 3)), None => "any temperature (flat)".into() }}
+                            {match t_ref { Some(t) => format!("{} °C", sig(t, 3)), None => "any temperature (flat)".into() }}
+                        </td>
+                    </tr>
+                    <tr>
+                        <th scope="row" title="The loss rises as 1 + c·(T − Tm)² either side of Tm (1e-4 /K²: +25 % at 50 K away)">"Curvature c"</th>
+                        <td data-testid="mat-curvature" data-si=si_attr(m.temp_factor.curvature)>
+                            {if m.temp_factor.is_flat() { "0 (flat)".to_string() } else { format!("{} /K²", coef(m.temp_factor.curvature)) }}
                         </td>
                     </tr>
                     {figure_n("mat-resistivity", "Resistivity", m.resistivity, 1.0, "Ω·m", 3)}
@@ -1104,8 +1154,8 @@ const OWN: [MatDef; 15] = [
     MatDef { key: "cm-fmax", engine: &["material.steinmetz.f_max"], label: "Fitted to f", unit: "Hz", help: "Highest frequency k, α, β hold at" },
     MatDef { key: "cm-bmin", engine: &["material.steinmetz.b_min"], label: "Fitted from B peak", unit: "T", help: "Lowest peak flux density k, α, β hold at" },
     MatDef { key: "cm-bmax", engine: &["material.steinmetz.b_max"], label: "Fitted to B peak", unit: "T", help: "Highest peak flux density k, α, β hold at" },
-    MatDef { key: "cm-tref", engine: &["material.temp_factor.ct1"], label: "Loss minimum at", unit: "°C", help: "The temperature where the loss is least; k holds there" },
-    MatDef { key: "cm-curve", engine: &["material.temp_factor.ct2", "material.temp_factor.ct0"], label: "Curvature c", unit: "/°C²", help: "The loss rises as 1 + c·(T − Tmin)² either side of the minimum (1e-4: +25 % at 50 °C away)" },
+    MatDef { key: "cm-tref", engine: &["material.temp_factor.least_loss_c"], label: "Loss minimum at", unit: "°C", help: "The temperature where the loss is least; k holds there" },
+    MatDef { key: "cm-curve", engine: &["material.temp_factor.curvature"], label: "Curvature c", unit: "/K²", help: "The loss rises as 1 + c·(T − Tm)² either side of the minimum (1e-4: +25 % at 50 °C away)" },
     MatDef { key: "cm-rho", engine: &["material.resistivity"], label: "Resistivity", unit: "Ω·m", help: "Bulk DC resistivity" },
     MatDef { key: "cm-density", engine: &["material.density"], label: "Density", unit: "kg/m³", help: "For the core mass" },
 ];
@@ -1157,7 +1207,7 @@ fn material_texts(m: &Material) -> ([String; 15], bool) {
         s.b_min,
         s.b_max,
         t_ref.unwrap_or(100.0),
-        if t_ref.is_some() { m.temp_factor.ct2 } else { 1e-4 },
+        if t_ref.is_some() { m.temp_factor.curvature } else { 1e-4 },
         m.resistivity,
         m.density,
     ];
@@ -1205,6 +1255,7 @@ fn check_material(name: &str, texts: &[String; 15], flat: bool) -> MatCheck {
         resistivity: v[13],
         density: v[14],
         provenance: "your own data".into(),
+        bsat_rise_intended: false,
     };
     match m.validate() {
         Ok(()) => MatCheck { errors, general: None, ok: Some(m) },
@@ -1550,5 +1601,14 @@ mod tests {
         assert_eq!(sig(12345.0, 3), "12345");
         assert_eq!(coef(1.6e-3), "1.6000e-3");
         assert_eq!(coef(10.0), "10.00");
+    }
+
+    #[test]
+    fn agreement_percent_is_signed_and_never_minus_zero() {
+        assert_eq!(signed_pct(-0.0004), "0.0 %");
+        assert_eq!(signed_pct(0.044), "+4.4 %");
+        assert_eq!(signed_pct(-0.0123), "−1.2 %");
+        assert!(is_unconfirmed(&cores::find("ETD 34").unwrap()));
+        assert!(!is_unconfirmed(&cores::find("ETD 29").unwrap()));
     }
 }

@@ -132,7 +132,16 @@ pub(super) fn finish(
             warnings.push(w.clone());
         }
     }
-    for w in operating.core.warnings.iter().map(|w| w.message()) {
+    // Core-loss warnings of both corners, each naming its corner.
+    for w in super::warnings::core_loss_warnings(
+        prep,
+        material,
+        core,
+        &c.waves,
+        loss_corner,
+        &operating.core,
+        t_loss,
+    ) {
         if !warnings.contains(&w) {
             warnings.push(w);
         }
@@ -164,9 +173,15 @@ pub(super) fn finish(
     };
     // Filled in by `evaluate` (sweeps and the optimiser do not need it).
     let stackup_json = String::new();
-    let n_actual =
-        c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
+    let n_actual = match c.turns.secondaries.first() {
+        Some(&ns) => c.turns.primary as f64 / ns.max(1) as f64,
+        // One winding (the inductor kind): no ratio, 1 by convention.
+        None => 1.0,
+    };
     let _ = n_design;
+    let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
+    // The switch node counts for the hazardous-voltage cautions too.
+    let cautions = spec.cautions_with_switch(c.waves.get("switch_voltage").map(|w| w.value));
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -182,6 +197,7 @@ pub(super) fn finish(
         al: c.al,
         gap: c.gap,
         gap_placement: ch.gap_placement,
+        conduction,
         waveforms: c.waves,
         wires: c.wires,
         stackup: c.stackup,
@@ -196,7 +212,8 @@ pub(super) fn finish(
         power,
         checks,
         pass,
-        cautions: spec.safety_cautions(),
+        cautions,
         warnings,
+        choke: None,
     })
 }
