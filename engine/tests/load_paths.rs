@@ -240,7 +240,7 @@ fn stackup_misspelt_key_at_every_level() {
         let Some(k) = keys.iter().find(|k| k.len() > 4 && k.as_str() != "schema") else { continue };
         let bogus = format!("{k}{}", &k[k.len() - 1..]);
         let mut w = good.clone();
-        let ptr = format!("/{}", path.replace('.', "/").replace('[', "/").replace(']', ""));
+        let ptr = format!("/{}", path.replace(['.', '['], "/").replace(']', ""));
         let obj = if path.is_empty() { &mut w } else { w.pointer_mut(&ptr).unwrap() };
         obj.as_object_mut().unwrap().insert(bogus.clone(), json!(1));
         let e = magwright_engine::winding::stackup::from_json(&w.to_string()).expect_err(&bogus);
