@@ -104,8 +104,13 @@ fn bad_input_exits_2_with_a_message() {
     assert!(e.contains("empty"), "{e}");
     bad(&run(&["evaluate", &write("notjson.json", "{ nope")]));
     let example = std::fs::read_to_string(&examples()[1]).unwrap();
-    let e = bad(&run(&["evaluate", &write("v2.json", &example.replace("\"version\": 1", "\"version\": 2"))]));
+    let e = bad(&run(&["evaluate", &write("v3.json", &example.replace("\"version\": 2", "\"version\": 3"))]));
     assert!(e.contains("version"), "{e}");
+    // A version-1 file opens, converted, with a note on stderr (design::upgrade).
+    let old = run(&["evaluate", &write("v1.json", &example.replace("\"version\": 2", "\"version\": 1"))]);
+    let v = ok_json(&old);
+    assert!(v["losses"]["total"].as_f64().is_some_and(|x| x > 0.0));
+    assert!(String::from_utf8_lossy(&old.stderr).contains("note:"), "stderr: {}", String::from_utf8_lossy(&old.stderr));
     let e = bad(&run(&["evaluate", &write("f.json", &example.replace("200000.0", "-5.0"))]));
     assert!(e.contains("frequency"), "{e}");
     let e = bad(&run(&["sweep", examples()[1].to_str().unwrap(), "1M", "10k", "5"]));
@@ -113,4 +118,17 @@ fn bad_input_exits_2_with_a_message() {
     bad(&run(&["sweep", examples()[1].to_str().unwrap(), "abc"]));
     bad(&run(&["flux-sweep", examples()[1].to_str().unwrap(), "1"]));
     let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn help_lists_every_command_and_option_and_the_standing_caution() {
+    let out = run(&["--help"]);
+    assert!(out.status.success());
+    let text = String::from_utf8_lossy(&out.stdout);
+    for word in [
+        "evaluate", "sweep", "FROM TO POINTS", "--csv", "flux-sweep", "rank", "stackup", "demo", "cores", "materials",
+        "IEC 62368-1", "IEC 61558", "does not certify", "McLyman",
+    ] {
+        assert!(text.contains(word), "help lacks {word}: {text}");
+    }
 }

@@ -101,8 +101,9 @@ test('browse the core library, filter by family, pick a core and a material', as
     ['mat-k', m.steinmetz.k], ['mat-alpha', m.steinmetz.alpha], ['mat-beta', m.steinmetz.beta]]) {
     assert.ok(close(await shown(page, id), v), id);
   }
-  // The reference temperature of k: the minimum of ct2·T² − ct1·T + ct0, ct1/(2·ct2).
-  assert.ok(close(await shown(page, 'mat-tref'), m.temp_factor.ct1 / (2 * m.temp_factor.ct2), 1e-9));
+  // The reference temperature of k: the temperature of least loss Tm of 1 + c·(T − Tm)², and c.
+  assert.ok(close(await shown(page, 'mat-tref'), m.temp_factor.least_loss_c, 1e-9));
+  assert.ok(close(await shown(page, 'mat-curvature'), m.temp_factor.curvature, 1e-9));
   assert.match(await page.textContent('[data-testid="mat-provenance"]'), /typical, from memory; use your supplier's data/);
   assert.match(await page.textContent('[data-testid="mat-f-range"]'), /20\.0 kHz – 200 kHz/);
   await page.screenshot({ path: join(OUT, 'library-picked.png'), fullPage: true });
@@ -244,7 +245,7 @@ test('a material of your own by its data: start from the grade in use, edit, the
   // The grade's values, read back exactly (Bsat in T with an SI prefix).
   assert.equal(await page.inputValue('#f-cm-bsat25'), '490m');
   assert.equal(Number(await page.inputValue('#f-cm-alpha')), base.steinmetz.alpha);
-  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.ct1 / (2 * base.temp_factor.ct2));
+  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.least_loss_c);
   assert.equal(await page.isChecked('#f-cm-flat'), false);
 
   // An α outside the plausible range: the engine's message (Material::validate,
@@ -270,7 +271,7 @@ test('a material of your own by its data: start from the grade in use, edit, the
   await page.waitForSelector('#f-cm-tref', { state: 'detached' });
   await page.keyboard.press('Space');
   await page.waitForSelector('#f-cm-tref');
-  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.ct1 / (2 * base.temp_factor.ct2));
+  assert.equal(Number(await page.inputValue('#f-cm-tref')), base.temp_factor.least_loss_c);
   await typeInto(page, 'cm-name', 'Bench grade');
   assert.ok(!(await page.isDisabled('[data-testid="use-own-material"]')));
   await page.focus('[data-testid="use-own-material"]');
@@ -287,7 +288,7 @@ test('a material of your own by its data: start from the grade in use, edit, the
   for (const key of ['mu_i', 'bsat_25', 'curie_c', 'resistivity', 'density']) assert.equal(mat[key], base[key], key);
   for (const key of ['k', 'beta', 'f_min', 'f_max', 'b_min', 'b_max']) assert.equal(mat.steinmetz[key], base.steinmetz[key], key);
   // Rebuilt as 1 + c·(T − Tmin)² (TempFactor::with_minimum): the same parabola.
-  for (const key of ['ct2', 'ct1', 'ct0']) assert.ok(close(mat.temp_factor[key], base.temp_factor[key], 1e-12), key);
+  for (const key of ['least_loss_c', 'curvature']) assert.ok(close(mat.temp_factor[key], base.temp_factor[key], 1e-12), key);
   assert.equal(after.want.material.bsat_100, 0.36);
   // A higher α raises the loss above 1 Hz (the factor f^0.05 is about 1.8 at 100 kHz).
   assert.ok(after.want.losses.core > before.want.losses.core, `core loss ${after.want.losses.core} vs ${before.want.losses.core}`);

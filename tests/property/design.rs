@@ -252,7 +252,7 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
                 insulation,
                 edge_time,
                 switch_voltage_rating,
-                choke_core: None,
+                ..Default::default()
             },
         )
 }
@@ -309,7 +309,7 @@ fn material() -> impl Strategy<Value = MaterialChoice> {
             4 => m.steinmetz.k *= x * 2.0,
             5 => m.steinmetz.alpha *= x * 2.0,
             6 => m.steinmetz.beta *= x * 2.0,
-            _ => m.temp_factor.ct2 *= x * 2.0,
+            _ => m.temp_factor.curvature *= x * 2.0,
         }
         MaterialChoice::Custom { material: m }
     });
@@ -319,7 +319,7 @@ fn material() -> impl Strategy<Value = MaterialChoice> {
 pub fn design() -> impl Strategy<Value = Design> {
     (spec(), core(), material(), choices()).prop_map(|(spec, core, material, choices)| Design {
         schema: "magwright-design".into(),
-        version: 1,
+        version: magwright_engine::design::file::VERSION,
         name: "random".into(),
         spec,
         core,

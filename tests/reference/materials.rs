@@ -133,9 +133,8 @@ fn fit_recovers_generating_coefficients() {
     assert!((r.steinmetz.beta - beta).abs() < 1e-6);
     assert!((r.reference_temperature - t0).abs() < 1e-6);
     let want = TempFactor::with_minimum(t0, c);
-    assert!((r.temp_factor.ct2 / want.ct2 - 1.0).abs() < 1e-6);
-    assert!((r.temp_factor.ct1 / want.ct1 - 1.0).abs() < 1e-6);
-    assert!((r.temp_factor.ct0 / want.ct0 - 1.0).abs() < 1e-6);
+    assert!((r.temp_factor.least_loss_c - want.least_loss_c).abs() < 1e-6);
+    assert!((r.temp_factor.curvature / want.curvature - 1.0).abs() < 1e-6);
     assert!(r.max_error_pct < 1e-6);
     let m = r.apply_to(&library::find("MnZn-500k").unwrap()).unwrap();
     assert_eq!(m.temp_factor, r.temp_factor);

@@ -81,8 +81,11 @@ fn initial(hash: &str) -> (Design, Source, Option<Status>) {
         }
     }
     if let Some(text) = persist::load() {
-        match files::from_json(&text) {
-            Ok(spec) => return (spec, Source::Storage, note),
+        match files::from_json_noted(&text) {
+            Ok((spec, notes)) if !notes.is_empty() && note.is_none() => {
+                return (spec, Source::Storage, Status::ok(files::with_notes("The design saved in this browser:", &notes)))
+            }
+            Ok((spec, _)) => return (spec, Source::Storage, note),
             Err(e) => {
                 note = note.or(Status::err(format!(
                     "The design saved in this browser could not be read ({}); showing the demo.",
@@ -149,6 +152,9 @@ pub fn App() -> impl IntoView {
             <span class="saved" data-testid="saved-state">
                 {move || if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
             </span>
+            <p class="standing-caution" data-testid="standing-caution" role="note">
+                {magwright_engine::topology::spec::STANDING_CAUTION}
+            </p>
         </header>
         <main class="layout">
             <div class="col inputs">
@@ -158,6 +164,7 @@ pub fn App() -> impl IntoView {
                 <Panel id="core" title="Core and material" help="The core set and its material from the built-in libraries, or your own; the flux limit and how turns are chosen.">
                     <Library form=form outcome=outcome />
                     <FluxFields form=form outcome=outcome />
+                    <crate::panels::material_curves::MaterialCurves form=form />
                 </Panel>
             </div>
             <div class="col outputs">
@@ -217,11 +224,11 @@ fn FileActions(
         spawn_local(async move {
             let result = browser::read_text(file, files::MAX_BYTES)
                 .await
-                .and_then(|text| files::from_json(&text).map_err(|e| describe(&e)));
+                .and_then(|text| files::from_json_noted(&text).map_err(|e| describe(&e)));
             match result {
-                Ok(s) => {
+                Ok((s, notes)) => {
                     form.set(&s);
-                    status.set(Status::ok(format!("Opened {name}.")));
+                    status.set(Status::ok(files::with_notes(&format!("Opened {name}."), &notes)));
                 }
                 Err(m) => status.set(Status::err(format!("Could not open {name}: {m}. Nothing was changed."))),
             }

@@ -22,7 +22,8 @@ use magwright_engine::Error;
 pub type Report = design::Report;
 
 /// What the page designs, shown under its name.
-pub const TITLE: &str = "Transformers and coupled inductors for forward, flyback and push-pull converters";
+pub const TITLE: &str =
+    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters";
 
 /// The design shown to a first-time visitor: the forward demo, which passes.
 pub fn demo() -> Design {
@@ -132,7 +133,8 @@ pub mod ix {
     pub const LAYER_WRAPS: usize = 25;
     pub const TAPE: usize = 26;
     pub const FLANGE: usize = 27;
-    pub const COUNT: usize = 28;
+    pub const LOSS_SHARE: usize = 28;
+    pub const COUNT: usize = 29;
 }
 
 /// Every numeric entry except the outputs, in [`ix`] order.
@@ -185,6 +187,13 @@ pub const NUMS: [NumDef; ix::COUNT] = [
         optional: true,
         ..num("choices.insulation.margin", "Flange margin", "m", Group::Winding, "Margin tape at each flange; empty: from the isolation class")
     },
+    num(
+        "choices.magnetic_loss_share",
+        "Loss share",
+        "",
+        Group::Converter,
+        "The magnetic's share of the converter's loss budget Pin − Pout, e.g. 0.5",
+    ),
 ];
 
 /// The outputs' keys: voltage, current, rectifier drop, for up to four.
@@ -363,6 +372,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(f64::from(ch.insulation.interlayer_wraps)),
         Some(ch.insulation.tape_thickness),
         ch.insulation.margin,
+        Some(ch.magnetic_loss_share),
     ]
 }
 
@@ -469,8 +479,9 @@ impl Form {
             if d.optional && text.trim().is_empty() {
                 continue;
             }
-            match notation::parse(&text, d.unit) {
-                Ok(v) if d.whole && v.fract() != 0.0 => errs.push((d.key, "a whole number".to_string())),
+            // Counts are read as counts: "-1" or "2.5" is refused, never made 0.
+            let read = if d.whole { notation::parse_count(&text).map(f64::from) } else { notation::parse(&text, d.unit) };
+            match read {
                 Ok(v) => vals[i] = Some(v),
                 Err(e) => errs.push((d.key, e.to_string())),
             }
@@ -563,6 +574,7 @@ impl Form {
             },
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],
+            magnetic_loss_share: g(ix::LOSS_SHARE),
             choke_core: self.choke_core.get(),
         };
         Ok(Design {

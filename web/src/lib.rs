@@ -14,6 +14,8 @@
 //! * [`browser`]: downloads, reading files, clipboard, print, the URL.
 //! * [`panic`]: the panic hook and its message over the page.
 //! * [`plot`]: line charts and to-scale cross-sections on canvas.
+//! * [`hidpi`]: canvases drawn at the device pixel ratio.
+//! * [`plot_log`]: charts with both axes logarithmic.
 //! * [`field`], [`ui`]: a text field holding what was typed; panels, canvases.
 
 pub mod app;
@@ -21,10 +23,12 @@ pub mod browser;
 pub mod field;
 pub mod files;
 pub mod form;
+pub mod hidpi;
 pub mod panels;
 pub mod panic;
 pub mod persist;
 pub mod plot;
+pub mod plot_log;
 pub mod ui;
 
 use wasm_bindgen::prelude::wasm_bindgen;

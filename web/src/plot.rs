@@ -16,10 +16,8 @@
 //! every number drawn is one the caller got from the engine.
 
 use magwright_engine::notation;
-use plotters::coord::Shift;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
-use plotters_canvas::CanvasBackend;
 use web_sys::HtmlCanvasElement;
 
 /// A colour, so that callers need not depend on plotters.
@@ -27,7 +25,7 @@ use web_sys::HtmlCanvasElement;
 pub struct Rgb(pub u8, pub u8, pub u8);
 
 impl Rgb {
-    fn c(self) -> RGBColor {
+    pub(crate) fn c(self) -> RGBColor {
         RGBColor(self.0, self.1, self.2)
     }
 }
@@ -52,9 +50,9 @@ pub const PALETTE: [Rgb; 8] = [ORANGE, BLUE, GREEN, PURPLE, TEAL, BROWN, MAGENTA
 /// Light band colours, for shaded ranges with different meanings.
 pub const BANDS: [Rgb; 4] = [Rgb(200, 60, 60), Rgb(215, 150, 20), Rgb(120, 70, 190), Rgb(90, 98, 110)];
 
-const FONT: &str = "sans-serif";
-const INK: RGBColor = RGBColor(29, 37, 48);
-const GRID: RGBColor = RGBColor(236, 238, 242);
+pub(crate) const FONT: &str = "sans-serif";
+pub(crate) const INK: RGBColor = RGBColor(29, 37, 48);
+pub(crate) const GRID: RGBColor = RGBColor(236, 238, 242);
 
 /// Which y axis a series or marker belongs to.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
@@ -220,17 +218,15 @@ pub struct LineChart {
     pub shades: Vec<Shade>,
 }
 
-type Area = DrawingArea<CanvasBackend, Shift>;
+use crate::hidpi::Area;
 
-fn err<E: std::fmt::Display>(e: E) -> String {
+pub(crate) fn err<E: std::fmt::Display>(e: E) -> String {
     e.to_string()
 }
 
+/// The canvas at the device pixel ratio ([`crate::hidpi`]), filled white.
 fn area(canvas: &HtmlCanvasElement) -> Result<Area, String> {
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
-    let root = backend.into_drawing_area();
-    root.fill(&WHITE).map_err(err)?;
-    Ok(root)
+    crate::hidpi::area(canvas)
 }
 
 /// Smallest and largest finite value, or None.
@@ -714,7 +710,7 @@ pub fn cross_section(canvas: &HtmlCanvasElement, rects: &[Rect]) -> Result<(), S
     root.present().map_err(err)
 }
 
-fn note(root: &Area, text: &str) -> Result<(), String> {
+pub(crate) fn note(root: &Area, text: &str) -> Result<(), String> {
     let (w, h) = root.dim_in_pixel();
     let f = (FONT, 14)
         .into_font()
@@ -740,7 +736,7 @@ fn plain(v: f64) -> String {
 }
 
 /// A tick label with an SI prefix and no trailing zeros: 20k, 1.5M, 500m.
-fn compact(v: f64) -> String {
+pub(crate) fn compact(v: f64) -> String {
     let s = notation::format(v, "", 3);
     let (num, prefix) = s.split_once(' ').unwrap_or((s.as_str(), ""));
     let num = if num.contains('.') {

@@ -20,7 +20,9 @@ pub fn Panel(id: &'static str, title: &'static str, help: &'static str, children
 
 /// A canvas redrawn whenever what `draw` reads changes. `draw` gets the
 /// element and returns an error message to log (a failed drawing leaves
-/// the rest of the page alone).
+/// the rest of the page alone). `width` × `height` is the nominal CSS size
+/// (`data-w`, `data-h`); drawing through [`crate::hidpi::area`] sizes the
+/// backing store to the laid-out CSS size × devicePixelRatio.
 #[component]
 pub fn PlotCanvas<F>(
     /// `data-testid` of the canvas.
@@ -43,6 +45,6 @@ where
         }
     });
     view! {
-        <canvas node_ref=canvas width=width height=height data-testid=testid role="img" aria-label=label></canvas>
+        <canvas node_ref=canvas width=width height=height data-w=width data-h=height data-testid=testid role="img" aria-label=label></canvas>
     }
 }

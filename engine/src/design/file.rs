@@ -14,8 +14,8 @@ use serde::{Deserialize, Serialize};
 
 /// The `schema` field's value.
 pub const SCHEMA: &str = "magwright-design";
-/// The version this engine writes and reads.
-pub const VERSION: u32 = 1;
+/// The version this engine writes and reads (older ones are converted).
+pub const VERSION: u32 = 2;
 
 /// One design: specification, core, material and the designer's choices.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -167,12 +167,24 @@ pub struct Choices {
     pub edge_time: f64,
     /// The switch's voltage rating to check against, V (`None`: not checked).
     pub switch_voltage_rating: Option<f64>,
+    /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
+    /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
+    /// a design whose magnetic loses more. 0.01 to 1; default
+    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
+    pub magnetic_loss_share: f64,
     /// Forward, push-pull and bridges: the output choke's core (`None`:
     /// chosen from the library by least loss, `design::solve::choke`).
     /// Left out of the file when absent.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub choke_core: Option<CoreChoice>,
 }
+
+/// Default share of the converter's loss budget for the magnetic: one half
+/// (common practice, no source: in a switch-mode converter the magnetics
+/// commonly take a third to a half of the losses, the switches, rectifiers
+/// and capacitors the rest; a half is the lenient end, so a design only
+/// fails when its magnetic alone leaves too little for everything else).
+pub const DEFAULT_MAGNETIC_LOSS_SHARE: f64 = 0.5;
 
 impl Default for Choices {
     fn default() -> Self {
@@ -188,6 +200,7 @@ impl Default for Choices {
             insulation: Insulation::default(),
             edge_time: 0.0,
             switch_voltage_rating: None,
+            magnetic_loss_share: DEFAULT_MAGNETIC_LOSS_SHARE,
             choke_core: None,
         }
     }
@@ -238,7 +251,13 @@ impl Design {
     /// `schema`), a newer `version`, or a design that does not fit the
     /// schema (the error names the field, e.g. `spec.outputs[0].voltage`).
     pub fn from_json(text: &str) -> Result<Design> {
-        let value: serde_json::Value = crate::json::from_str(text)?;
+        Design::from_json_noted(text).map(|(d, _)| d)
+    }
+
+    /// [`Design::from_json`], also returning the notes of converting an
+    /// older file ([`super::upgrade`]; empty for a current file).
+    pub fn from_json_noted(text: &str) -> Result<(Design, Vec<String>)> {
+        let mut value: serde_json::Value = crate::json::from_str(text)?;
         let Some(obj) = value.as_object() else {
             return Err(foreign("the file holds no JSON object"));
         };
@@ -249,16 +268,17 @@ impl Design {
             None => return Err(foreign("it has no \"schema\" key")),
         }
         match obj.get("version").and_then(serde_json::Value::as_u64) {
-            Some(v) if v == u64::from(VERSION) => {}
-            Some(v) if v > u64::from(VERSION) => {
-                return Err(Error::format(
-                    Some("version"),
-                    format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
-                ))
+            Some(v) if v == u64::from(VERSION) => Ok((crate::json::from_str_checked(text)?, Vec::new())),
+            Some(v) if v > u64::from(VERSION) => Err(Error::format(
+                Some("version"),
+                format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
+            )),
+            Some(v) if v >= 1 => {
+                let notes = super::upgrade::upgrade(&mut value, v)?;
+                Ok((crate::json::from_str_checked(&crate::json::to_string_pretty(&value))?, notes))
             }
-            _ => return Err(Error::format(Some("version"), format!("the file's \"version\" must be {VERSION}"))),
+            _ => Err(Error::format(Some("version"), format!("the file's \"version\" must be 1 to {VERSION}"))),
         }
-        crate::json::from_str(text)
     }
 
     /// Writes the design file (pretty JSON).

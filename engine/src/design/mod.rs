@@ -5,11 +5,16 @@
 //!   corners, thermal equilibrium and the pass/fail checks.
 //! * [`sweep`]: loss against frequency and against flux density.
 //! * [`optimise`]: every library core × material ranked, with the Pareto front.
+//! * [`material_view`]: a material's Pv–B loss curves for the page's chart.
+//! * [`upgrade`]: older design files converted to the current version.
 
 pub mod file;
+mod load;
+pub mod material_view;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;
+pub mod upgrade;
 pub mod views;
 
 pub use file::{Choices, CoreChoice, Design, MaterialChoice};

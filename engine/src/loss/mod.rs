@@ -21,7 +21,8 @@
 //! * Minor loops: the whole period is one loop (see [`igse`]).
 //! * Relaxation after flat parts of B(t), and the loss rise at the edges of
 //!   the fitted ranges: points outside the fitted f or B ranges are
-//!   extrapolated, with a warning.
+//!   extrapolated, with a warning; [`range`] holds the rule that fails a
+//!   design whose point lies beyond a modest band.
 //!
 //! # Entry points
 //!
@@ -31,8 +32,10 @@
 //! [`IgseCoefficients::shape_factor`] and [`IgseCoefficients::pv_from_shape`].
 
 pub mod igse;
+pub mod range;
 
 pub use igse::{cos_power_integral, ki, FluxScan, IgseCoefficients};
+pub use range::{data_range, data_range_of, DataRange, RangeVerdict, DATA_RANGE_BAND};
 
 use crate::error::{in_range, positive, Error, Result};
 use crate::material::{Material, Steinmetz};
@@ -247,8 +250,9 @@ mod tests {
         let base = c.pv_triangle(100e3, 0.2, 0.5).unwrap();
         for t in [25.0, 60.0, 100.0, 120.0] {
             let r = core_loss(&m, &w, t, ve).unwrap();
-            // Factor = ct2·T² − ct1·T + ct0 (the material's definition).
-            let factor = m.temp_factor.ct2 * t * t - m.temp_factor.ct1 * t + m.temp_factor.ct0;
+            // Factor = 1 + c·(T − Tm)² (the material's definition).
+            let d = t - m.temp_factor.least_loss_c;
+            let factor = 1.0 + m.temp_factor.curvature * d * d;
             assert!((r.temp_factor - factor).abs() < 1e-12);
             assert!((r.pv / (base * factor) - 1.0).abs() < 1e-12);
             assert!((r.watts - r.pv * ve).abs() < 1e-12 * r.watts);

@@ -172,7 +172,7 @@ pub fn fit(points: &[LossPoint]) -> Result<LossFit> {
             "all points at {:.1} °C: no temperature dependence fitted (flat factor); k holds at that temperature",
             temps[0]
         ));
-        (levels[0], TempFactor::flat(), temps[0])
+        (levels[0], TempFactor::with_minimum(temps[0], 0.0), temps[0])
     } else {
         // Step 2: weighted parabola through the levels, in u = T − T̄.
         let t_bar = temps.iter().sum::<f64>() / ng as f64;
@@ -296,10 +296,8 @@ mod tests {
         assert!((s.alpha - 1.35).abs() < 1e-6);
         assert!((s.beta - 2.65).abs() < 1e-6);
         assert!((r.reference_temperature - 95.0).abs() < 1e-6);
-        let want = TempFactor::with_minimum(95.0, 1.2e-4);
-        assert!((r.temp_factor.ct2 / want.ct2 - 1.0).abs() < 1e-6);
-        assert!((r.temp_factor.ct1 / want.ct1 - 1.0).abs() < 1e-6);
-        assert!((r.temp_factor.ct0 / want.ct0 - 1.0).abs() < 1e-6);
+        assert!((r.temp_factor.least_loss_c - 95.0).abs() < 1e-6);
+        assert!((r.temp_factor.curvature / 1.2e-4 - 1.0).abs() < 1e-6);
         assert!(r.max_error_pct < 1e-6 && r.rms_error_pct <= r.max_error_pct);
         assert_eq!((s.f_min, s.f_max, s.b_min, s.b_max), (50e3, 200e3, 0.05, 0.2));
         let m = r.apply_to(&super::super::library::find("MnZn-200k").unwrap()).unwrap();
@@ -311,7 +309,8 @@ mod tests {
         let pts = synthetic(3.0, 1.5, 2.4, 100.0, 0.0, &[100.0]);
         let r = fit(&pts).unwrap();
         assert!((r.steinmetz.k / 3.0 - 1.0).abs() < 1e-6);
-        assert_eq!(r.temp_factor, TempFactor::flat());
+        assert!(r.temp_factor.is_flat());
+        assert_eq!(r.temp_factor.least_loss_c, 100.0);
         assert_eq!(r.reference_temperature, 100.0);
         assert!(!r.notes.is_empty());
     }

@@ -8,8 +8,8 @@
 //!
 //! Loss model of every grade: Pv = k·f^α·B^β (sinusoid, W/m³, Hz, T peak)
 //! at the reference temperature T_ref, times the temperature factor
-//! 1 + c·(T − T_ref)² (ct2·T² − ct1·T + ct0 with its minimum 1 at T_ref,
-//! see [`TempFactor::with_minimum`]). Each k below was chosen so that the
+//! 1 + c·(T − T_ref)² (its minimum 1 at T_ref, the temperature of least
+//! loss; see [`TempFactor`]). Each k below was chosen so that the
 //! loss at one anchor point (named beside it) matches a typical value for
 //! such a grade, from memory.
 
@@ -30,11 +30,11 @@ pub fn materials() -> Vec<Material> {
             curie_c: 215.0,
             // Anchor: about 79 kW/m³ at 100 kHz, 100 mT, 100 °C.
             steinmetz: Steinmetz { k: 10.0, alpha: 1.3, beta: 2.6, f_min: 20e3, f_max: 300e3, b_min: 0.02, b_max: 0.3 },
-            // = 1 + 1e-4·(T − 100)²
-            temp_factor: TempFactor { ct2: 1.0e-4, ct1: 2.0e-2, ct0: 2.0 },
+            temp_factor: TempFactor::with_minimum(100.0, 1.0e-4),
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-200k-flat".into(),
@@ -49,6 +49,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-500k".into(),
@@ -63,6 +64,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 8.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-1M".into(),
@@ -77,6 +79,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 10.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiperm".into(),
@@ -91,6 +94,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 0.5,
             density: 4900.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiBsat".into(),
@@ -105,6 +109,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 4.0,
             density: 4850.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "NiZn-5M".into(),
@@ -119,6 +124,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 1.0e5,
             density: 5000.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
     ]
 }
@@ -139,7 +145,7 @@ mod tests {
     fn temperature_factor_is_one_at_its_minimum() {
         for m in materials() {
             let f = &m.temp_factor;
-            let t_min = f.ct1 / (2.0 * f.ct2);
+            let t_min = f.least_loss_c;
             assert!((f.at(t_min) - 1.0).abs() < 1e-9, "{}", m.name);
             assert!(f.at(t_min - 1.0) > 1.0 && f.at(t_min + 1.0) > 1.0, "{}", m.name);
         }

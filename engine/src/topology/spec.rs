@@ -54,6 +54,10 @@ pub const MAX_OUTPUTS: usize = 4;
 pub const ES1_DC_LIMIT: f64 = 60.0;
 /// ES1 AC peak voltage limit of IEC 62368-1 (Table 4, from memory), V.
 pub const ES1_AC_PEAK_LIMIT: f64 = 42.4;
+/// The one-line caution every front end shows at all times, whatever the
+/// design: the page in its header and on the build sheet, the CLI in its help.
+pub const STANDING_CAUTION: &str = "Magwright computes; it does not certify. Defer to IEC 62368-1 / IEC 61558, \
+     local codes and licensed practice.";
 
 /// The converter circuit around the magnetic.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -98,7 +102,7 @@ impl Topology {
 
 /// Capacitor on the rectified line: its value, or a ripple figure.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Bulk {
     /// Bulk capacitance, F.
     Capacitance { farads: f64 },
@@ -109,7 +113,7 @@ pub enum Bulk {
 
 /// The converter's input.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Input {
     /// A DC bus, V.
     Dc { min: f64, nominal: f64, max: f64 },
@@ -138,6 +142,7 @@ pub struct DcRange {
 
 /// One output.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Output {
     /// Output voltage, V.
     pub voltage: f64,
@@ -162,7 +167,7 @@ pub enum Isolation {
 
 /// How the flyback's turns ratio is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", content = "value", rename_all = "snake_case")]
+#[serde(tag = "kind", content = "value", rename_all = "snake_case", deny_unknown_fields)]
 pub enum FlybackRatio {
     /// The ratio that gives `duty_max` at Vin min in CCM.
     FromDutyMax,
@@ -174,6 +179,7 @@ pub enum FlybackRatio {
 
 /// Flyback design choices.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct FlybackOptions {
     pub ratio: FlybackRatio,
     /// Primary ripple ratio at Vin min and full load: r = ΔIp/Ic with Ic
@@ -198,6 +204,7 @@ fn default_choke_ripple() -> f64 {
 
 /// A converter specification (SI units, °C).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Spec {
     pub topology: Topology,
     pub input: Input,
@@ -463,13 +470,15 @@ impl Spec {
             Input::Dc { min, nominal, max } => {
                 positive("input.min", min, "V")?;
                 in_range("input.max", max, 0.0, 2000.0, "V")?;
-                in_range("input.nominal", nominal, min, max, "V")?;
+                // The order of the range first: a swapped pair is reported
+                // as such, not as a nominal value outside it.
                 if max < min {
                     return Err(Error::input(
                         "input.max",
-                        format!("must be at least input.min ({min} V)"),
+                        format!("Vin min ({min} V) is above Vin max ({max} V): swap them or correct one"),
                     ));
                 }
+                in_range("input.nominal", nominal, min, max, "V")?;
             }
             Input::Ac {
                 vac_min,
@@ -484,7 +493,7 @@ impl Spec {
                 if vac_max < vac_min {
                     return Err(Error::input(
                         "input.vac_max",
-                        format!("must be at least input.vac_min ({vac_min} V)"),
+                        format!("Vac min ({vac_min} V) is above Vac max ({vac_max} V): swap them or correct one"),
                     ));
                 }
                 in_range("input.vac_nominal", vac_nominal, vac_min, vac_max, "V")?;
@@ -548,8 +557,18 @@ impl Spec {
     /// Safety cautions for this spec: empty only when the input is DC and
     /// every specified voltage is within the ES1 limits of IEC 62368-1
     /// (60 V DC; 42.4 V peak AC; Table 4, from memory). Internal nodes (the
-    /// switch) can still exceed ES1: the operating point warns about those.
+    /// switch) can still exceed ES1: [`Spec::cautions_with_switch`] adds them.
     pub fn safety_cautions(&self) -> Vec<String> {
+        self.cautions_with_switch(None)
+    }
+
+    /// The safety cautions of a design whose switch node reaches
+    /// `switch_voltage` V (worst corner; `None`: not known): as
+    /// [`Spec::safety_cautions`], and a switch node above the ES1 limit of
+    /// 60 V DC (IEC 62368-1, from memory) makes the design hazardous too,
+    /// with its own caution, even when the input and outputs are within ES1.
+    pub fn cautions_with_switch(&self, switch_voltage: Option<f64>) -> Vec<String> {
+        let switch_high = switch_voltage.is_some_and(|v| v > ES1_DC_LIMIT || !v.is_finite());
         let mains = matches!(self.input, Input::Ac { .. });
         let input_high = match self.input {
             Input::Dc { max, .. } => max > ES1_DC_LIMIT || !max.is_finite(),
@@ -560,7 +579,7 @@ impl Spec {
             .iter()
             .any(|o| o.voltage > ES1_DC_LIMIT || !o.voltage.is_finite());
         let mut c = Vec::new();
-        if !(mains || input_high || out_high) {
+        if !(mains || input_high || out_high || switch_high) {
             return c;
         }
         if mains {
@@ -582,8 +601,15 @@ impl Spec {
                  the secondary side is hazardous too."
             ));
         }
+        if let Some(v) = switch_voltage.filter(|_| switch_high && !(mains || input_high)) {
+            c.push(format!(
+                "The switch node reaches {v:.0} V (plus the leakage spike), above the ES1 limit of \
+                 {ES1_DC_LIMIT} V DC of IEC 62368-1 (from memory), although the input is lower: treat the \
+                 primary winding, the switch and its heat sink as hazardous."
+            ));
+        }
         c.push(match self.isolation {
-            Isolation::Functional if mains || input_high => {
+            Isolation::Functional if mains || input_high || switch_high => {
                 "Functional isolation is chosen but the input is hazardous: functional insulation is \
                  no protection against electric shock. Outputs that can be touched need basic plus \
                  supplementary, or reinforced, insulation."
@@ -776,6 +802,22 @@ mod tests {
         let mut s = Spec::demo_flyback();
         s.flyback.ratio = FlybackRatio::ReflectedVoltage(1000.0);
         assert_eq!(s.validate().unwrap_err().field(), Some("flyback.ratio"));
+    }
+
+    #[test]
+    fn switch_node_above_es1_raises_the_cautions() {
+        // ES1 = 60 V DC (IEC 62368-1 Table 4, from memory): a 48 V input
+        // whose switch node reaches 120 V is hazardous on the primary side.
+        let s = Spec::demo_forward();
+        assert!(s.safety_cautions().is_empty());
+        let c = s.cautions_with_switch(Some(120.0));
+        assert!(c.iter().any(|t| t.contains("switch node reaches 120 V")), "{c:?}");
+        assert!(c.iter().any(|t| t.contains("IEC 61558")), "{c:?}");
+        assert!(s.cautions_with_switch(Some(59.0)).is_empty());
+        assert!(s.cautions_with_switch(Some(f64::NAN)).iter().any(|t| t.contains("IEC 62368-1")));
+        // Mains: no second switch-node caution (the mains one names it).
+        let f = Spec::demo_flyback();
+        assert_eq!(f.cautions_with_switch(Some(600.0)).len(), f.safety_cautions().len());
     }
 
     #[test]

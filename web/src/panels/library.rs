@@ -1060,9 +1060,15 @@ fn MaterialData(form: Form) -> impl IntoView {
                     {figure_n("mat-curie", "Curie temperature", m.curie_c, 1.0, "°C", 3)}
                     {steinmetz_rows("mat", &m.steinmetz)}
                     <tr>
-                        <th scope="row" title="k holds here; the loss rises as 1 + c·(T − Tref)² either side">"k holds at"</th>
+                        <th scope="row" title="The temperature of least loss Tm: k holds here; Pv(T) = Pv(Tm)·(1 + c·(T − Tm)²)">"Least loss at (k holds)"</th>
                         <td data-testid="mat-tref" data-si=t_ref.map(si_attr).unwrap_or_default()>
-                            {match t_ref { Some(t) => format!("{} °C (loss minimum)", sig(t, 3)), None => "any temperature (flat)".into() }}
+                            {match t_ref { Some(t) => format!("{} °C", sig(t, 3)), None => "any temperature (flat)".into() }}
+                        </td>
+                    </tr>
+                    <tr>
+                        <th scope="row" title="The loss rises as 1 + c·(T − Tm)² either side of Tm (1e-4 /K²: +25 % at 50 K away)">"Curvature c"</th>
+                        <td data-testid="mat-curvature" data-si=si_attr(m.temp_factor.curvature)>
+                            {if m.temp_factor.is_flat() { "0 (flat)".to_string() } else { format!("{} /K²", coef(m.temp_factor.curvature)) }}
                         </td>
                     </tr>
                     {figure_n("mat-resistivity", "Resistivity", m.resistivity, 1.0, "Ω·m", 3)}
@@ -1104,8 +1110,8 @@ const OWN: [MatDef; 15] = [
     MatDef { key: "cm-fmax", engine: &["material.steinmetz.f_max"], label: "Fitted to f", unit: "Hz", help: "Highest frequency k, α, β hold at" },
     MatDef { key: "cm-bmin", engine: &["material.steinmetz.b_min"], label: "Fitted from B peak", unit: "T", help: "Lowest peak flux density k, α, β hold at" },
     MatDef { key: "cm-bmax", engine: &["material.steinmetz.b_max"], label: "Fitted to B peak", unit: "T", help: "Highest peak flux density k, α, β hold at" },
-    MatDef { key: "cm-tref", engine: &["material.temp_factor.ct1"], label: "Loss minimum at", unit: "°C", help: "The temperature where the loss is least; k holds there" },
-    MatDef { key: "cm-curve", engine: &["material.temp_factor.ct2", "material.temp_factor.ct0"], label: "Curvature c", unit: "/°C²", help: "The loss rises as 1 + c·(T − Tmin)² either side of the minimum (1e-4: +25 % at 50 °C away)" },
+    MatDef { key: "cm-tref", engine: &["material.temp_factor.least_loss_c"], label: "Loss minimum at", unit: "°C", help: "The temperature where the loss is least; k holds there" },
+    MatDef { key: "cm-curve", engine: &["material.temp_factor.curvature"], label: "Curvature c", unit: "/K²", help: "The loss rises as 1 + c·(T − Tm)² either side of the minimum (1e-4: +25 % at 50 °C away)" },
     MatDef { key: "cm-rho", engine: &["material.resistivity"], label: "Resistivity", unit: "Ω·m", help: "Bulk DC resistivity" },
     MatDef { key: "cm-density", engine: &["material.density"], label: "Density", unit: "kg/m³", help: "For the core mass" },
 ];
@@ -1157,7 +1163,7 @@ fn material_texts(m: &Material) -> ([String; 15], bool) {
         s.b_min,
         s.b_max,
         t_ref.unwrap_or(100.0),
-        if t_ref.is_some() { m.temp_factor.ct2 } else { 1e-4 },
+        if t_ref.is_some() { m.temp_factor.curvature } else { 1e-4 },
         m.resistivity,
         m.density,
     ];
@@ -1205,6 +1211,7 @@ fn check_material(name: &str, texts: &[String; 15], flat: bool) -> MatCheck {
         resistivity: v[13],
         density: v[14],
         provenance: "your own data".into(),
+        bsat_rise_intended: false,
     };
     match m.validate() {
         Ok(()) => MatCheck { errors, general: None, ok: Some(m) },

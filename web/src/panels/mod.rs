@@ -6,6 +6,7 @@
 //!
 //! * [`library`]: choose the core and material, browse the libraries,
 //!   define a custom core or material.
+//! * [`material_curves`]: the material's Pv–B chart (log axes).
 //! * [`results`]: the deciding figures with pass/fail and margins, cautions.
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
 //!   frequency sweep.
@@ -14,6 +15,7 @@
 //! * [`sheet`]: the printable build sheet.
 
 pub mod library;
+pub mod material_curves;
 pub mod pictures;
 pub mod results;
 pub mod sheet;

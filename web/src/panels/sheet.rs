@@ -223,7 +223,8 @@ fn body(r: &Report) -> impl IntoView {
         <ul class="cautions" data-testid="sheet-cautions">
             {r.cautions.iter().map(|w| view! { <li class="caution">{w.clone()}</li> }).collect_view()}
             {r.warnings.iter().map(|w| view! { <li>{w.clone()}</li> }).collect_view()}
-            <li>"Magwright computes; it does not certify. Core and material data are typical values: check them against your supplier's data, and measure the first part."</li>
+            <li data-testid="sheet-standing-caution">{magwright_engine::topology::spec::STANDING_CAUTION}</li>
+            <li>"Core and material data are typical values: check them against your supplier's data, and measure the first part."</li>
         </ul>
         <div class="sign" data-testid="sheet-sign">
             <div>"Designed by / date"</div>

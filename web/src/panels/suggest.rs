@@ -33,7 +33,6 @@ use magwright_engine::design::{CoreChoice, Design, MaterialChoice};
 use magwright_engine::notation;
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
-use plotters_canvas::CanvasBackend;
 use web_sys::HtmlCanvasElement;
 
 /// Most candidates evaluated in one animation frame.
@@ -331,6 +330,15 @@ pub fn Suggest(form: Form) -> impl IntoView {
     let has_list = move || count_passed() > 0;
     let has_ranking = move || run.ranking.with(|r| r.is_some());
 
+    // What the empty list means depends on how far the search got: before
+    // the first run nothing has been tried.
+    let missing_note = move || match run.phase.get() {
+        Phase::Idle => "Not run yet.",
+        Phase::Running => "None passes yet; searching.",
+        Phase::Cancelled => "No candidate evaluated so far passes every check.",
+        Phase::Finished | Phase::Failed(_) => "No candidate passes every check.",
+    };
+
     let failures = move || {
         run.ranking.with(|r| {
             r.as_ref().map(|r| {
@@ -412,7 +420,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
                         " smallest volume"
                     </label>
                 </fieldset>
-                <p class="missing-note" class:hidden=has_list>"No candidate passes every check."</p>
+                <p class="missing-note" data-testid="suggest-missing" class:hidden=has_list>{missing_note}</p>
                 <table class="ranked" data-testid="ranked" class:hidden=move || !has_list()>
                     <caption class="sr">"Passing candidates"</caption>
                     <thead>
@@ -515,9 +523,7 @@ enum Key {
 /// cores span two decades), loss linear from zero. The legend is a row
 /// above the plot, so it never hides a point.
 fn pareto_chart(canvas: &HtmlCanvasElement, r: &Ranking, current: &(CoreChoice, MaterialChoice)) -> Result<(), String> {
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
-    let root = backend.into_drawing_area();
-    root.fill(&WHITE).map_err(err)?;
+    let root = crate::hidpi::area(canvas)?;
     let point = |c: &Ranked| (c.volume * 1e6, c.total_loss);
     let ok = |p: &(f64, f64)| p.0.is_finite() && p.0 > 0.0 && p.1.is_finite();
     let pts: Vec<(f64, f64)> = r.by_volume.iter().map(point).filter(ok).collect();

@@ -31,7 +31,6 @@ use magwright_engine::winding::conductor::Conductor;
 use magwright_engine::winding::stackup::{Direction, Item, Section, Side};
 use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
-use plotters_canvas::CanvasBackend;
 
 const CSS: &str = r#"
 .windings .swatch { display:inline-block; width:.8em; height:.8em; border-radius:2px; margin-right:.35em; vertical-align:-1px; border:1px solid rgba(0,0,0,.35); }
@@ -852,9 +851,7 @@ fn err<E: std::fmt::Display>(e: E) -> String {
 /// y the build from the bobbin outward, both in mm at the same scale;
 /// tapes, flange margins and every turn.
 fn draw_window(canvas: &web_sys::HtmlCanvasElement, r: &Report) -> Result<(), String> {
-    let backend = CanvasBackend::with_canvas_object(canvas.clone()).ok_or("no 2-D canvas context")?;
-    let root = backend.into_drawing_area();
-    root.fill(&WHITE).map_err(err)?;
+    let root = crate::hidpi::area(canvas)?;
     let (w, h) = root.dim_in_pixel();
     let legend_w = 130u32;
     let (left, bottom, margin) = (40u32, 36u32, 8u32);

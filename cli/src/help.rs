@@ -1,0 +1,40 @@
+//! The CLI's help text, in one place (argument parsing lives in `main`).
+
+/// `magwright help` / `-h` / `--help`: every command, argument and option.
+pub fn help() -> String {
+    format!(
+        "\
+magwright: designs ferrite transformers for switch-mode converters from a design file (JSON).
+
+usage: magwright COMMAND [ARGUMENTS]
+
+commands:
+  evaluate FILE|-                   evaluate a design file; prints the report (JSON)
+  sweep FILE|- [FROM TO POINTS] [--csv]
+                                    loss against switching frequency, FROM to TO Hz in POINTS
+                                    log-spaced steps (default 20k 1M 200); values take SI
+                                    prefixes (200k, 1M); --csv prints CSV instead of JSON
+  flux-sweep FILE|- [POINTS]        loss against peak flux density at the design's frequency
+                                    (default 60 points)
+  rank FILE|-                       the optimiser: every library core x material for the
+                                    design's spec, ranked, with the Pareto front (JSON)
+  stackup FILE|-                    the design's winding stack-up in its JSON schema
+  demo [forward|flyback|push-pull]  print a demo design file (default forward)
+  cores                             the core library (effective parameters, provenance)
+  materials                         the material library (loss model, provenance)
+  help, -h, --help                  this text
+
+FILE is a design file (docs/design-file.md); - reads it from stdin. Older design-file
+versions are converted on reading, with a note on stderr.
+Output is JSON on stdout (CSV with sweep --csv). Bad input: a message on stderr naming
+the field, and exit code 2.
+
+Temperatures: the core temperature is the mean surface temperature of McLyman's
+surface-dissipation model (Transformer and Inductor Design Handbook): total loss over
+the exposed surface. The winding's hottest point runs higher; leave margin.
+
+{}
+",
+        magwright_engine::topology::spec::STANDING_CAUTION
+    )
+}
