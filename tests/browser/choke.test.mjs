@@ -39,6 +39,20 @@ test('the forward demo shows its output choke as the CLI designs it', async () =
   assert.equal(await page.getAttribute('[data-testid="choke"]', 'data-pass'), String(c.pass));
   assert.equal(await page.getAttribute('[data-testid="check-choke"]', 'data-pass'), String(c.pass));
   await page.locator('[data-testid="choke"]').screenshot({ path: join(OUT, 'choke-forward.png') });
+
+  // The user picks the choke's core: the design file records it and the
+  // page shows the CLI's choke on that core.
+  await page.focus('[id="f-choices.choke_core"]');
+  await page.selectOption('[id="f-choices.choke_core"]', 'ETD 39');
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).choices.choke_core?.designation === 'ETD 39');
+  const picked = (await engineFor(page)).report.choke;
+  await page.waitForFunction(() => document.querySelector('[data-testid="choke-core"]')?.textContent.trim() === 'ETD 39');
+  for (const [id, v] of Object.entries({ 'choke-turns': picked.turns.primary, 'choke-total-loss': picked.losses.total, 'choke-gap': picked.gap.gap })) {
+    const got = await shown(page, id);
+    assert.ok(close(got, v), `${id}: page ${got} vs CLI ${v}`);
+  }
+  await page.selectOption('[id="f-choices.choke_core"]', 'auto');
+  await page.waitForFunction(() => !('choke_core' in JSON.parse(localStorage.getItem('magwright.design')).choices));
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

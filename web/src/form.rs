@@ -656,6 +656,7 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         (Topology::Inductor, "Inductor with DC bias (buck, boost)"),
     ];
     let is_inductor = move || form.topology.get() == Topology::Inductor;
+    let has_choke = move || !matches!(form.topology.get(), Topology::Flyback | Topology::Inductor);
     let is_ac = move || form.input.get() == InputKind::Ac;
     let is_flyback = move || form.topology.get() == Topology::Flyback;
     let needs_value = move || form.ratio.get() != RatioKind::FromDuty;
@@ -681,6 +682,9 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
                 error=field_error(outcome, "inductor.inductance")
                 help="Target inductance, e.g. 22u; empty: from the choke ripple ratio over the input range" />
         </div>
+        <div class="fields" class:hidden=move || !has_choke()>
+            <ChokeCore form=form />
+        </div>
         <div class="fields" class:hidden=move || !is_flyback()>
             <Pick key="flyback-ratio" label="Flyback ratio from" value=form.ratio
                 options=vec![(RatioKind::FromDuty, "Duty max at Vin min"), (RatioKind::Reflected, "Reflected voltage"), (RatioKind::Turns, "Turns ratio Np/Ns")] />
@@ -692,6 +696,50 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
                     </div>
                 }
             }).collect_view()}
+        </div>
+    }
+}
+
+/// The output choke's core: automatic (least loss among a few library
+/// cores), a library core, or the user's own core as loaded from a file.
+#[component]
+fn ChokeCore(form: Form) -> impl IntoView {
+    let names: Vec<String> = magwright_engine::core::library::all().iter().map(|c| c.designation.clone()).collect();
+    let own = move || form.choke_core.with(|c| matches!(c, Some(CoreChoice::Shape { .. } | CoreChoice::Effective { .. })));
+    let selected = move || {
+        form.choke_core.with(|c| match c {
+            None => "auto".to_string(),
+            Some(CoreChoice::Library { designation }) => designation.clone(),
+            Some(_) => "own".to_string(),
+        })
+    };
+    let opts = names.clone();
+    view! {
+        <div class="field">
+            <label for="f-choices.choke_core" title="The output choke's core; automatic: the least-loss passing one of a few library cores near the size it needs">"Choke core"</label>
+            <select
+                id="f-choices.choke_core"
+                on:change:target=move |ev| {
+                    let v = ev.target().value();
+                    match v.as_str() {
+                        "auto" => form.choke_core.set(None),
+                        "own" => {}
+                        d if opts.iter().any(|n| n == d) => form.choke_core.set(Some(CoreChoice::Library { designation: d.to_string() })),
+                        _ => {}
+                    }
+                }
+            >
+                <option value="auto" prop:selected=move || selected() == "auto">"Automatic (least loss)"</option>
+                {move || own().then(|| view! { <option value="own" prop:selected=true>"Own core (from the file)"</option> })}
+                {names
+                    .into_iter()
+                    .map(|n| {
+                        let (value, key) = (n.clone(), n.clone());
+                        view! { <option value=value prop:selected=move || selected() == key>{n}</option> }
+                    })
+                    .collect_view()}
+            </select>
+            <div class="msg"></div>
         </div>
     }
 }
