@@ -11,7 +11,10 @@
 //! magwright materials                        the material library (provenance)
 //! ```
 //! Output is JSON on stdout (CSV for `sweep --csv`). Bad input: a message on
-//! stderr and exit code 2.
+//! stderr and exit code 2. Files are read up to [`MAX_INPUT`] bytes; a
+//! UTF-8 byte-order mark is skipped; an argument a command does not take
+//! (an extra file, an unknown `--flag`, a count that is not whole) is
+//! refused, never ignored.
 
 mod help;
 
@@ -36,23 +39,66 @@ fn main() -> ExitCode {
 
 const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials  |  help";
 
+/// Largest input read, bytes (the engine's limit, 16 MB): more than any
+/// design file (a few kB), little enough that `magwright evaluate /dev/zero`
+/// stops at once.
+const MAX_INPUT: u64 = json::MAX_LEN as u64;
+
+/// What each command takes after its name: (least, most) plain arguments
+/// and the flags it knows. Anything else is refused.
+fn arity(cmd: &str) -> Option<(usize, usize, &'static [&'static str])> {
+    Some(match cmd {
+        "evaluate" | "rank" | "stackup" => (1, 1, &[]),
+        "sweep" => (1, 4, &["--csv"]),
+        "flux-sweep" => (1, 2, &[]),
+        "demo" => (0, 1, &[]),
+        "cores" | "materials" | "-h" | "--help" | "help" => (0, 0, &[]),
+        _ => return None,
+    })
+}
+
+/// Refuses arguments the command does not take.
+fn check_args(cmd: &str, rest: &[String]) -> Result<(), String> {
+    let Some((lo, hi, flags)) = arity(cmd) else { return Ok(()) };
+    for a in rest {
+        if a.starts_with("--") && !flags.contains(&a.as_str()) {
+            let known = if flags.is_empty() { "none".to_string() } else { flags.join(", ") };
+            return Err(format!("{cmd} does not take \"{a}\" (its flags: {known}); {USAGE}"));
+        }
+    }
+    let plain = rest.iter().filter(|a| !flags.contains(&a.as_str())).count();
+    if plain < lo || plain > hi || (cmd == "sweep" && plain != 1 && plain != 4) {
+        let want = match (cmd, lo, hi) {
+            ("sweep", ..) => "a file and, optionally, FROM TO POINTS (all three)".to_string(),
+            (_, 0, 0) => "no arguments".to_string(),
+            (_, l, h) if l == h => format!("{l} argument{}", if l == 1 { "" } else { "s" }),
+            (_, l, h) => format!("{l} to {h} arguments"),
+        };
+        return Err(format!("{cmd} takes {want} (got {plain}); {USAGE}"));
+    }
+    Ok(())
+}
+
+/// A count argument (points): whole and at least 2.
+fn count_arg(text: &str, what: &str) -> Result<usize, String> {
+    match notation::parse_count(text) {
+        Ok(n) if n >= 2 => Ok(n as usize),
+        Ok(n) => Err(format!("{what}: at least 2 points (got {n})")),
+        Err(e) => Err(format!("{what}: {e}")),
+    }
+}
+
 fn run(args: &[String]) -> Result<String, String> {
     let cmd = args.first().map(String::as_str).ok_or(USAGE)?;
+    check_args(cmd, &args[1..])?;
     let file = || -> Result<Design, String> {
         let path = args.get(1).ok_or(format!("{cmd} needs a design file (or - for stdin)"))?;
         let text = read_input(path)?;
-        let (d, notes) = Design::from_json_noted(&text).map_err(|e| format!("{path}: {e}"))?;
+        let (d, notes) = Design::load_noted(&text).map_err(|e| format!("{path}: {e}"))?;
         for n in notes {
             eprintln!("magwright: note: {path}: {n}");
         }
-        d.check_envelope().map_err(|e| format!("{path}: {e}"))?;
         Ok(d)
-    };
-    let num = |i: usize, default: f64, unit: &str| -> Result<f64, String> {
-        match args.get(i) {
-            None => Ok(default),
-            Some(s) => notation::parse(s, unit).map_err(|e| format!("argument {i}: {e}")),
-        }
     };
     match cmd {
         "evaluate" => Ok(json::to_string_pretty(&design::evaluate(&file()?).map_err(|e| e.to_string())?)),
@@ -61,12 +107,13 @@ fn run(args: &[String]) -> Result<String, String> {
             let csv = args.iter().any(|a| a == "--csv");
             let rest: Vec<&String> = args.iter().skip(2).filter(|a| *a != "--csv").collect();
             let get = |i: usize, def: f64| rest.get(i).map_or(Ok(def), |s| notation::parse(s, "Hz").map_err(|e| e.to_string()));
-            let s = sweep::frequency(&d, get(0, 20e3)?, get(1, 1e6)?, get(2, 200.0)? as usize).map_err(|e| e.to_string())?;
+            let points = rest.get(2).map_or(Ok(200), |s| count_arg(s, "POINTS"))?;
+            let s = sweep::frequency(&d, get(0, 20e3)?, get(1, 1e6)?, points).map_err(|e| e.to_string())?;
             Ok(if csv { sweep::to_csv(&s, "frequency_Hz") } else { json::to_string_pretty(&s) })
         }
         "flux-sweep" => {
             let d = file()?;
-            let n = num(2, 60.0, "")? as usize;
+            let n = args.get(2).map_or(Ok(60), |s| count_arg(s, "POINTS"))?;
             Ok(json::to_string_pretty(&sweep::flux(&d, n).map_err(|e| e.to_string())?))
         }
         "rank" => {
@@ -88,12 +135,19 @@ fn run(args: &[String]) -> Result<String, String> {
     }
 }
 
+/// The text of a file (or stdin for "-"), at most [`MAX_INPUT`] bytes.
 fn read_input(path: &str) -> Result<String, String> {
-    if path == "-" {
-        let mut s = String::new();
-        std::io::stdin().read_to_string(&mut s).map_err(|e| format!("stdin: {e}"))?;
-        Ok(s)
+    let name = if path == "-" { "stdin" } else { path };
+    let mut bytes = Vec::new();
+    let read = if path == "-" {
+        std::io::stdin().lock().take(MAX_INPUT + 1).read_to_end(&mut bytes)
     } else {
-        std::fs::read_to_string(path).map_err(|e| format!("{path}: {e}"))
+        std::fs::File::open(path).and_then(|f| f.take(MAX_INPUT + 1).read_to_end(&mut bytes))
+    };
+    read.map_err(|e| format!("{name}: {e}"))?;
+    if bytes.len() as u64 > MAX_INPUT {
+        return Err(format!("{name}: more than {} MB; a design file is a few kB", MAX_INPUT >> 20));
     }
+    // The byte-order mark is skipped by the engine's reader (as on the page).
+    String::from_utf8(bytes).map_err(|e| format!("{name}: not UTF-8 text (byte {})", e.utf8_error().valid_up_to()))
 }

@@ -27,6 +27,8 @@ pub mod design;
 pub mod error;
 pub mod gap;
 pub mod json;
+pub mod json_errors;
+pub mod json_spans;
 pub mod loss;
 pub mod material;
 pub mod notation;

@@ -23,6 +23,12 @@ const PREFIXES: [(&str, i32); 11] = [
 pub enum ParseError {
     Empty,
     NotANumber(String),
+    /// A comma: "1,500" could be 1.5 or 1500, so it is read as neither.
+    Comma(String),
+    /// A count (turns, wraps, strands) that is not a whole number.
+    NotWhole(String),
+    /// A count below zero.
+    Negative(String),
 }
 
 impl std::fmt::Display for ParseError {
@@ -32,17 +38,43 @@ impl std::fmt::Display for ParseError {
             ParseError::NotANumber(s) => {
                 write!(f, "\"{s}\" is not a number (examples: 200k, 4.7u, 1.5m, 2e5)")
             }
+            ParseError::Comma(s) => write!(
+                f,
+                "\"{s}\" has a comma, which could be a decimal or a thousands separator: write a point for decimals (1.5) and no separator (1500)"
+            ),
+            ParseError::NotWhole(s) => write!(f, "\"{s}\" is not a whole number; give a count such as 2"),
+            ParseError::Negative(s) => write!(f, "\"{s}\" is below zero; a count is 0 or more"),
         }
     }
 }
 
 /// Parses a number with an optional SI prefix and an optional unit symbol
-/// after it: "200k", "200 kHz", "4.7u", "1.5e-3", "0,5" (comma decimal).
-/// `unit` is the unit symbol that may follow (e.g. "Hz"); it is stripped.
+/// after it: "200k", "200 kHz", "4.7u", "1.5e-3". `unit` is the unit symbol
+/// that may follow (e.g. "Hz"); it is stripped. A dimensionless value
+/// (`unit` "") may be given in percent: "45%" is 0.45 (ISO 80000-1 §7.3:
+/// % stands for the number 0.01). A comma is refused: "1,500" would be 1.5
+/// in some countries and 1500 in others, and a wrong guess changes the
+/// design without a word.
 pub fn parse(text: &str, unit: &str) -> Result<f64, ParseError> {
-    let mut s = text.trim().replace(',', ".");
+    let mut s = text.trim().to_string();
     if s.is_empty() {
         return Err(ParseError::Empty);
+    }
+    if s.contains(',') {
+        return Err(ParseError::Comma(s));
+    }
+    if unit.is_empty() {
+        if let Some(p) = s.strip_suffix('%') {
+            let p = p.trim_end();
+            if p.ends_with('%') {
+                return Err(ParseError::NotANumber(s.clone()));
+            }
+            let v = parse(p, "")?;
+            // A plain number reads as the decimal v/100, correctly rounded
+            // ("45%" is exactly the 0.45 typed as "0.45").
+            let exact = p.parse::<f64>().ok().and_then(|_| format!("{p}e-2").parse::<f64>().ok());
+            return Ok(exact.unwrap_or(v / 100.0));
+        }
     }
     if !unit.is_empty() {
         if let Some(stripped) = s.strip_suffix(unit) {
@@ -75,6 +107,21 @@ pub fn parse(text: &str, unit: &str) -> Result<f64, ParseError> {
         return Err(bad());
     }
     Ok(exact)
+}
+
+/// Parses a count (turns, wraps, strands, wires in hand): a whole number,
+/// 0 or more. "2.5" and "-1" are refused with a message, never rounded
+/// or clamped to 0.
+pub fn parse_count(text: &str) -> Result<u32, ParseError> {
+    let v = parse(text, "")?;
+    let shown = || text.trim().to_string();
+    if v < 0.0 {
+        return Err(ParseError::Negative(shown()));
+    }
+    if v.fract() != 0.0 || v > f64::from(u32::MAX) {
+        return Err(ParseError::NotWhole(shown()));
+    }
+    Ok(v as u32)
 }
 
 /// Formats `v` with an SI prefix and `digits` significant figures, e.g.
@@ -117,7 +164,13 @@ mod tests {
         assert_eq!(parse("2e5", "Hz"), Ok(2e5));
         assert_eq!(parse(" 48 ", "V"), Ok(48.0));
         assert_eq!(parse("48V", "V"), Ok(48.0));
-        assert_eq!(parse("0,45", ""), Ok(0.45));
+        // ISO 80000-1 §7.3: % is the number 0.01.
+        assert_eq!(parse("45%", ""), Ok(0.45));
+        assert_eq!(parse("45 %", ""), Ok(0.45));
+        assert_eq!(parse("0.5%", ""), Ok(0.005));
+        assert!(parse("45%", "V").is_err());
+        assert!(parse("%", "").is_err());
+        assert!(parse("5%%", "").is_err());
         assert_eq!(parse("1M", "Hz"), Ok(1e6));
         assert_eq!(parse("-3", "V"), Ok(-3.0));
         // Prefixed values read as the correctly rounded decimal.
@@ -134,6 +187,26 @@ mod tests {
         assert!(parse("inf", "V").is_err());
         assert!(parse("NaN", "V").is_err());
         assert!(parse("k", "V").is_err());
+    }
+
+    /// A comma is refused, never read as a decimal point (issue 14).
+    #[test]
+    fn comma_is_refused() {
+        for t in ["1,500", "0,45", "1,5k", ","] {
+            assert!(matches!(parse(t, "A"), Err(ParseError::Comma(_))), "{t}");
+        }
+        assert!(parse("1,500", "A").unwrap_err().to_string().contains("comma"));
+    }
+
+    #[test]
+    fn counts_are_whole_and_not_negative() {
+        assert_eq!(parse_count("3"), Ok(3));
+        assert_eq!(parse_count(" 0 "), Ok(0));
+        assert_eq!(parse_count("1k"), Ok(1000));
+        assert!(matches!(parse_count("-1"), Err(ParseError::Negative(_))));
+        assert!(matches!(parse_count("2.5"), Err(ParseError::NotWhole(_))));
+        assert!(matches!(parse_count("1e12"), Err(ParseError::NotWhole(_))));
+        assert!(parse_count("x").is_err());
     }
 
     #[test]

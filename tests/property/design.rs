@@ -251,6 +251,7 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
                 insulation,
                 edge_time,
                 switch_voltage_rating,
+                ..Default::default()
             },
         )
 }

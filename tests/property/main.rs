@@ -4,6 +4,12 @@
 //!   thrown at `design::evaluate`, `sweep::frequency` and `sweep::flux`.
 //! * [`stackup`]: random stack-up documents at `winding::stackup::from_json`,
 //!   then `winding::fit::fit` and `winding::loss::copper_losses`.
+//! * [`invariants`]: physical invariants (ampere-turn and volt-second
+//!   balance, energy, saturation, loss against turns, Fr against frequency,
+//!   mode against waveform) over at least 1,000 accepted random designs
+//!   per property.
+//! * [`optimise`]: the optimiser against a brute force over a small library,
+//!   and its Pareto front against the definition.
 //! * [`fuzz`]: a deterministic mutation loop over the files in
 //!   `tests/fuzz/corpus/` (design files and stack-ups), at `Design::from_json`
 //!   + `evaluate` and `stackup::from_json`/`import`.
@@ -21,6 +27,8 @@
 mod design;
 mod finite;
 mod fuzz;
+mod invariants;
+mod optimise;
 mod stackup;
 
 use magwright_engine::error::Error;

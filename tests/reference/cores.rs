@@ -112,41 +112,101 @@ fn e_core_c1_by_hand() {
     assert!(rel(core.surface_area, s_mm2 * 1e-6) < 1e-12, "surface");
 }
 
-/// Published effective parameters, from memory, one size per family (two for
-/// planar). Tolerances: 10 % where the model follows IEC 60205's pieces
-/// closely (ring, E, EFD, ETD, ER, pot, planar, tighter where the recalled
-/// value is exact); 15 % for PQ and EP and 20 % for RM, whose real plans and
-/// yokes are simplified to equivalent sections (see core::shape docs).
+/// Every library core against the published effective parameters of its
+/// designation (`core::library::PUBLISHED`: the makers' IEC 60205 values of
+/// the IEC 62317 size, **from memory**, no maker named). Prints the table
+/// (run with `--nocapture`), then:
+/// * each core in `CHECKED` has Ae, le and Ve within 3 % (the brief's bound);
+/// * every other core is one whose computed values miss by more than 3 %,
+///   and it says "unconfirmed" at the start of its provenance (shown by the
+///   page's library browser). They are left out of the 3 % assertion for the
+///   stated reason: their recalled dimensions are tolerance limits (the
+///   maximum of A, C and F) rather than the tolerance means IEC 60205 uses;
+///   where a published drawing gave the tolerances (ETD 29, E 13/7/4) the
+///   means bring the core within 0.3 %. The fix is the means of the IEC 62317
+///   tables, not a nudge of the dimensions towards the number.
 #[test]
-fn effective_parameters_near_published_values() {
-    // (designation, Ae mm², le mm, tolerance)
-    let cases = [
-        ("R 25/15/10", 48.9, 60.2, 0.01),
-        ("E 42/21/15", 178.0, 97.0, 0.10),
-        ("E 55/28/21", 354.0, 124.0, 0.10),
-        ("EFD 20/10/7", 31.0, 47.0, 0.10),
-        ("ETD 34", 97.1, 78.6, 0.10),
-        ("ETD 59", 368.0, 139.0, 0.10),
-        ("ER 28/14/11", 81.4, 64.0, 0.10),
-        ("PQ 26/25", 120.0, 54.3, 0.15),
-        ("RM 10", 96.6, 44.6, 0.20),
-        ("P 26/16", 93.9, 37.5, 0.10),
-        ("EP 17", 33.7, 28.5, 0.15),
-        ("E 32/6/20", 130.0, 41.4, 0.05),
-        ("E 32/6/20 + PLT 32/20/3.2", 130.0, 35.1, 0.05),
+fn every_core_against_published_effective_parameters() {
+    const CHECKED: [&str; 22] = [
+        "R 10/6/4",
+        "R 12.5/7.5/5",
+        "R 16/9.6/6.3",
+        "R 20/10/7",
+        "R 25/15/10",
+        "R 29.5/19/14.9",
+        "R 36/23/15",
+        "R 40/24/16",
+        "E 13/7/4",
+        "E 55/28/21",
+        "ETD 29",
+        "ETD 54",
+        "E 18/4/10",
+        "E 18/4/10 + PLT 18/10/2",
+        "E 22/6/16",
+        "E 22/6/16 + PLT 22/16/2.5",
+        "E 32/6/20",
+        "E 32/6/20 + PLT 32/20/3.2",
+        "E 38/8/25",
+        "E 38/8/25 + PLT 38/25/3.8",
+        "E 43/10/28",
+        "E 43/10/28 + PLT 43/28/4.1",
     ];
-    for (name, ae, le, tol) in cases {
-        let c = library::find(name).unwrap();
-        let (ae_got, le_got) = (c.ae * 1e6, c.le * 1e3);
-        assert!(
-            rel(ae_got, ae) <= tol,
-            "{name}: Ae {ae_got:.1} mm² vs {ae} (tol {tol})"
+    println!(
+        "{:28} {:>8} {:>8} {:>6} | {:>7} {:>7} {:>6} | {:>8} {:>8} {:>6}",
+        "core", "Ae mm²", "publ.", "diff", "le mm", "publ.", "diff", "Ve mm³", "publ.", "diff"
+    );
+    let mut unconfirmed = Vec::new();
+    for c in library::all() {
+        let p = library::published(&c.designation)
+            .unwrap_or_else(|| panic!("{}: no published values in the table", c.designation));
+        let d = [rel_signed(c.ae, p.ae), rel_signed(c.le, p.le), rel_signed(c.ve, p.ve)];
+        println!(
+            "{:28} {:8.2} {:8.2} {:+5.1}% | {:7.2} {:7.2} {:+5.1}% | {:8.0} {:8.0} {:+5.1}%",
+            c.designation,
+            c.ae * 1e6,
+            p.ae * 1e6,
+            d[0] * 100.0,
+            c.le * 1e3,
+            p.le * 1e3,
+            d[1] * 100.0,
+            c.ve * 1e9,
+            p.ve * 1e9,
+            d[2] * 100.0
         );
-        assert!(
-            rel(le_got, le) <= tol,
-            "{name}: le {le_got:.1} mm vs {le} (tol {tol})"
-        );
+        let within = d.iter().all(|x| x.abs() <= 0.03);
+        let a = library::agreement(&c.designation).unwrap();
+        assert_eq!(a.confirmed, within, "{}", c.designation);
+        if CHECKED.contains(&c.designation.as_str()) {
+            assert!(within, "{}: {d:?} beyond 3 %", c.designation);
+            assert!(c.provenance.starts_with("checked"), "{}", c.provenance);
+        } else {
+            assert!(!within, "{} now agrees: add it to CHECKED", c.designation);
+            assert!(c.provenance.starts_with("unconfirmed"), "{}", c.provenance);
+            unconfirmed.push(c.designation.clone());
+        }
     }
+    println!("unconfirmed ({}): {}", unconfirmed.len(), unconfirmed.join(", "));
+}
+
+fn rel_signed(got: f64, want: f64) -> f64 {
+    got / want - 1.0
+}
+
+/// Where a published drawing gave the tolerance limits, IEC 60205 on the
+/// tolerance means reproduces the published values closely: ETD 29 (round
+/// leg, the per-family corner) and E 13/7/4 (rectangular legs), both within
+/// 1 %, and C1 = Σ l/A of ETD 29 within 1 % of the published 0.947 mm⁻¹
+/// (from memory, seen again in a published table while writing this).
+#[test]
+fn tolerance_means_reproduce_published_values() {
+    for (name, ae, le, ve) in [("ETD 29", 76.0, 72.0, 5470.0), ("E 13/7/4", 12.4, 29.7, 369.0)] {
+        let c = library::find(name).unwrap();
+        assert!(rel(c.ae * 1e6, ae) < 0.01, "{name} Ae {}", c.ae * 1e6);
+        assert!(rel(c.le * 1e3, le) < 0.01, "{name} le {}", c.le * 1e3);
+        assert!(rel(c.ve * 1e9, ve) < 0.01, "{name} Ve {}", c.ve * 1e9);
+    }
+    let k = library::find("ETD 29").unwrap().shape.unwrap().constants().unwrap();
+    assert!(rel(k.c1 * 1e-3, 0.947) < 0.01, "C1 {}", k.c1 * 1e-3);
 }
 
 /// IEC 60205 identities on every library core: Ve = le·Ae; Ae ≥ Amin for a

@@ -28,7 +28,7 @@
 
 use magwright_engine::design::file::{Design, TurnsRule};
 use magwright_engine::design::{evaluate, sweep, Report};
-use magwright_engine::topology::{OperatingPoint, Spec, Topology};
+use magwright_engine::topology::{Mode, OperatingPoint, Spec, Topology};
 
 /// μ0, H/m (CODATA 2018: 4π·10⁻⁷ to 10 digits).
 const MU0: f64 = 4.0e-7 * std::f64::consts::PI;
@@ -302,40 +302,43 @@ fn flyback_design_by_hand() {
     let vor = 100.0; // the demo's reflected voltage
     let n = vor / v1(s);
     // E&M §6.3.4, CCM: Vin·D = Vor·(1 − D) (volt-second balance of Lp).
-    let dmin = vor / (dc.min + vor);
-    // Ripple ratio r = ΔI/Ic at Vin min: Ic = Pin/(Vin·D), ΔI = Vin·D/(Lp·f).
-    let pin = s.output_power() / s.efficiency;
+    // Ripple ratio r = ΔI/Ic at Vin min: Ic = P/(Vin·D), ΔI = Vin·D/(Lp·f),
+    // so Lp = (Vin·D)²/(r·f·P). P is the power through the magnetic, the
+    // rectified power (V + Vf)·I (one output: the same as wound), not
+    // Pout/η (ampere-turn balance, E&M §6.2.3).
+    let p = v1(s) * s.outputs[0].current;
     let rr = s.flyback.ripple_ratio;
-    let lp = (dc.min * dmin).powi(2) / (rr * s.frequency * pin);
-    assert!(
-        rel(r.inductance, lp) < 1e-9,
-        "Lp {} vs hand {}",
-        r.inductance,
-        lp
-    );
+    let lp_of = |vor: f64| {
+        let d = vor / (dc.min + vor);
+        (dc.min * d).powi(2) / (rr * s.frequency * p)
+    };
     // Peak current at each corner: CCM Ipk = Ic + ΔI/2 if Ic ≥ ΔI/2, else
-    // DCM from ½·Lp·Ipk²·f = Pin.
-    let ipk = |vor: f64, vin: f64| {
+    // DCM from ½·Lp·Ipk²·f = P.
+    let ipk = |vor: f64, lp: f64, vin: f64| {
         let d = vor / (vin + vor);
-        let (ic, di) = (pin / (vin * d), vin * d / (lp * s.frequency));
+        let (ic, di) = (p / (vin * d), vin * d / (lp * s.frequency));
         if ic >= di / 2.0 {
             ic + di / 2.0
         } else {
-            (2.0 * pin / (lp * s.frequency)).sqrt()
+            (2.0 * p / (lp * s.frequency)).sqrt()
         }
     };
-    // Np = ⌈Lp·Ipk/(Bpk·Ae)⌉ (from B = L·i/(N·Ae)), Ipk the larger of
-    // the two corners at the design's reflected voltage.
-    let i_pk = ipk(vor, dc.min).max(ipk(vor, dc.max));
+    // First estimate at the design ratio: Np = ⌈Lp·Ipk/(Bpk·Ae)⌉ (from
+    // B = L·i/(N·Ae)), Ipk the larger of the two corners.
+    let lp0 = lp_of(vor);
+    let i_pk = ipk(vor, lp0, dc.min).max(ipk(vor, lp0, dc.max));
     let bl = b_limit(&d, &r);
     let a_sat = r.core.ae.min(r.core.amin);
-    let mut np = (lp * i_pk / (bl * a_sat)).ceil() as u32;
-    // Ns = ⌈Np/n⌉ lowers the ratio as wound, which raises Ipk: the solver
-    // adds primary turns until Bpk as wound is within the limit.
+    let mut np = (lp0 * i_pk / (bl * a_sat)).ceil() as u32;
+    // Ns = ⌈Np/n⌉ lowers the ratio as wound; Lp is then taken from the
+    // ratio as wound (so the ripple ratio, and the mode, hold at Vin min),
+    // and the solver adds primary turns until Bpk as wound is within the
+    // limit.
     loop {
         let ns = (np as f64 / n).ceil() as u32;
         let vor_w = np as f64 / ns as f64 * v1(s);
-        let b = lp * ipk(vor_w, dc.min).max(ipk(vor_w, dc.max)) / (np as f64 * a_sat);
+        let lp_w = lp_of(vor_w);
+        let b = lp_w * ipk(vor_w, lp_w, dc.min).max(ipk(vor_w, lp_w, dc.max)) / (np as f64 * a_sat);
         if b <= bl * (1.0 + 1e-9) {
             break;
         }
@@ -344,9 +347,19 @@ fn flyback_design_by_hand() {
     assert_eq!(r.turns.primary, np);
     let ns = (np as f64 / n).ceil() as u32;
     assert_eq!(r.turns.secondaries, vec![ns]);
-    // As wound, Vor = (Np/Ns)·(V + Vf); the switch peak and Bpk follow.
+    // As wound, Vor = (Np/Ns)·(V + Vf); Lp, the switch peak and Bpk follow.
     let vor_wound = np as f64 / ns as f64 * v1(s);
-    let i_wound = ipk(vor_wound, dc.min).max(ipk(vor_wound, dc.max));
+    let lp = lp_of(vor_wound);
+    assert!(
+        rel(r.inductance, lp) < 1e-9,
+        "Lp {} vs hand {}",
+        r.inductance,
+        lp
+    );
+    // The ripple ratio as wound at Vin min is the one asked for.
+    let cond = r.conduction.as_ref().expect("a flyback reports its mode");
+    assert!(rel(cond.corners[0].ripple_ratio, rr) < 1e-9);
+    let i_wound = ipk(vor_wound, lp, dc.min).max(ipk(vor_wound, lp, dc.max));
     assert!(
         rel(
             r.waveforms.get("switch_peak_current").unwrap().value,
@@ -508,5 +521,56 @@ fn frequency_sweep_marks_minimum_and_reasons() {
     let q = (5e6f64 / 2e3).powf(1.0 / 15.0);
     for w in s.points.windows(2) {
         assert!(rel(w[1].x / w[0].x, q) < 1e-9);
+    }
+}
+
+/// A flyback asked for at the CCM/DCM boundary (ripple ratio 2) stays at
+/// the boundary at Vin min, full load, after its turns are rounded: the
+/// primary current just reaches zero at the end of the period and the
+/// ripple ratio as wound, r = Vin²·D²/(Lp·f·P) with D = Vor/(Vin + Vor)
+/// (E&M §6.3.4, CCM volt-second balance of Lp) and P the rectified power,
+/// is 2. Before, Lp was kept from the design ratio and rounding Ns up
+/// lowered Vor, so the design came out in CCM with no word.
+#[test]
+fn flyback_boundary_held_after_rounding() {
+    for (vor, rr) in [(100.0, 2.0), (90.0, 2.0), (120.0, 2.0), (100.0, 1.5), (100.0, 3.0)] {
+        let mut d = Design::demo_flyback();
+        d.spec.flyback.ratio = magwright_engine::topology::FlybackRatio::ReflectedVoltage(vor);
+        d.spec.flyback.ripple_ratio = rr;
+        let r = evaluate(&d).unwrap();
+        let s = &d.spec;
+        let (np, ns) = (r.turns.primary as f64, r.turns.secondaries[0] as f64);
+        let vor_w = np / ns * v1(s);
+        let op = &r.waveforms.at_vin_min;
+        let vin = op.vin;
+        let dd = vor_w / (vin + vor_w);
+        let p = vor_w * ns / np * s.outputs[0].current;
+        let r_wound = (vin * dd).powi(2) / (r.inductance * s.frequency * p);
+        assert!(rel(r_wound, rr) < 1e-6, "Vor {vor}: r as wound {r_wound}, asked {rr}");
+        // The waveform agrees: at the boundary the primary ramp starts from
+        // zero and there is no idle time (the duty is the CCM one).
+        let i0 = op.windings[0].current.points[0].1;
+        let ipk = op.windings[0].peak;
+        if rr == 2.0 {
+            assert!(i0.abs() < 1e-6 * ipk, "Vor {vor}: Imin {i0} of {ipk}");
+            assert!(rel(op.duty, dd) < 1e-9);
+        } else if rr < 2.0 {
+            assert!(i0 > 0.1 * ipk, "CCM");
+        } else {
+            assert!(op.duty < dd * (1.0 - 1e-6), "DCM: shorter on-time than CCM's");
+        }
+        if rr == 2.0 {
+            assert_eq!(op.mode, Mode::Boundary, "Vor {vor}");
+        }
+        let k = r.checks.iter().find(|k| k.key == "mode").expect("a mode check");
+        assert!(k.pass, "{k:?}");
+        let c = r.conduction.as_ref().unwrap();
+        assert_eq!(c.corners.len(), 2);
+        assert_eq!(c.corners[0].mode, op.mode);
+        assert_eq!(c.corners[1].mode, r.waveforms.at_vin_max.mode);
+        // The same Lp at Vin max gives r·(Vin max·D max/(Vin min·D min))².
+        let vmax = r.waveforms.at_vin_max.vin;
+        let dmax = vor_w / (vmax + vor_w);
+        assert!(rel(c.corners[1].ripple_ratio, rr * (vmax * dmax / (vin * dd)).powi(2)) < 1e-9);
     }
 }

@@ -1,6 +1,7 @@
 //! Reference checks: the engine against sources outside the project.
 //! Each check names its source beside it.
 
+mod checks;
 mod conductors;
 mod cores;
 mod design;

@@ -1,12 +1,13 @@
 //! The design file on the page's side: a size limit, then the engine's own
-//! reader (`Design::from_json`), which refuses foreign, newer and malformed
-//! files with a message naming the field. A refused file changes nothing.
+//! reader and check (`Design::load`, what the CLI calls), which refuses
+//! foreign, newer, malformed and out-of-range files with a message naming
+//! the field by its full path. A refused file changes nothing.
 
 use magwright_engine::design::Design;
 use magwright_engine::Error;
 
-/// Largest design file accepted, bytes.
-pub const MAX_BYTES: usize = 1 << 20;
+/// Largest design file accepted, bytes: the engine's limit, as in the CLI.
+pub const MAX_BYTES: usize = magwright_engine::json::MAX_LEN;
 
 /// The design file's text.
 pub fn to_json(d: &Design) -> String {
@@ -24,7 +25,8 @@ pub fn from_json_noted(text: &str) -> Result<(Design, Vec<String>), Error> {
     if text.len() > MAX_BYTES {
         return Err(Error::format(None, format!("the file is {} KB; a design file is a few KB", text.len() / 1024)));
     }
-    Design::from_json_noted(text)
+    // The engine's one reader and check, as the CLI calls it.
+    Design::load_noted(text)
 }
 
 /// A status line with the conversion notes after it.
@@ -46,6 +48,6 @@ mod tests {
         assert!(e.message().contains("newer"), "{e}");
         let mut v: serde_json::Value = serde_json::from_str(&to_json(&d)).unwrap();
         v["spec"].as_object_mut().unwrap().remove("frequency");
-        assert_eq!(from_json(&v.to_string()).unwrap_err().field(), Some("spec"));
+        assert_eq!(from_json(&v.to_string()).unwrap_err().field(), Some("spec.frequency"));
     }
 }

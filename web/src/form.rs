@@ -132,7 +132,8 @@ pub mod ix {
     pub const LAYER_WRAPS: usize = 25;
     pub const TAPE: usize = 26;
     pub const FLANGE: usize = 27;
-    pub const COUNT: usize = 28;
+    pub const LOSS_SHARE: usize = 28;
+    pub const COUNT: usize = 29;
 }
 
 /// Every numeric entry except the outputs, in [`ix`] order.
@@ -185,6 +186,13 @@ pub const NUMS: [NumDef; ix::COUNT] = [
         optional: true,
         ..num("choices.insulation.margin", "Flange margin", "m", Group::Winding, "Margin tape at each flange; empty: from the isolation class")
     },
+    num(
+        "choices.magnetic_loss_share",
+        "Loss share",
+        "",
+        Group::Converter,
+        "The magnetic's share of the converter's loss budget Pin − Pout, e.g. 0.5",
+    ),
 ];
 
 /// The outputs' keys: voltage, current, rectifier drop, for up to four.
@@ -346,6 +354,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(f64::from(ch.insulation.interlayer_wraps)),
         Some(ch.insulation.tape_thickness),
         ch.insulation.margin,
+        Some(ch.magnetic_loss_share),
     ]
 }
 
@@ -446,8 +455,9 @@ impl Form {
             if d.optional && text.trim().is_empty() {
                 continue;
             }
-            match notation::parse(&text, d.unit) {
-                Ok(v) if d.whole && v.fract() != 0.0 => errs.push((d.key, "a whole number".to_string())),
+            // Counts are read as counts: "-1" or "2.5" is refused, never made 0.
+            let read = if d.whole { notation::parse_count(&text).map(f64::from) } else { notation::parse(&text, d.unit) };
+            match read {
                 Ok(v) => vals[i] = Some(v),
                 Err(e) => errs.push((d.key, e.to_string())),
             }
@@ -522,6 +532,7 @@ impl Form {
             },
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],
+            magnetic_loss_share: g(ix::LOSS_SHARE),
         };
         Ok(Design {
             schema: design::file::SCHEMA.into(),

@@ -26,6 +26,12 @@ pub use shape::{Constants, Shape, FERRITE_DENSITY};
 use crate::error::{positive, Error, Result};
 use serde::{Deserialize, Serialize};
 
+/// Residual gap of a mated, ungapped core pair, m: the two halves' ground
+/// faces never meet perfectly, which acts like a small air gap in the path
+/// (common practice, from memory). A one-piece core (a ring) has no mating
+/// faces and no residual gap; see [`Core::residual_gap`].
+pub const RESIDUAL_GAP: f64 = 10e-6;
+
 /// Effective parameters and window of one core set (SI units).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Core {
@@ -119,10 +125,11 @@ impl Core {
                 "give the core a name, e.g. \"ETD 34\"",
             ));
         }
+        check_shape_bounds(&shape)?;
         let g = shape.geometry()?;
         let k = g.constants;
         let (ae, le) = (k.ae(), k.le());
-        Ok(Core {
+        let mut core = Core {
             designation: designation.to_string(),
             family: shape.family().to_string(),
             ae,
@@ -142,7 +149,9 @@ impl Core {
             volume: g.volume,
             mass: g.volume * FERRITE_DENSITY,
             shape: Some(shape),
-        })
+        };
+        core.provenance = format!("{}; {}", core.provenance, core.residual_gap_note());
+        Ok(core)
     }
 
     /// A core from datasheet effective parameters. Checks (each error names
@@ -152,7 +161,9 @@ impl Core {
     /// breadth × height within the window area; window height ≥ winding
     /// breadth; and the turn at least 2·√(π·Amin) long, since a closed curve
     /// around a section of area Amin has at least that perimeter (the
-    /// isoperimetric inequality).
+    /// isoperimetric inequality). Then the bounds and consistency of
+    /// [`check_effective_bounds`]: upper limits on every size, le around
+    /// the window, surface against Ve^(2/3), mass against density × Ve.
     pub fn from_effective(designation: &str, p: &Effective) -> Result<Core> {
         let designation = designation.trim();
         if designation.is_empty() {
@@ -223,7 +234,8 @@ impl Core {
             Some(m) => positive("mass", m, "kg")?,
             None => ve * FERRITE_DENSITY,
         };
-        Ok(Core {
+        check_effective_bounds(p, ae, le, ve, window_area, surface, mass)?;
+        let mut core = Core {
             designation: designation.to_string(),
             family: p.family.trim().to_string(),
             ae,
@@ -240,7 +252,44 @@ impl Core {
             volume: mass / FERRITE_DENSITY,
             mass,
             shape: None,
-        })
+        };
+        core.provenance = format!("{}; {}", core.provenance, core.residual_gap_note());
+        Ok(core)
+    }
+
+    /// A one-piece core: a ring (toroid) from its shape, or an own core whose
+    /// family is given as "R", "T", "ring" or "toroid" (case ignored).
+    /// Every other core is a mated pair of halves.
+    pub fn is_one_piece(&self) -> bool {
+        if matches!(self.shape, Some(Shape::Ring { .. })) {
+            return true;
+        }
+        let f = self.family.trim().to_ascii_lowercase();
+        matches!(f.as_str(), "r" | "t" | "ring" | "toroid")
+    }
+
+    /// The residual gap the magnetising inductance of this core, ungapped,
+    /// is computed with: [`RESIDUAL_GAP`] for a mated pair, zero for a
+    /// one-piece core, whose AL is then μ0·μi·Ae/le exactly (IEC 60205
+    /// effective parameters).
+    pub fn residual_gap(&self) -> f64 {
+        if self.is_one_piece() {
+            0.0
+        } else {
+            RESIDUAL_GAP
+        }
+    }
+
+    /// The provenance sentence on the residual gap (every core states it).
+    pub fn residual_gap_note(&self) -> String {
+        if self.is_one_piece() {
+            "one-piece core: no residual gap when ungapped".into()
+        } else {
+            format!(
+                "mated pair: ungapped, a {:.0} µm residual gap is assumed",
+                RESIDUAL_GAP * 1e6
+            )
+        }
     }
 
     /// Mean length of a turn whose centre sits `h` metres above the bobbin
@@ -255,4 +304,152 @@ impl Core {
     pub fn mlt_mid(&self) -> f64 {
         self.turn_length_at(0.5 * self.winding_height)
     }
+}
+
+/// Largest dimension of a shape, m: far above any ferrite core made (the
+/// largest are some 0.1–0.2 m across, from memory; common practice, no
+/// source). Catches values typed in the wrong unit and absurd numbers.
+pub const MAX_DIMENSION: f64 = 1.0;
+
+/// Upper bounds on an own core's effective parameters, each about ten
+/// times the largest ferrite cores in trade (Ae about 10 cm², le about
+/// 30 cm, a set of about 1 kg, from memory; common practice, no source):
+/// (field, bound, unit).
+pub const EFFECTIVE_MAX: [(&str, f64, &str); 9] = [
+    ("ae", 0.01, "m² (100 cm²)"),
+    ("le", 2.0, "m"),
+    ("window_area", 0.05, "m² (500 cm²)"),
+    ("window_height", MAX_DIMENSION, "m"),
+    ("winding_breadth", MAX_DIMENSION, "m"),
+    ("winding_height", MAX_DIMENSION, "m"),
+    ("turn_length_inner", 2.0, "m"),
+    ("surface_area", 2.0, "m²"),
+    ("mass", 50.0, "kg"),
+];
+
+/// The exposed surface of a core set, as a multiple of Ve^(2/3): at least
+/// 4 and at most 40. No body has less surface for its volume than a sphere,
+/// S = (36π)^(1/3)·V^(2/3) ≈ 4.84·V^(2/3) (the isoperimetric inequality in
+/// space); 4 leaves room for a physical volume a little below Ve. The
+/// library's cores lie between 8 (planar E) and 14 (small EP); 40 allows
+/// far flatter shapes (our choice, common practice, no source).
+pub const SURFACE_FACTOR: (f64, f64) = (4.0, 40.0);
+
+/// Mass against [`FERRITE_DENSITY`]·Ve: between 0.5 and 4. The ferrite of a
+/// set is at least its effective volume, more where corners and flanges
+/// carry little flux (the library's cores: 1.05 for a ring to 2.2 for an
+/// EP); the band leaves room for other densities and rounding (our choice,
+/// common practice, no source).
+pub const MASS_FACTOR: (f64, f64) = (0.5, 4.0);
+
+/// Every dimension of a shape at most [`MAX_DIMENSION`] (errors name
+/// `shape.<letter>`). Finite, positive and ordered dimensions are the
+/// shape's own checks.
+fn check_shape_bounds(shape: &Shape) -> Result<()> {
+    let Ok(serde_json::Value::Object(map)) = serde_json::to_value(shape) else {
+        return Ok(());
+    };
+    for (key, v) in &map {
+        if let Some(x) = v.as_f64() {
+            if x > MAX_DIMENSION {
+                return Err(Error::input(
+                    &format!("shape.{key}"),
+                    format!(
+                        "{x} m is larger than any ferrite core (at most {MAX_DIMENSION} m): give the dimension in metres"
+                    ),
+                ));
+            }
+        }
+    }
+    Ok(())
+}
+
+/// Upper bounds ([`EFFECTIVE_MAX`]) and consistency of an own core's
+/// effective parameters, each error naming its field:
+/// * le ≥ 2·√(π·Wa): the magnetic path closes around the window, and a
+///   closed curve around an area Wa is at least that long (isoperimetric
+///   inequality in the plane);
+/// * surface within [`SURFACE_FACTOR`] × Ve^(2/3);
+/// * mass within [`MASS_FACTOR`] × [`FERRITE_DENSITY`]·Ve.
+///
+/// (Ve against le·Ae is checked where Ve is read.)
+fn check_effective_bounds(
+    p: &Effective,
+    ae: f64,
+    le: f64,
+    ve: f64,
+    window_area: f64,
+    surface: f64,
+    mass: f64,
+) -> Result<()> {
+    let given = |name: &str| -> Option<f64> {
+        match name {
+            "ae" => Some(ae),
+            "le" => Some(le),
+            "window_area" => Some(window_area),
+            "window_height" => p.window_height,
+            "winding_breadth" => Some(p.winding_breadth),
+            "winding_height" => Some(p.winding_height),
+            "turn_length_inner" => Some(p.turn_length_inner),
+            "surface_area" => Some(surface),
+            "mass" => p.mass,
+            _ => None,
+        }
+    };
+    for (name, max, unit) in EFFECTIVE_MAX {
+        if let Some(v) = given(name) {
+            if v > max {
+                return Err(Error::input(
+                    name,
+                    format!("{v} is larger than any ferrite core has (at most {max} {unit}): check the value and its unit (SI)"),
+                ));
+            }
+        }
+    }
+    let le_min = 2.0 * (std::f64::consts::PI * window_area).sqrt();
+    if le < le_min {
+        return Err(Error::input(
+            "le",
+            format!(
+                "the magnetic path closes around the window of {:.1} mm², so le is at least {:.1} mm (got {:.1} mm): check le and window_area",
+                window_area * 1e6,
+                le_min * 1e3,
+                le * 1e3
+            ),
+        ));
+    }
+    let v23 = ve.powf(2.0 / 3.0);
+    let (s_lo, s_hi) = (SURFACE_FACTOR.0 * v23, SURFACE_FACTOR.1 * v23);
+    if surface < s_lo || surface > s_hi {
+        return Err(Error::input(
+            "surface_area",
+            format!(
+                "a core of Ve {:.3} cm³ has an outer surface of {:.1} to {:.0} cm² ({}–{} × Ve^(2/3)); got {:.1} cm²: check surface_area (m²)",
+                ve * 1e6,
+                s_lo * 1e4,
+                s_hi * 1e4,
+                SURFACE_FACTOR.0,
+                SURFACE_FACTOR.1,
+                surface * 1e4
+            ),
+        ));
+    }
+    let m0 = FERRITE_DENSITY * ve;
+    let (m_lo, m_hi) = (MASS_FACTOR.0 * m0, MASS_FACTOR.1 * m0);
+    if mass < m_lo || mass > m_hi {
+        return Err(Error::input(
+            "mass",
+            format!(
+                "ferrite of Ve {:.3} cm³ weighs {:.1} to {:.1} g ({}–{} × {:.0} kg/m³ × Ve); got {:.1} g: check mass (kg)",
+                ve * 1e6,
+                m_lo * 1e3,
+                m_hi * 1e3,
+                MASS_FACTOR.0,
+                MASS_FACTOR.1,
+                FERRITE_DENSITY,
+                mass * 1e3
+            ),
+        ));
+    }
+    Ok(())
 }

@@ -2,8 +2,10 @@
 //!
 //! The page saves it, the CLI evaluates it, and the browser tests compare the
 //! two through it. It is our own schema: `{"schema": "magwright-design",
-//! "version": 1, ...}`. Unknown versions and foreign files are refused with a
-//! message naming the field; documented with examples in `docs/design-file.md`.
+//! "version": 2, ...}`. Older versions are converted on reading
+//! ([`super::upgrade`], with notes); newer versions and foreign files are
+//! refused with a message naming the field; documented with examples in
+//! `docs/design-file.md`.
 
 use crate::core::{library as cores, Core, Effective, Shape};
 use crate::error::{Error, Result};
@@ -167,7 +169,19 @@ pub struct Choices {
     pub edge_time: f64,
     /// The switch's voltage rating to check against, V (`None`: not checked).
     pub switch_voltage_rating: Option<f64>,
+    /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
+    /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
+    /// a design whose magnetic loses more. 0.01 to 1; default
+    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
+    pub magnetic_loss_share: f64,
 }
+
+/// Default share of the converter's loss budget for the magnetic: one half
+/// (common practice, no source: in a switch-mode converter the magnetics
+/// commonly take a third to a half of the losses, the switches, rectifiers
+/// and capacitors the rest; a half is the lenient end, so a design only
+/// fails when its magnetic alone leaves too little for everything else).
+pub const DEFAULT_MAGNETIC_LOSS_SHARE: f64 = 0.5;
 
 impl Default for Choices {
     fn default() -> Self {
@@ -183,6 +197,7 @@ impl Default for Choices {
             insulation: Insulation::default(),
             edge_time: 0.0,
             switch_voltage_rating: None,
+            magnetic_loss_share: DEFAULT_MAGNETIC_LOSS_SHARE,
         }
     }
 }
@@ -244,14 +259,14 @@ impl Design {
             None => return Err(foreign("it has no \"schema\" key")),
         }
         match obj.get("version").and_then(serde_json::Value::as_u64) {
-            Some(v) if v == u64::from(VERSION) => Ok((crate::json::from_str(text)?, Vec::new())),
+            Some(v) if v == u64::from(VERSION) => Ok((crate::json::from_str_checked(text)?, Vec::new())),
             Some(v) if v > u64::from(VERSION) => Err(Error::format(
                 Some("version"),
                 format!("the file was written by a newer Magwright (file version {v}); this one reads version {VERSION}"),
             )),
             Some(v) if v >= 1 => {
                 let notes = super::upgrade::upgrade(&mut value, v)?;
-                Ok((crate::json::from_str(&crate::json::to_string_pretty(&value))?, notes))
+                Ok((crate::json::from_str_checked(&crate::json::to_string_pretty(&value))?, notes))
             }
             _ => Err(Error::format(Some("version"), format!("the file's \"version\" must be 1 to {VERSION}"))),
         }

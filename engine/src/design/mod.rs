@@ -10,6 +10,7 @@
 
 pub mod file;
 pub mod material_view;
+mod load;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;

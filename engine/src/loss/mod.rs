@@ -21,7 +21,8 @@
 //! * Minor loops: the whole period is one loop (see [`igse`]).
 //! * Relaxation after flat parts of B(t), and the loss rise at the edges of
 //!   the fitted ranges: points outside the fitted f or B ranges are
-//!   extrapolated, with a warning.
+//!   extrapolated, with a warning; [`range`] holds the rule that fails a
+//!   design whose point lies beyond a modest band.
 //!
 //! # Entry points
 //!
@@ -31,8 +32,10 @@
 //! [`IgseCoefficients::shape_factor`] and [`IgseCoefficients::pv_from_shape`].
 
 pub mod igse;
+pub mod range;
 
 pub use igse::{cos_power_integral, ki, FluxScan, IgseCoefficients};
+pub use range::{data_range, data_range_of, DataRange, RangeVerdict, DATA_RANGE_BAND};
 
 use crate::error::{in_range, positive, Error, Result};
 use crate::material::{Material, Steinmetz};

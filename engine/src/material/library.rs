@@ -34,6 +34,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-200k-flat".into(),
@@ -48,6 +49,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 5.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-500k".into(),
@@ -62,6 +64,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 8.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-1M".into(),
@@ -76,6 +79,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 10.0,
             density: 4800.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiperm".into(),
@@ -90,6 +94,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 0.5,
             density: 4900.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "MnZn-hiBsat".into(),
@@ -104,6 +109,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 4.0,
             density: 4850.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
         Material {
             name: "NiZn-5M".into(),
@@ -118,6 +124,7 @@ pub fn materials() -> Vec<Material> {
             resistivity: 1.0e5,
             density: 5000.0,
             provenance: PROVENANCE.into(),
+            bsat_rise_intended: false,
         },
     ]
 }

@@ -32,6 +32,7 @@ use serde::{Deserialize, Serialize};
 /// [`TempFactor`]), with the ranges they were fitted over (Steinmetz 1892
 /// form, generalised to a frequency exponent as is usual for ferrites).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Steinmetz {
     pub k: f64,
     pub alpha: f64,
@@ -136,6 +137,7 @@ impl TempFactor {
 
 /// One ferrite grade.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Material {
     pub name: String,
     pub description: String,
@@ -155,6 +157,18 @@ pub struct Material {
     pub density: f64,
     /// Where the numbers come from.
     pub provenance: String,
+    /// Set true to confirm that Bsat is meant to rise from 25 °C to 100 °C
+    /// (`bsat_100 > bsat_25`). Ferrite's saturation falls as it warms
+    /// towards its Curie point, so a rising Bsat is almost always the two
+    /// values swapped, and [`Material::validate`] refuses it unless this
+    /// flag says it is deliberate (e.g. a measured grade with an unusual
+    /// curve). Left out of files when false.
+    #[serde(default, skip_serializing_if = "is_false")]
+    pub bsat_rise_intended: bool,
+}
+
+fn is_false(b: &bool) -> bool {
+    !*b
 }
 
 impl Material {
@@ -184,6 +198,17 @@ impl Material {
         check_range(&f("mu_i"), self.mu_i, 1.0, 1.0e6, "(relative permeability)")?;
         check_range(&f("bsat_25"), self.bsat_25, 0.01, 2.5, "T")?;
         check_range(&f("bsat_100"), self.bsat_100, 0.0, 2.5, "T")?;
+        if self.bsat_100 > self.bsat_25 && !self.bsat_rise_intended {
+            return Err(Error::input(
+                "material.bsat_100",
+                format!(
+                    "Bsat rises from {:.0} mT at 25 °C to {:.0} mT at 100 °C, but a ferrite's saturation falls as it warms: \
+                     check that the two values are not swapped, or set bsat_rise_intended to true if the rise is deliberate",
+                    self.bsat_25 * 1e3,
+                    self.bsat_100 * 1e3
+                ),
+            ));
+        }
         if self.bsat_100 > 0.0 {
             check_range(
                 &f("curie_c"),
@@ -267,6 +292,7 @@ mod tests {
             ("material.mu_i", Box::new(|m| m.mu_i = 0.5)),
             ("material.bsat_25", Box::new(|m| m.bsat_25 = f64::NAN)),
             ("material.curie_c", Box::new(|m| m.curie_c = 90.0)),
+            ("material.bsat_100", Box::new(|m| m.bsat_100 = m.bsat_25 + 0.01)),
             ("material.steinmetz.k", Box::new(|m| m.steinmetz.k = 0.0)),
             ("material.steinmetz.alpha", Box::new(|m| m.steinmetz.alpha = 5.0)),
             ("material.steinmetz.beta", Box::new(|m| m.steinmetz.beta = 0.2)),
@@ -283,6 +309,29 @@ mod tests {
             assert_eq!(e.field(), Some(field), "{e}");
             assert!(!e.message().is_empty());
         }
+    }
+
+    /// Ferrite's saturation falls with temperature towards zero at the Curie
+    /// point (common practice, no source): a rising Bsat is refused at
+    /// entry unless marked deliberate, and the flag survives a file.
+    #[test]
+    fn rising_bsat_is_refused_unless_intended() {
+        let mut m = library::find("MnZn-200k").unwrap();
+        std::mem::swap(&mut m.bsat_25, &mut m.bsat_100);
+        let e = m.validate().unwrap_err();
+        assert_eq!(e.field(), Some("material.bsat_100"));
+        assert!(e.message().contains("bsat_rise_intended"), "{e}");
+        m.bsat_rise_intended = true;
+        assert!(m.validate().is_ok());
+        let text = serde_json::to_string(&m).unwrap();
+        assert!(text.contains("\"bsat_rise_intended\":true"));
+        let back: Material = serde_json::from_str(&text).unwrap();
+        assert_eq!(back, m);
+        // Absent from the file when false, and false when absent.
+        let plain = library::find("MnZn-200k").unwrap();
+        let text = serde_json::to_string(&plain).unwrap();
+        assert!(!text.contains("bsat_rise_intended"));
+        assert!(!serde_json::from_str::<Material>(&text).unwrap().bsat_rise_intended);
     }
 
     #[test]

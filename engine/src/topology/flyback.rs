@@ -7,10 +7,16 @@
 //!   the secondaries conduct.
 //! * CCM, volt-second balance of Lp: Vin·D = Vor·(1 − D), so
 //!   D = Vor/(Vin + Vor) whatever the load.
-//! * Primary ramp centre Ic from the input power: Vin·D·Ic = Pin; ramp
+//! * The power through the magnetic is the rectified power as wound,
+//!   Psec = Σ(Vk + Vfk)·Ik with each output at the volts per turn of these
+//!   turns: the energy the secondaries deliver. Not Pout/η: η covers the
+//!   whole converter, whose switch, clamp and capacitor losses do not pass
+//!   through Lp (the magnetic's own loss is left out, see
+//!   `sizing::rectified_power`).
+//! * Primary ramp centre Ic from that power: Vin·D·Ic = Psec; ramp
 //!   ΔI = Vin·D/(Lp·f). CCM while Ic ≥ ΔI/2 (Imin = Ic − ΔI/2 ≥ 0).
-//! * DCM: all stored energy is delivered each period: ½·Lp·Ipk²·f = Pin, so
-//!   Ipk = √(2·Pin/(Lp·f)), D = Lp·Ipk·f/Vin, and the demagnetising time is
+//! * DCM: all stored energy is delivered each period: ½·Lp·Ipk²·f = Psec, so
+//!   Ipk = √(2·Psec/(Lp·f)), D = Lp·Ipk·f/Vin, and the demagnetising time is
 //!   t2 = Lp·Ipk/Vor. Then the current is zero until the next period
 //!   (ringing of the drain node is not modelled).
 //! * Switch off-state voltage Vin + Vor, leakage spike not modelled.
@@ -18,8 +24,10 @@
 //!   primary.
 //! * Secondaries share the magnetising ampere-turns during the off-time:
 //!   i_k(t) = a_k·i_m(t), a_k = Ik/⟨i_m⟩_off where ⟨i_m⟩_off is the period
-//!   mean of i_m over the off-time only, so ⟨i_k⟩ = Ik exactly. Their
-//!   ampere-turns then sum to (Psec/Pin)·Np·i_m (module docs).
+//!   mean of i_m over the off-time only, so ⟨i_k⟩ = Ik exactly. Since
+//!   Vor·⟨i_m⟩_off = Psec = Vor·Σ(Nk/Np)·Ik, their ampere-turns sum to
+//!   Np·i_m: ampere-turn balance (Erickson & Maksimovic 2nd ed. §6.3.4, the
+//!   flyback as a coupled inductor).
 
 use super::{duty_error, output_voltages, Ctx, Mode, OperatingPoint, WindingWave};
 use crate::error::Result;
@@ -37,7 +45,8 @@ pub(crate) struct State {
     pub i_pk: f64,
 }
 
-/// Mode, duty and primary currents from Vin, Vor, Lp, Pin and f.
+/// Mode, duty and primary currents from Vin, Vor, Lp, the power through
+/// the magnetic P (the rectified power, module docs) and f.
 pub(crate) fn state(vin: f64, vor: f64, lp: f64, p_in: f64, f: f64) -> State {
     let d_ccm = vor / (vin + vor);
     let di = vin * d_ccm / (lp * f);
@@ -79,7 +88,19 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     let vor = np / n1 * (o1.voltage + o1.rectifier_drop);
     // `context` guarantees Lp for the flyback; fall back defensively.
     let lp = ctx.lp.unwrap_or(1e-3);
-    let s = state(vin, vor, lp, ctx.p_in, spec.frequency);
+    let v_rect: Vec<f64> = ctx
+        .turns
+        .secondaries
+        .iter()
+        .map(|&n| vor * n as f64 / np)
+        .collect();
+    let p_sec: f64 = spec
+        .outputs
+        .iter()
+        .zip(&v_rect)
+        .map(|(o, v)| v * o.current)
+        .sum();
+    let s = state(vin, vor, lp, p_sec, spec.frequency);
     if s.d > spec.duty_max * (1.0 + 1e-12) {
         return Err(duty_error(ctx, vin, s.d));
     }
@@ -118,19 +139,7 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     };
     let vp = Pwl::new(t, vp)?;
 
-    let v_rect: Vec<f64> = ctx
-        .turns
-        .secondaries
-        .iter()
-        .map(|&n| vor * n as f64 / np)
-        .collect();
     let output_v = output_voltages(ctx, &v_rect, &mut warnings);
-    let p_sec: f64 = spec
-        .outputs
-        .iter()
-        .zip(&v_rect)
-        .map(|(o, v)| v * o.current)
-        .sum();
 
     let mut windings = Vec::with_capacity(1 + spec.outputs.len());
     windings.push(WindingWave::new(

@@ -22,7 +22,11 @@
 //!   trapezoid from Ik − ΔIk/2 to Ik + ΔIk/2 (the freewheeling diode
 //!   carries the off-time). ΔIk = r·Ik·(1 − D)/(1 − D(Vin max)) (module
 //!   docs: fixed L sized for r at Vin max), capped at 2·Ik.
-//! * Primary during the on-time: (Pin/Psec)·Σ(Nk/Np)·ik(t) + i_m(t).
+//! * Primary during the on-time: Σ(Nk/Np)·ik(t) + i_m(t), the reflected
+//!   load plus the magnetising current (ampere-turn balance of the
+//!   transformer model, Erickson & Maksimovic 2nd ed. §6.2.3 and §6.3.2:
+//!   Np·ip − Σ Nk·ik = Np·i_m). So Vin·⟨i_in⟩ = Psec, the rectified power;
+//!   the converter's losses outside the magnetic do not flow in it.
 
 use super::{duty_error, output_voltages, Ctx, Mode, OperatingPoint, Topology, WindingWave};
 use crate::error::{Error, Result};
@@ -114,7 +118,6 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         .zip(&v_rect)
         .map(|(o, v)| v * o.current)
         .sum();
-    let k_p = ctx.p_in / p_sec;
 
     let mut windings = Vec::with_capacity(2 + spec.outputs.len());
     // Primary voltage: +Vin on, −Vin·Np/Nr reset, 0 after.
@@ -136,8 +139,8 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     for (k, (o, &nk)) in spec.outputs.iter().zip(&ctx.turns.secondaries).enumerate() {
         let di = (spec.choke_ripple_ratio * o.current * scale).min(2.0 * o.current);
         let (a, b) = (o.current - 0.5 * di, o.current + 0.5 * di);
-        ip0 += k_p * nk as f64 / np * a;
-        ip1 += k_p * nk as f64 / np * b;
+        ip0 += nk as f64 / np * a;
+        ip1 += nk as f64 / np * b;
         let cur = Pwl::new(t, vec![(0.0, a), (t_on, b), (t_on, 0.0), (t, 0.0)])?;
         secs.push(WindingWave::new(
             format!("secondary {}", k + 1),

@@ -24,16 +24,17 @@
 //!   per turn of their own windings (cross-regulation is ideal); when the
 //!   integer turns put an output more than 3 % off its target, a warning
 //!   says so.
-//! * Power: the input draws Pin = Pout/η. The secondaries carry their
-//!   actual output currents; the primary's load current is referred from
-//!   them with the factor Pin/Psec (Psec = Σ(Vk + Vfk)·Ik, the rectified
-//!   power), so Vin·⟨i_in⟩ = Pin exactly. This follows the common hand
-//!   method of taking the primary current from the input power Po/η
-//!   (McLyman, Transformer and Inductor Design Handbook) while keeping the
-//!   secondaries at their real load: it is conservative for the primary.
-//!   For the flyback the excess Pin − Psec is taken as lost at turn-off (as
-//!   leakage energy is in practice): the magnetising current ramps with
-//!   Pin, the secondaries carry the share Psec/Pin of its ampere-turns.
+//! * Power: the magnetic carries the rectified power Psec = Σ(Vk + Vfk)·Ik
+//!   (each output at its voltage as wound), not Pout/η: η is the whole
+//!   converter's, and its switch, clamp and capacitor losses do not flow in
+//!   the windings. Forward-type primaries carry Σ(Nk/Np)·ik + i_m, the
+//!   reflected load plus the magnetising current (ampere-turn balance,
+//!   Erickson & Maksimovic 2nd ed. §6.2.3, the ideal transformer with its
+//!   magnetising inductance); the flyback's Lp ramps with Psec and the
+//!   secondaries carry all of its ampere-turns in the off-time. At every
+//!   instant Σ ± Nk·ik(t) = Np·i_m(t) = Np²·Ae·B(t)/Lp. The magnetic's own
+//!   loss is left out of the currents (see `sizing::rectified_power`);
+//!   `input_power` keeps the spec's Pout/η for the report.
 //! * Winding voltage convention: v_k(t) = N_k·Ae·dB/dt, the voltage induced
 //!   in winding k, positive while the flux rises (all windings referred to
 //!   the same sense). Its mean over a period is zero, which is the
@@ -163,7 +164,8 @@ pub struct OperatingPoint {
     /// Peak magnetising current referred to the primary, A (0 when
     /// `lp_h` is not given for a forward or push-pull).
     pub magnetising_peak: f64,
-    /// Pout/η, W.
+    /// Pout/η, W: the spec's estimate of the converter's input (not the
+    /// power through the magnetic, which is `secondary_power`).
     pub input_power: f64,
     pub output_power: f64,
     /// Rectified power Σ(Vk_actual + Vfk)·Ik, W.

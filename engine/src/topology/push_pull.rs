@@ -16,12 +16,16 @@
 //! * Magnetising current ±Im, Im = Vp·D·T/(2·Lm) (Lm of one push-pull half).
 //! * Output choke at 2·f: ΔIk = r·Ik·(1 − 2D)/(1 − 2D(Vin max)).
 //! * The secondary half conducting in the first interval carries the choke
-//!   current then, nothing in the second, and half of it in both dead times
-//!   (both rectifiers share the freewheeling current; the magnetising
-//!   current's unequal split between them is neglected, and so is the
-//!   magnetising current in the dead times).
-//! * Primary load current (Pin/Psec)·Σ(Nk/Np)·iLk(t), plus the magnetising
-//!   ramp. Push-pull: each half carries it in its own on-time; bridges: the
+//!   current then, nothing in the second. In the dead times both rectifiers
+//!   share the freewheeling current, and the magnetising current (held at
+//!   ±Im, the flux being flat) flows in the secondaries as the difference
+//!   of the two halves: iB − iA = ±mk, mk = sk·Np·Im/Nk, with output k
+//!   taking the share sk = Nk·Ik/Σ Nj·Ij of the magnetising ampere-turns
+//!   (the split between outputs is our choice; ampere-turn balance,
+//!   Erickson & Maksimovic 2nd ed. §6.2.3). A half cannot go negative: if
+//!   mk exceeds the freewheeling current it is clamped and a warning given.
+//! * Primary load current Σ(Nk/Np)·iLk(t), the reflected load, plus the
+//!   magnetising ramp (ampere-turn balance, §6.2.3). Push-pull: each half carries it in its own on-time; bridges: the
 //!   one winding carries it with alternating sign.
 //! * Switch off-state voltage: push-pull 2·Vin, bridges Vin.
 //! * Input current: push-pull and full bridge, the switch current in each
@@ -115,7 +119,6 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         .zip(&v_rect)
         .map(|(o, v)| v * o.current)
         .sum();
-    let k_p = ctx.p_in / p_sec;
 
     let v = Pwl::new(
         t,
@@ -133,23 +136,45 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     // Load current referred to the primary at the start and end of an on-time.
     let (mut l0, mut l1) = (0.0, 0.0);
     let mut secs = Vec::with_capacity(2 * spec.outputs.len());
+    let nt_total: f64 = spec
+        .outputs
+        .iter()
+        .zip(&ctx.turns.secondaries)
+        .map(|(o, &nk)| nk as f64 * o.current)
+        .sum();
+    let mut clamped = false;
     for (k, (o, &nk)) in spec.outputs.iter().zip(&ctx.turns.secondaries).enumerate() {
         let di = (spec.choke_ripple_ratio * o.current * scale).min(2.0 * o.current);
         let (a, b) = (o.current - 0.5 * di, o.current + 0.5 * di);
-        l0 += k_p * nk as f64 / np * a;
-        l1 += k_p * nk as f64 / np * b;
+        l0 += nk as f64 / np * a;
+        l1 += nk as f64 / np * b;
+        // Magnetising ampere-turns carried by this output in the dead times.
+        let share = if nt_total > 0.0 {
+            nk as f64 * o.current / nt_total
+        } else {
+            0.0
+        };
+        let mut m = share * np * im / nk as f64;
+        if m > a {
+            clamped = true;
+            m = a;
+        }
+        let (lo_a, lo_b) = (0.5 * (a - m), 0.5 * (a + m));
+        let (hi_a, hi_b) = (0.5 * (b - m), 0.5 * (b + m));
         let va = v.scaled(nk as f64 / np);
+        // First dead time: flux at +ΔB/2, i_m = +Im, so iB − iA = m;
+        // second dead time: i_m = −Im, iA − iB = m.
         let ia = Pwl::new(
             t,
             vec![
                 (0.0, a),
                 (t_on, b),
-                (t_on, 0.5 * b),
-                (h, 0.5 * a),
+                (t_on, hi_a),
+                (h, lo_a),
                 (h, 0.0),
                 (h + t_on, 0.0),
-                (h + t_on, 0.5 * b),
-                (t, 0.5 * a),
+                (h + t_on, hi_b),
+                (t, lo_b),
             ],
         )?;
         let ib = Pwl::new(
@@ -157,12 +182,12 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
             vec![
                 (0.0, 0.0),
                 (t_on, 0.0),
-                (t_on, 0.5 * b),
-                (h, 0.5 * a),
+                (t_on, hi_b),
+                (h, lo_b),
                 (h, a),
                 (h + t_on, b),
-                (h + t_on, 0.5 * b),
-                (t, 0.5 * a),
+                (h + t_on, hi_a),
+                (t, lo_a),
             ],
         )?;
         secs.push(WindingWave::new(
@@ -177,6 +202,14 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
             ib,
             va,
         ));
+    }
+    if clamped {
+        warnings.push(
+            "the magnetising current exceeds the outputs' freewheeling current in the dead times: \
+             the rectifiers cannot carry it all, so the flux there is not held as modelled; \
+             raise the magnetising inductance or the load"
+                .to_string(),
+        );
     }
     // Switch current in its own on-time: load ramp plus magnetising −Im → +Im.
     let (s0, s1) = (l0 - im, l1 + im);

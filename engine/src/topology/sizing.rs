@@ -19,6 +19,74 @@ pub fn rectified(o: &Output) -> f64 {
     o.voltage + o.rectifier_drop
 }
 
+/// The power the secondaries must deliver at the outputs' target voltages,
+/// Σ(Vk + Vfk)·Ik, W: the load's power plus the rectifiers' conduction
+/// loss. This, not Pout/η, is what flows through the magnetic (ampere-turn
+/// balance, Erickson & Maksimovic 2nd ed. §6.2.3, the ideal transformer
+/// model: the converter's other losses, in switches, snubbers and
+/// capacitors, do not flow in its windings). The magnetic's own loss (a few
+/// per cent at most) is left out of its currents: it is an output of the
+/// loss model, computed from these currents (a choice we state; common
+/// practice, no source).
+pub fn rectified_power(spec: &Spec) -> f64 {
+    spec.outputs.iter().map(|o| rectified(o) * o.current).sum()
+}
+
+/// Flyback reflected voltage and rectified power as wound:
+/// Vor = (Np/Ns1)·(V1 + Vf1) and Psec = Σ Vor·(Nk/Np)·Ik (each output at the
+/// volts per turn of the regulated one), W.
+pub fn flyback_as_wound(spec: &Spec, turns: &super::Turns) -> Result<(f64, f64)> {
+    let o1 = spec
+        .outputs
+        .first()
+        .ok_or_else(|| Error::input("outputs", "give at least one output"))?;
+    let np = turns.primary as f64;
+    let n1 = turns.secondaries.first().copied().unwrap_or(0) as f64;
+    if np < 1.0 || n1 < 1.0 || turns.secondaries.len() != spec.outputs.len() {
+        return Err(Error::input("turns.secondaries", "give one turn count per output"));
+    }
+    let vor = np / n1 * rectified(o1);
+    let p_sec = spec
+        .outputs
+        .iter()
+        .zip(&turns.secondaries)
+        .map(|(o, &nk)| vor * nk as f64 / np * o.current)
+        .sum();
+    Ok((vor, p_sec))
+}
+
+/// The flyback's ripple ratio in the sense of `spec.flyback.ripple_ratio`
+/// at `vin`: r = Vin²·D²/(Lp·f·P) with the CCM duty D = Vor/(Vin + Vor)
+/// (the inverse of [`flyback_lp_from_ripple`]). In CCM this is ΔIp/Ic; at
+/// the boundary 2; in DCM it is 2·Lb/Lp (Lb the boundary inductance), above 2.
+pub fn flyback_ripple_ratio(vin: f64, vor: f64, lp: f64, p: f64, frequency: f64) -> f64 {
+    let d = flyback_duty_ccm(vin, vor);
+    vin * vin * d * d / (lp * frequency * p)
+}
+
+/// The conduction mode a ripple ratio asks for: r < 2 CCM, r = 2 the
+/// boundary (within 1e-9), r > 2 DCM (see `FlybackOptions::ripple_ratio`).
+pub fn mode_of_ripple(r: f64) -> super::Mode {
+    if (r - 2.0).abs() <= 2e-9 {
+        super::Mode::Boundary
+    } else if r < 2.0 {
+        super::Mode::Ccm
+    } else {
+        super::Mode::Dcm
+    }
+}
+
+/// Flyback Lp as wound: the spec's ripple ratio at Vin min and full load
+/// with the reflected voltage and rectified power of these turns
+/// ([`flyback_as_wound`]), so that the mode asked for holds after the turns
+/// are rounded to integers.
+pub fn flyback_lp_as_wound(spec: &Spec, turns: &super::Turns) -> Result<f64> {
+    let dc = spec.dc_range()?;
+    let (vor, p_sec) = flyback_as_wound(spec, turns)?;
+    let d = flyback_duty_ccm(dc.min, vor);
+    flyback_lp_from_ripple(dc.min, d, p_sec, spec.frequency, spec.flyback.ripple_ratio)
+}
+
 fn check_d(d: f64, hi: f64) -> Result<f64> {
     in_range("duty_max", d, 1e-3, hi, "")
 }
@@ -121,7 +189,9 @@ pub fn turns_ratio(spec: &Spec) -> Result<f64> {
 }
 
 /// Flyback Lp for the spec's ripple ratio at Vin min, full load, ratio `n`
-/// (see [`flyback_lp_from_ripple`]).
+/// and the rectified power [`rectified_power`] (see
+/// [`flyback_lp_from_ripple`]). The solver's first estimate; the design
+/// uses [`flyback_lp_as_wound`] once the turns are integers.
 pub fn flyback_lp(spec: &Spec, n: f64) -> Result<f64> {
     spec.validate()?;
     positive("turns_ratio", n, "")?;
@@ -131,7 +201,7 @@ pub fn flyback_lp(spec: &Spec, n: f64) -> Result<f64> {
     flyback_lp_from_ripple(
         dc.min,
         d,
-        spec.input_power(),
+        rectified_power(spec),
         spec.frequency,
         spec.flyback.ripple_ratio,
     )
@@ -189,7 +259,7 @@ pub fn primary_volt_seconds(spec: &Spec, n: f64, lp: Option<f64>, vin: f64) -> R
                 lp.ok_or_else(|| Error::input("lp", "the flyback needs Lp"))?,
                 "H",
             )?;
-            let s = flyback::state(vin, n * v1, lp, spec.input_power(), spec.frequency);
+            let s = flyback::state(vin, n * v1, lp, rectified_power(spec), spec.frequency);
             vin * s.d * t
         }
         Topology::Forward | Topology::TwoSwitchForward => v1 * n * t,
@@ -258,7 +328,7 @@ pub fn flyback_peak_current(spec: &Spec, n: f64, lp: f64, vin: f64) -> Result<f6
             .ok_or_else(|| Error::input("outputs", "give at least one output"))?,
     );
     let f = positive("frequency", spec.frequency, "Hz")?;
-    Ok(flyback::state(vin, n * v1, lp, spec.input_power(), f).i_pk)
+    Ok(flyback::state(vin, n * v1, lp, rectified_power(spec), f).i_pk)
 }
 
 fn turns_up(x: f64, field: &str) -> Result<u32> {
@@ -319,7 +389,7 @@ mod tests {
             ..Spec::demo_flyback()
         };
         let ipk = flyback_peak_current(&spec, vor / 12.5, lp, vin).unwrap();
-        let s2 = flyback::state(vin, vor, lp, spec.input_power(), f);
+        let s2 = flyback::state(vin, vor, lp, rectified_power(&spec), f);
         assert_eq!(ipk, s2.i_pk);
         assert!(primary_turns_for_flux(1.0, 0.1, 1e-12).is_err());
     }

@@ -96,7 +96,7 @@ impl Topology {
 
 /// Capacitor on the rectified line: its value, or a ripple figure.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Bulk {
     /// Bulk capacitance, F.
     Capacitance { farads: f64 },
@@ -107,7 +107,7 @@ pub enum Bulk {
 
 /// The converter's input.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", rename_all = "snake_case")]
+#[serde(tag = "kind", rename_all = "snake_case", deny_unknown_fields)]
 pub enum Input {
     /// A DC bus, V.
     Dc { min: f64, nominal: f64, max: f64 },
@@ -136,6 +136,7 @@ pub struct DcRange {
 
 /// One output.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Output {
     /// Output voltage, V.
     pub voltage: f64,
@@ -160,7 +161,7 @@ pub enum Isolation {
 
 /// How the flyback's turns ratio is chosen.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
-#[serde(tag = "kind", content = "value", rename_all = "snake_case")]
+#[serde(tag = "kind", content = "value", rename_all = "snake_case", deny_unknown_fields)]
 pub enum FlybackRatio {
     /// The ratio that gives `duty_max` at Vin min in CCM.
     FromDutyMax,
@@ -172,6 +173,7 @@ pub enum FlybackRatio {
 
 /// Flyback design choices.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct FlybackOptions {
     pub ratio: FlybackRatio,
     /// Primary ripple ratio at Vin min and full load: r = ΔIp/Ic with Ic
@@ -196,6 +198,7 @@ fn default_choke_ripple() -> f64 {
 
 /// A converter specification (SI units, °C).
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Spec {
     pub topology: Topology,
     pub input: Input,
@@ -446,13 +449,15 @@ impl Spec {
             Input::Dc { min, nominal, max } => {
                 positive("input.min", min, "V")?;
                 in_range("input.max", max, 0.0, 2000.0, "V")?;
-                in_range("input.nominal", nominal, min, max, "V")?;
+                // The order of the range first: a swapped pair is reported
+                // as such, not as a nominal value outside it.
                 if max < min {
                     return Err(Error::input(
                         "input.max",
-                        format!("must be at least input.min ({min} V)"),
+                        format!("Vin min ({min} V) is above Vin max ({max} V): swap them or correct one"),
                     ));
                 }
+                in_range("input.nominal", nominal, min, max, "V")?;
             }
             Input::Ac {
                 vac_min,
@@ -467,7 +472,7 @@ impl Spec {
                 if vac_max < vac_min {
                     return Err(Error::input(
                         "input.vac_max",
-                        format!("must be at least input.vac_min ({vac_min} V)"),
+                        format!("Vac min ({vac_min} V) is above Vac max ({vac_max} V): swap them or correct one"),
                     ));
                 }
                 in_range("input.vac_nominal", vac_nominal, vac_min, vac_max, "V")?;

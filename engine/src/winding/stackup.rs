@@ -417,9 +417,10 @@ impl<'a> Ctx<'a> {
         if let Json::Obj(kv) = self.v {
             for (k, _) in kv {
                 if !allowed.contains(&k.as_str()) {
+                    let hint = crate::json_errors::nearest(k, allowed).map(|n| format!("; did you mean \"{n}\"?")).unwrap_or_default();
                     return Err(Error::format(
                         Some(&self.field(k)),
-                        format!("unknown key \"{k}\" (expected one of: {})", allowed.join(", ")),
+                        format!("unknown key \"{k}\"{hint} (expected one of: {})", allowed.join(", ")),
                     ));
                 }
             }

@@ -1211,6 +1211,7 @@ fn check_material(name: &str, texts: &[String; 15], flat: bool) -> MatCheck {
         resistivity: v[13],
         density: v[14],
         provenance: "your own data".into(),
+        bsat_rise_intended: false,
     };
     match m.validate() {
         Ok(()) => MatCheck { errors, general: None, ok: Some(m) },

@@ -12,7 +12,7 @@ use leptos::prelude::*;
 use magwright_engine::design::solve::{Check, RESIDUAL_GAP};
 use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
-use magwright_engine::topology::{Corner, Topology};
+use magwright_engine::topology::{Corner, Mode, Topology};
 
 const CSS: &str = r#"
 .results .verdict-line { margin:0 0 .45rem; padding:.35rem .6rem; border-radius:4px; font-weight:600; background:#eaf5ee; color:#14532d; border-left:4px solid #1e6b34; }
@@ -57,13 +57,55 @@ pub fn corner_name(c: Option<Corner>) -> &'static str {
 
 /// Value and limit of a check, in the units an engineer reads them in.
 fn check_texts(c: &Check) -> (String, String) {
+    if let Some(t) = ratio_check_texts(c) {
+        return t;
+    }
     match c.unit.as_str() {
         "m" => (format!("{:.2} mm", c.value * 1e3), format!("{:.2} mm", c.limit * 1e3)),
         "T" => (format!("{:.0} mT", c.value * 1e3), format!("{:.0} mT", c.limit * 1e3)),
         "" => (format!("{:.1} %", c.value * 100.0), format!("{:.1} %", c.limit * 100.0)),
         "°C" => (format!("{:.1} °C", c.value), format!("{:.0} °C", c.limit)),
+        "×" => (format!("×{:.2}", c.value), format!("×{:.2}", c.limit)),
         u => (notation::format(c.value, u, 3), notation::format(c.limit, u, 3)),
     }
+}
+
+/// The flyback's mode check reads as a ripple ratio against the boundary
+/// (r = 2), the magnetising check as a plain ratio; `None` for the others.
+fn ratio_check_texts(c: &Check) -> Option<(String, String)> {
+    match c.key.as_str() {
+        "mode" => Some((format!("r = {:.3}", c.value), "boundary r = 2".into())),
+        "magnetising" => Some((format!("{:.2}", c.value), format!("{:.2}", c.limit))),
+        _ => None,
+    }
+}
+
+fn mode_text(m: Mode) -> &'static str {
+    match m {
+        Mode::Ccm => "CCM",
+        Mode::Boundary => "boundary",
+        Mode::Dcm => "DCM",
+    }
+}
+
+/// The flyback's conduction mode at both corners, as wound (a report field).
+fn mode_tile(r: &Report) -> Option<impl IntoView> {
+    let c = r.conduction.as_ref()?;
+    let lo = c.corners.iter().find(|k| k.corner == Corner::VinMin)?;
+    let hi = c.corners.iter().find(|k| k.corner == Corner::VinMax)?;
+    Some(tile(
+        "mode",
+        "Mode at Vin min / max",
+        format!("{} / {}", mode_text(lo.mode), mode_text(hi.mode)),
+        lo.ripple_ratio,
+        format!(
+            "ripple ratio {:.2} / {:.2} (asked {:.2} {})",
+            lo.ripple_ratio,
+            hi.ripple_ratio,
+            c.requested_ripple_ratio,
+            mode_text(c.requested)
+        ),
+    ))
 }
 
 /// Failing checks first (worst margin first), then binding, then the rest.
@@ -124,6 +166,10 @@ fn short_label(c: &Check) -> String {
         "duty" => "Duty".into(),
         "switch_voltage" => "Switch voltage".into(),
         "curie" => "Curie − 20 K".into(),
+        "mode" => "Mode as wound".into(),
+        "magnetising" => "Magnetising in dead time".into(),
+        "loss_budget" => "Loss budget share".into(),
+        "material_range" => "Material data range".into(),
         _ => c.label.clone(),
     }
 }
@@ -170,6 +216,7 @@ pub fn gap_text(r: &Report) -> String {
                 )
             }
         },
+        None if r.core.is_one_piece() => "none: one-piece core, no residual gap".into(),
         None => format!("none: mated halves ({:.0} µm residual assumed)", RESIDUAL_GAP * 1e6),
     }
 }
@@ -192,6 +239,7 @@ fn mm(x: f64) -> String {
 /// Where the gap is (the tile's second line).
 fn gap_place(r: &Report) -> String {
     match (&r.gap, r.gap_placement) {
+        (None, _) if r.core.is_one_piece() => "one-piece core, no residual gap".into(),
         (None, _) => format!("mated halves, {:.0} µm residual", RESIDUAL_GAP * 1e6),
         (Some(_), GapPlacement::CentreLeg) => "ground in the centre leg".into(),
         (Some(g), GapPlacement::Spacer) => format!("spacer in every leg ({:.3} mm in the path)", g.path_gap * 1e3),
@@ -282,6 +330,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                 <p class="turns-line" data-testid="turns">{turns}</p>
                 <div class="tiles" data-testid="key-figures">
                     {tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new())}
+                    {mode_tile(&r)}
                     {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, format!("AL {} /turn²", notation::format(r.al, "H", 3)))}
                     {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
                     {tile("gap", "Gap", r.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), r.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(&r))}
@@ -348,5 +397,19 @@ mod tests {
         assert!(o[first_plain..].iter().all(|c| c.pass && !c.binding));
         let (head, _) = verdict(&r);
         assert_eq!(head, "Fails 1 check");
+    }
+
+    /// The flyback's mode check and figures read as ripple ratios, not as
+    /// percentages (the engine's report fields, shown as they are).
+    #[test]
+    fn mode_check_reads_as_a_ripple_ratio() {
+        let r = magwright_engine::design::evaluate(&Design::demo_flyback()).expect("demo evaluates");
+        let k = r.checks.iter().find(|k| k.key == "mode").expect("a mode check");
+        let (v, l) = check_texts(k);
+        assert_eq!(v, format!("r = {:.3}", k.value));
+        assert_eq!(l, "boundary r = 2");
+        assert_eq!(short_label(k), "Mode as wound");
+        let c = r.conduction.as_ref().expect("flyback conduction");
+        assert_eq!(mode_text(c.corners[0].mode), "CCM");
     }
 }

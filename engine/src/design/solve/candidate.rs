@@ -59,7 +59,8 @@ pub(super) struct Ctx<'a> {
     pub(super) prep: &'a Prepared,
     /// The design ratio Np/Ns1.
     pub(super) n: f64,
-    /// The flyback's target Lp.
+    /// The flyback's Lp estimate at the design ratio (each candidate then
+    /// derives its own from its turns as wound).
     pub(super) lp: Option<f64>,
 }
 
@@ -100,6 +101,14 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
         reset,
     };
     let gcore = GapCore::from_core(core)?;
+    // The flyback's Lp is taken from the turns as wound, so the ripple ratio
+    // (and with it the mode) asked for holds at Vin min and full load after
+    // rounding (`sizing::flyback_lp_as_wound`); `lp` was the estimate that
+    // chose the turns.
+    let lp = match lp {
+        Some(_) => Some(sizing::flyback_lp_as_wound(spec, &turns)?),
+        None => None,
+    };
     let (inductance, al, gap) = match lp {
         Some(l) => {
             let g = gap::solve_gap_for_inductance(
@@ -122,7 +131,7 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
             let al = gap::al_value(
                 &gcore,
                 material.mu_i,
-                RESIDUAL_GAP,
+                core.residual_gap(),
                 gap::GapPlacement::CentreLeg,
                 false,
             )?;

@@ -109,6 +109,10 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         None,
         "20 K below the Curie temperature".into(),
     ));
+    checks.extend(mode_check_of(design, c));
+    checks.extend(super::balance::magnetising_check(design, c.turns.primary, &c.waves));
+    checks.push(loss_budget(x));
+    checks.push(material_range(x));
     let min_margin = checks
         .iter()
         .filter(|k| k.pass)
@@ -118,6 +122,92 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         k.binding = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
+}
+
+/// The flyback's "mode" check (see [`super::mode`]); none for the others.
+fn mode_check_of(design: &Design, c: &Candidate) -> Option<Check> {
+    let cond = super::mode::conduction(design, &c.turns, c.inductance, &c.waves)?;
+    super::mode::mode_check(&cond)
+}
+
+/// Energy balance: the magnetic's loss at its operating temperature (the
+/// loss corner) against its share of the converter's loss budget,
+/// `choices.magnetic_loss_share`·(Pin − Pout) with Pin = Pout/η from the
+/// spec's efficiency. With a share of at most 1 a passing design keeps
+/// Pout + magnetic loss ≤ Pin (conservation of energy; the share and its
+/// default are common practice, no source: see `DEFAULT_MAGNETIC_LOSS_SHARE`).
+pub(super) fn loss_budget(x: &CheckInputs) -> Check {
+    let spec = &x.design.spec;
+    let share = x.design.choices.magnetic_loss_share;
+    let (p_out, p_in) = (spec.output_power(), spec.input_power());
+    let budget = (p_in - p_out).max(0.0);
+    check(
+        "loss_budget",
+        "Magnetic loss against its share of the loss budget",
+        x.thermal.loss,
+        share * budget,
+        "W",
+        Some(x.loss_corner),
+        format!(
+            "{:.0} % of Pin − Pout = {:.3} W (Pout {:.3} W at η {:.3})",
+            share * 100.0,
+            budget,
+            p_out,
+            spec.efficiency
+        ),
+    )
+}
+
+/// Material data range: the core-loss point (frequency, ΔB/2) of each line
+/// corner against the material's fitted ranges, by the one rule of
+/// [`crate::loss::range`] (within ×1.25 of the range: extrapolated, passes
+/// with a warning; beyond: fails). Value: the larger outside factor of
+/// the two corners (at most 1 inside the data); limit: the band.
+pub(super) fn material_range(x: &CheckInputs) -> Check {
+    let s = &x.material.steinmetz;
+    let waves = &x.c.waves;
+    let mut worst: Option<(Corner, crate::loss::DataRange)> = None;
+    for (corner, op) in [(Corner::VinMin, &waves.at_vin_min), (Corner::VinMax, &waves.at_vin_max)] {
+        let r = crate::loss::data_range_of(s, &op.flux);
+        if worst.as_ref().is_none_or(|w| r.factor > w.1.factor) {
+            worst = Some((corner, r));
+        }
+    }
+    let (corner, r) = match worst {
+        Some((c, r)) => (Some(c), r),
+        None => (None, crate::loss::data_range(s, x.design.spec.frequency, 0.0)),
+    };
+    let what = if r.f_factor >= r.b_factor { "frequency" } else { "flux amplitude" };
+    let note = match r.verdict {
+        crate::loss::RangeVerdict::Inside => format!(
+            "{:.1} kHz, ΔB/2 {:.1} mT inside the fit ({:.0}–{:.0} kHz, {:.0}–{:.0} mT)",
+            r.frequency / 1e3,
+            r.b_amplitude * 1e3,
+            s.f_min / 1e3,
+            s.f_max / 1e3,
+            s.b_min * 1e3,
+            s.b_max * 1e3
+        ),
+        _ => format!(
+            "{what} ×{:.2} outside the fit ({:.1} kHz, ΔB/2 {:.1} mT against {:.0}–{:.0} kHz, {:.0}–{:.0} mT): core loss extrapolated",
+            r.factor,
+            r.frequency / 1e3,
+            r.b_amplitude * 1e3,
+            s.f_min / 1e3,
+            s.f_max / 1e3,
+            s.b_min * 1e3,
+            s.b_max * 1e3
+        ),
+    };
+    check(
+        "material_range",
+        "Core-loss point within the material's data",
+        r.factor,
+        crate::loss::DATA_RANGE_BAND,
+        "×",
+        corner,
+        note,
+    )
 }
 
 pub(super) fn check(

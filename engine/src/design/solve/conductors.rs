@@ -310,7 +310,7 @@ pub(super) fn auto_conductor(
 /// Insulating film wound between foil turns, m (common practice, no source).
 pub(super) const FOIL_FILM: f64 = 0.025e-3;
 
-pub(super) fn fixed_conductor(w: &WireChoice, breadth: f64) -> Result<(Conductor, u32)> {
+pub(crate) fn fixed_conductor(w: &WireChoice, breadth: f64) -> Result<(Conductor, u32)> {
     let par = |p: u32| -> Result<u32> {
         if p == 0 || p > 100 {
             return Err(Error::input(

@@ -132,7 +132,16 @@ pub(super) fn finish(
             warnings.push(w.clone());
         }
     }
-    for w in operating.core.warnings.iter().map(|w| w.message()) {
+    // Core-loss warnings of both corners, each naming its corner.
+    for w in super::warnings::core_loss_warnings(
+        prep,
+        material,
+        core,
+        &c.waves,
+        loss_corner,
+        &operating.core,
+        t_loss,
+    ) {
         if !warnings.contains(&w) {
             warnings.push(w);
         }
@@ -169,6 +178,7 @@ pub(super) fn finish(
     let _ = n_design;
     // The switch node counts for the hazardous-voltage cautions too.
     let cautions = spec.cautions_with_switch(c.waves.get("switch_voltage").map(|w| w.value));
+    let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -184,6 +194,7 @@ pub(super) fn finish(
         al: c.al,
         gap: c.gap,
         gap_placement: ch.gap_placement,
+        conduction,
         waveforms: c.waves,
         wires: c.wires,
         stackup: c.stackup,

@@ -19,7 +19,8 @@
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
-//!    residual gap of 10 µm per mated pair (common practice, from memory).
+//!    residual gap of 10 µm per mated pair (common practice, from memory);
+//!    a one-piece core (a ring) has no mating faces and no residual gap.
 //! 5. **Wire**: window area shared between windings in proportion to their
 //!    ampere-turns N·Irms, A_k = α_k·Ku·Wa/N_k (Erickson & Maksimovic 2nd ed.
 //!    §15.1.4, optimal allocation of window area); each area realised as one
@@ -36,11 +37,15 @@
 //!    temperature, window build, duty, switch voltage; each with its margin,
 //!    the ones that bind marked.
 
+mod balance;
 mod candidate;
 mod checks;
 mod conductors;
+pub(crate) use conductors::fixed_conductor;
 mod finish;
+pub mod mode;
 mod report;
+mod warnings;
 
 use crate::core::Core;
 use crate::design::file::{Choices, Design, TurnsRule};
@@ -54,8 +59,9 @@ pub use candidate::{core_sense, currents_of};
 use conductors::*;
 pub use report::*;
 
-/// Residual gap of a mated, ungapped core pair, m (common practice, from memory).
-pub const RESIDUAL_GAP: f64 = 10e-6;
+/// Residual gap of a mated, ungapped core pair, m (common practice, from
+/// memory); one-piece cores have none ([`Core::residual_gap`]).
+pub const RESIDUAL_GAP: f64 = crate::core::RESIDUAL_GAP;
 
 /// Evaluates a design file.
 pub fn evaluate(design: &Design) -> Result<Report> {
@@ -92,6 +98,7 @@ pub fn evaluate_with(
     let spec = &design.spec;
     spec.validate()?;
     check_choices(&design.choices)?;
+    check_temperature_limit(spec, material)?;
     let ch = &design.choices;
     let n = sizing::turns_ratio(spec)?;
     let b_auto = material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin);
@@ -183,7 +190,7 @@ pub fn sat_scale(core: &Core) -> f64 {
     }
 }
 
-fn check_choices(ch: &Choices) -> Result<()> {
+pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     crate::error::in_range(
         "choices.saturation_margin",
         ch.saturation_margin,
@@ -225,6 +232,13 @@ fn check_choices(ch: &Choices) -> Result<()> {
     if let Some(m) = ins.margin {
         crate::error::in_range("choices.insulation.margin", m, 0.0, 20e-3, "m")?;
     }
+    crate::error::in_range(
+        "choices.magnetic_loss_share",
+        ch.magnetic_loss_share,
+        0.01,
+        1.0,
+        "(share of Pin − Pout)",
+    )?;
     if let Some(v) = ch.switch_voltage_rating {
         crate::error::in_range("choices.switch_voltage_rating", v, 1.0, 10e3, "V")?;
     }
@@ -235,6 +249,27 @@ fn check_choices(ch: &Choices) -> Result<()> {
                 format!("must be 1 to {} turns", topology::MAX_TURNS),
             ));
         }
+    }
+    Ok(())
+}
+
+/// The hot-spot limit must lie below the material's Curie temperature:
+/// at the Curie point a ferrite stops being ferrimagnetic (μ → 1, Bsat → 0),
+/// so no design can be judged there (common practice, no source). The
+/// `curie` check then keeps the operating temperature 20 K below it.
+fn check_temperature_limit(spec: &Spec, material: &Material) -> Result<()> {
+    if spec.hot_spot_max >= material.curie_c {
+        return Err(Error::input(
+            "spec.hot_spot_max",
+            format!(
+                "{:.0} °C is at or above the Curie temperature of {} ({:.0} °C), where the ferrite stops being magnetic: \
+                 lower the hot-spot limit below {:.0} °C or choose a material with a higher Curie point",
+                spec.hot_spot_max,
+                material.name,
+                material.curie_c,
+                material.curie_c - 20.0
+            ),
+        ));
     }
     Ok(())
 }

@@ -5,7 +5,7 @@ use crate::gap::{self, GapAl};
 use crate::loss::CoreLoss;
 use crate::material::Material;
 use crate::thermal::Equilibrium;
-use crate::topology::{Corner, DcRange, Topology, Turns, WorstCase};
+use crate::topology::{Corner, DcRange, Mode, Topology, Turns, WorstCase};
 use crate::winding::fit::FitReport;
 use crate::winding::loss::LossReport;
 use crate::winding::stackup::StackUp;
@@ -14,7 +14,9 @@ use serde::Serialize;
 /// One pass/fail figure.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Check {
-    /// Key: "saturation", "temperature", "window", "duty", "switch_voltage", "curie".
+    /// Key: "saturation", "temperature", "window", "duty", "switch_voltage",
+    /// "curie", "loss_budget", "material_range", "mode" (flyback),
+    /// "magnetising" (push-pull and bridges).
     pub key: String,
     pub label: String,
     pub value: f64,
@@ -44,6 +46,28 @@ pub struct WireSummary {
     pub current_density: f64,
     /// Chosen automatically (false: the user fixed it).
     pub automatic: bool,
+}
+
+/// The flyback's conduction mode at one line corner, full load, as wound.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ConductionCorner {
+    pub corner: Corner,
+    /// DC input at the corner, V.
+    pub vin: f64,
+    pub mode: Mode,
+    /// Ripple ratio in the sense of `spec.flyback.ripple_ratio`: ΔIp/Ic in
+    /// CCM, 2 at the boundary, 2·Lb/Lp above it (DCM).
+    pub ripple_ratio: f64,
+}
+
+/// The flyback's conduction mode: asked for and as wound at each corner.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Conduction {
+    /// The mode the spec's ripple ratio asks for at Vin min, full load.
+    pub requested: Mode,
+    pub requested_ripple_ratio: f64,
+    /// Vin min, then Vin max.
+    pub corners: Vec<ConductionCorner>,
 }
 
 /// Losses at one corner and one temperature.
@@ -103,6 +127,9 @@ pub struct Report {
     pub gap: Option<GapAl>,
     pub gap_placement: gap::GapPlacement,
     pub waveforms: WorstCase,
+    /// Flyback: the conduction mode asked for and as wound at each corner
+    /// (`None` for the other topologies).
+    pub conduction: Option<Conduction>,
     pub wires: Vec<WireSummary>,
     pub stackup: StackUp,
     /// The stack-up in its JSON schema (what the page exports); filled by

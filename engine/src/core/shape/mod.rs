@@ -71,6 +71,16 @@ use crate::error::{non_negative, positive, Error, Result};
 use serde::{Deserialize, Serialize};
 use std::f64::consts::PI;
 
+mod etype;
+mod pot;
+mod ring;
+mod round;
+
+pub use ring::ring_constants;
+use etype::rect_e;
+use pot::pot;
+use round::{block_outer_area, round_e};
+
 /// Density of a typical MnZn ferrite, kg/m³ (typical, from memory).
 pub const FERRITE_DENSITY: f64 = 4800.0;
 
@@ -294,84 +304,6 @@ impl Chain {
             amin: self.amin,
         }
     }
-}
-
-/// IEC 60205 constants of a ring of radii r1 < r2 and height h (closed form):
-/// C1 = 2π / (h·ln(r2/r1)), C2 = 2π·(1/r1 − 1/r2) / (h²·ln³(r2/r1)).
-/// Amin is the physical section h·(r2 − r1). Note that for a ring the IEC
-/// Ae is *smaller* than that section (the flux crowds at the inner radius),
-/// the one family where Ae < Amin.
-pub fn ring_constants(r1: f64, r2: f64, h: f64) -> Constants {
-    let ln = (r2 / r1).ln();
-    Constants {
-        c1: 2.0 * PI / (h * ln),
-        c2: 2.0 * PI * (1.0 / r1 - 1.0 / r2) / (h * h * ln * ln * ln),
-        amin: h * (r2 - r1),
-    }
-}
-
-/// The pieces of a general E-type pair (all areas total, see module docs).
-#[derive(Debug, Clone, Copy)]
-struct ETypePieces {
-    /// Depth of the yokes (C).
-    depth: f64,
-    /// Centre-leg section.
-    a_centre: f64,
-    /// Total outer-leg section.
-    a_outer: f64,
-    /// Window height (centre-leg length between the yokes).
-    window_height: f64,
-    /// Yoke heights of the two halves (or half and plate).
-    h_top: f64,
-    h_bottom: f64,
-    /// Yoke length from centre-leg face to outer-leg face, (E − F)/2.
-    yoke_length: f64,
-}
-
-fn etype_constants(p: &ETypePieces) -> Constants {
-    let mut ch = Chain::new();
-    ch.piece(p.window_height, p.a_centre);
-    ch.piece(p.window_height, p.a_outer);
-    let w_outer = p.a_outer / (2.0 * p.depth);
-    let w_centre = p.a_centre / (2.0 * p.depth);
-    for h in [p.h_top, p.h_bottom] {
-        let a_yoke = 2.0 * p.depth * h;
-        ch.piece(p.yoke_length, a_yoke);
-        ch.corner(PI * (w_outer + h) / 8.0, 0.5 * (p.a_outer + a_yoke));
-        ch.corner(PI * (w_centre + h) / 8.0, 0.5 * (p.a_centre + a_yoke));
-    }
-    ch.done()
-}
-
-/// ∫₀ˣ min(√(R² − t²), c) dt for 0 ≤ x ≤ R: a quarter of a disk of radius
-/// R clipped to the band |y| ≤ c, up to abscissa x. Elementary calculus:
-/// ∫√(R² − t²) dt = ½·(t·√(R² − t²) + R²·asin(t/R)).
-fn clipped_disk_quarter(r: f64, c: f64, x: f64) -> f64 {
-    let x = x.clamp(0.0, r);
-    let prim = |t: f64| {
-        0.5 * (t * (r * r - t * t).max(0.0).sqrt() + r * r * (t / r).clamp(-1.0, 1.0).asin())
-    };
-    if c >= r {
-        return prim(x);
-    }
-    let x0 = (r * r - c * c).sqrt();
-    if x <= x0 {
-        c * x
-    } else {
-        c * x0 + prim(x) - prim(x0)
-    }
-}
-
-/// Total outer-leg section of a block A × C (A along x, C along y) with a
-/// round window of diameter E centred in it, clipped by the block's faces,
-/// and `slots` slots of width G from the window to the faces (G < E).
-/// Area = A·C − (disk ∩ block) − slots × (slot strip outside the disk).
-fn block_outer_area(a: f64, c: f64, e: f64, g: f64, slots: u32) -> f64 {
-    let r = 0.5 * e;
-    let half_c = 0.5 * c;
-    let disk = 4.0 * clipped_disk_quarter(r, half_c, r);
-    let slot = g * half_c - 2.0 * clipped_disk_quarter(r, half_c, 0.5 * g);
-    a * c - disk - f64::from(slots) * slot
 }
 
 /// Typical bobbin: (winding breadth, winding height, wall t_w) for a window
@@ -673,160 +605,6 @@ impl Shape {
     }
 }
 
-/// Rectangular-centre-leg E types (E, EF, EFD, planar). `d_bottom` is the
-/// window height of the second half (None: a plate), `h_bottom` its yoke
-/// (or plate) height. `a_centre` and `turn0` (turn perimeter on the bare leg)
-/// describe the centre leg.
-#[allow(clippy::too_many_arguments)]
-fn rect_e(
-    a: f64,
-    b: f64,
-    c: f64,
-    d: f64,
-    e: f64,
-    f: f64,
-    a_centre: f64,
-    turn0: f64,
-    d_bottom: Option<f64>,
-    h_bottom: f64,
-) -> Result<Geometry> {
-    let hw = d + d_bottom.unwrap_or(0.0);
-    let ww = 0.5 * (e - f);
-    let a_outer = (a - e) * c;
-    let h_top = b - d;
-    let pieces = ETypePieces {
-        depth: c,
-        a_centre,
-        a_outer,
-        window_height: hw,
-        h_top,
-        h_bottom,
-        yoke_length: ww,
-    };
-    let (breadth, height, t_w) = bobbin(hw, ww);
-    let total_height = b + d_bottom.map_or(h_bottom, |_| b);
-    let half_volume = a * c * h_top + (a_outer + a_centre) * d;
-    let volume = match d_bottom {
-        Some(_) => 2.0 * half_volume,
-        None => half_volume + a * c * h_bottom,
-    };
-    Ok(Geometry {
-        constants: etype_constants(&pieces),
-        window_area: ww * hw,
-        window_height: hw,
-        winding_breadth: breadth,
-        winding_height: height,
-        turn_length_inner: turn0 + 2.0 * PI * t_w,
-        surface_area: 2.0 * (a * total_height + a * c + total_height * c),
-        volume,
-    })
-}
-
-/// Round-centre-leg E types (ETD, ER, PQ, RM, EP): pair of equal halves.
-/// `a_outer` is the total outer-leg section from the plan.
-#[allow(clippy::too_many_arguments)]
-fn round_e(
-    a: f64,
-    b: f64,
-    c: f64,
-    d: f64,
-    e: f64,
-    f: f64,
-    hole: f64,
-    a_outer: f64,
-) -> Result<Geometry> {
-    check_area(
-        "a",
-        a_outer,
-        "outer legs (the window takes the whole block)",
-    )?;
-    let a_centre = 0.25 * PI * (f * f - hole * hole);
-    let hw = 2.0 * d;
-    let ww = 0.5 * (e - f);
-    let h = b - d;
-    let pieces = ETypePieces {
-        depth: c,
-        a_centre,
-        a_outer,
-        window_height: hw,
-        h_top: h,
-        h_bottom: h,
-        yoke_length: ww,
-    };
-    let (breadth, height, t_w) = bobbin(hw, ww);
-    Ok(Geometry {
-        constants: etype_constants(&pieces),
-        window_area: ww * hw,
-        window_height: hw,
-        winding_breadth: breadth,
-        winding_height: height,
-        turn_length_inner: PI * (f + 2.0 * t_w),
-        surface_area: 2.0 * (a * 2.0 * b + a * c + 2.0 * b * c),
-        volume: 2.0 * (a * c * h + (a_outer + a_centre) * d),
-    })
-}
-
-/// Pot core pair (module docs: radial yoke in closed form).
-fn pot(d1: f64, d2: f64, d3: f64, d4: f64, h1: f64, h2: f64, slot: f64) -> Result<Geometry> {
-    for (n, v) in [("d1", d1), ("d2", d2), ("d3", d3), ("h1", h1), ("h2", h2)] {
-        pos(n, v)?;
-    }
-    non_negative("shape.d4", d4, "m")?;
-    non_negative("shape.slot_width", slot, "m")?;
-    less(("d2", d2), ("d1", d1), "the outer wall needs a thickness")?;
-    less(
-        ("d3", d3),
-        ("d2", d2),
-        "the centre post must be narrower than the window",
-    )?;
-    less(
-        ("d4", d4),
-        ("d3", d3),
-        "the hole must be narrower than the centre post",
-    )?;
-    less(
-        ("h2", h2),
-        ("h1", h1),
-        "the window height must leave base plates",
-    )?;
-    let (r1, r2, r3, r4) = (0.5 * d1, 0.5 * d2, 0.5 * d3, 0.5 * d4);
-    let h = 0.5 * (h1 - h2);
-    let a_centre = PI * (r3 * r3 - r4 * r4);
-    let a_wall = PI * (r1 * r1 - r2 * r2) - 2.0 * slot * (r1 - r2);
-    check_area("slot_width", a_wall, "outer wall (the slots are too wide)")?;
-    let mut ch = Chain::new();
-    ch.piece(h2, a_centre);
-    ch.piece(h2, a_wall);
-    // Two base plates: radial flux through cylinders of area 2π·r·h, in
-    // series from r3 to r2: ∫dr/(2πrh) and ∫dr/(2πrh)².
-    let ln = (r2 / r3).ln();
-    ch.c1 += 2.0 * ln / (2.0 * PI * h);
-    ch.c2 += 2.0 * (1.0 / r3 - 1.0 / r2) / (4.0 * PI * PI * h * h);
-    ch.amin = ch.amin.min(2.0 * PI * r3 * h);
-    for _ in 0..2 {
-        ch.corner(
-            PI * ((r3 - r4) + h) / 8.0,
-            0.5 * (a_centre + 2.0 * PI * r3 * h),
-        );
-        ch.corner(
-            PI * ((r1 - r2) + h) / 8.0,
-            0.5 * (a_wall + 2.0 * PI * r2 * h),
-        );
-    }
-    let ww = r2 - r3;
-    let (breadth, height, t_w) = bobbin(h2, ww);
-    Ok(Geometry {
-        constants: ch.done(),
-        window_area: ww * h2,
-        window_height: h2,
-        winding_breadth: breadth,
-        winding_height: height,
-        turn_length_inner: 2.0 * PI * (r3 + t_w),
-        surface_area: 2.0 * PI * r1 * h1 + 2.0 * PI * r1 * r1,
-        volume: 2.0 * h * PI * (r1 * r1 - r4 * r4) + h2 * (a_centre + a_wall),
-    })
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -834,65 +612,6 @@ mod tests {
     fn mm(v: f64) -> f64 {
         v * 1e-3
     }
-
-    // Elementary geometry: the clipped-disk integral against a brute-force
-    // grid count (midpoint rule on a fine grid), for a disk wider and
-    // narrower than the band.
-    #[test]
-    fn clipped_disk_matches_grid_count() {
-        for (r, c, x) in [
-            (1.0, 0.6, 0.8),
-            (1.0, 0.6, 0.3),
-            (1.0, 1.5, 0.9),
-            (1.0, 0.2, 1.0),
-        ] {
-            let n = 2000;
-            let mut area = 0.0;
-            for i in 0..n {
-                let t = (i as f64 + 0.5) * x / n as f64;
-                for j in 0..n {
-                    let y = (j as f64 + 0.5) * c / n as f64;
-                    if t * t + y * y <= r * r {
-                        area += (x / n as f64) * (c / n as f64);
-                    }
-                }
-            }
-            let got = clipped_disk_quarter(r, c, x);
-            assert!(
-                (got - area).abs() < 2e-3 * area.max(1e-3),
-                "r {r} c {c} x {x}: {got} vs {area}"
-            );
-        }
-    }
-
-    // Elementary geometry: a block with a window that fits inside (no
-    // clipping, no slot) keeps A·C − π·E²/4.
-    #[test]
-    fn block_without_clipping_is_rectangle_minus_disk() {
-        let got = block_outer_area(4.0, 3.0, 2.0, 0.0, 0);
-        assert!((got - (12.0 - PI)).abs() < 1e-12);
-    }
-
-    // Pot yoke closed form against a series sum of thin cylindrical shells
-    // (IEC 60205 series chain, each shell l = dr, A = 2π·r·h).
-    #[test]
-    fn radial_yoke_closed_form_matches_shell_sum() {
-        let (r3, r2, h) = (3.0e-3, 7.5e-3, 1.7e-3);
-        let n = 200_000;
-        let dr = (r2 - r3) / n as f64;
-        let (mut c1, mut c2) = (0.0, 0.0);
-        for i in 0..n {
-            let r = r3 + (i as f64 + 0.5) * dr;
-            let a = 2.0 * PI * r * h;
-            c1 += dr / a;
-            c2 += dr / (a * a);
-        }
-        let c1_closed = (r2 / r3).ln() / (2.0 * PI * h);
-        let c2_closed = (1.0 / r3 - 1.0 / r2) / (4.0 * PI * PI * h * h);
-        assert!((c1 - c1_closed).abs() < 1e-8 * c1_closed);
-        assert!((c2 - c2_closed).abs() < 1e-8 * c2_closed);
-    }
-
     // IEC 60205: a chain of equal pieces is a uniform core, Ae = A, le = Σl.
     #[test]
     fn uniform_chain_is_itself() {
