@@ -318,7 +318,7 @@ fn material() -> impl Strategy<Value = MaterialChoice> {
 pub fn design() -> impl Strategy<Value = Design> {
     (spec(), core(), material(), choices()).prop_map(|(spec, core, material, choices)| Design {
         schema: "magwright-design".into(),
-        version: 1,
+        version: magwright_engine::design::file::VERSION,
         name: "random".into(),
         spec,
         core,

@@ -199,7 +199,7 @@ pub fn plausible() -> impl Strategy<Value = Design> {
         })
         .prop_map(|((material, ci, rule, il), spec)| Design {
             schema: "magwright-design".into(),
-            version: 1,
+            version: magwright_engine::design::file::VERSION,
             name: "invariants".into(),
             core: CoreChoice::Library {
                 designation: core_for(&spec, ci),
