@@ -102,6 +102,8 @@ test('a version-1 design file opens converted, with a note', async () => {
   const d = cli(['demo', 'flyback']);
   const m = cli(['materials']).find((x) => x.name === 'MnZn-200k');
   d.version = 1;
+  d.spec.hot_spot_max = d.spec.temperature_max;
+  delete d.spec.temperature_max;
   d.material = { from: 'custom', material: { ...m, name: 'Old grade', temp_factor: { ct2: 1.2e-4, ct1: 0.024, ct0: 2.5 } } };
   const text = JSON.stringify(d, null, 2);
   await page.focus('[data-testid="open"]');
@@ -111,10 +113,13 @@ test('a version-1 design file opens converted, with a note', async () => {
   const status = await page.textContent('[data-testid="file-status"]');
   assert.match(status, /version 1.*converted to version 2/);
   assert.match(status, /least loss at 100/);
+  assert.match(status, /hot_spot_max is now spec\.temperature_max/);
   // The saved design is version 2 in the new form, with the scale folded into k.
   await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').material?.material?.name === 'Old grade');
   const saved = JSON.parse(await page.evaluate(() => localStorage.getItem('magwright.design')));
   assert.equal(saved.version, 2);
+  assert.equal(saved.spec.temperature_max, d.spec.hot_spot_max);
+  assert.equal(saved.spec.hot_spot_max, undefined);
   const tf = saved.material.material.temp_factor;
   assert.ok(close(tf.least_loss_c, 100) && close(tf.curvature, 1.2e-4 / 1.3));
   assert.ok(close(saved.material.material.steinmetz.k, m.steinmetz.k * 1.3));
@@ -122,6 +127,35 @@ test('a version-1 design file opens converted, with a note', async () => {
   const want = cli(['evaluate', '-'], text);
   assert.ok(close(await shown(page, 'total-loss'), want.losses.total, 1e-9));
   await page.screenshot({ path: join(OUT, 'names-old-file.png') });
+  assert.deepEqual(requests, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('labels say what is computed: core temperature, margins in K, tight, Bsat at core temperature', async () => {
+  const { context, page, requests, errors } = await open();
+  const want = cli(['evaluate', '-'], cliText(['demo', 'forward']));
+  // The form's limit and the results' check and tile.
+  assert.equal(await page.textContent('label[for="f-temperature_max"]'), 'Core temp. max');
+  assert.match(await page.getAttribute('label[for="f-temperature_max"]', 'title'), /mean surface temperature.*McLyman.*hottest point runs higher/);
+  const row = page.locator('[data-testid="check-temperature"]');
+  assert.match(await row.locator('th').textContent(), /^Core temperature/);
+  // The temperature margin in kelvin: limit − value of the engine's check.
+  const t = want.checks.find((c) => c.key === 'temperature');
+  assert.equal((await page.textContent('[data-testid="margin-temperature"]')).trim(), `+${(t.limit - t.value).toFixed(1)} K`);
+  assert.match(await page.locator('[data-testid="check-saturation"] th').textContent(), /Bsat at core temp\./);
+  // A check under 10 % margin (duty of the demo) is tagged "tight".
+  const tight = want.checks.filter((c) => c.pass && c.binding).map((c) => c.key);
+  assert.ok(tight.length > 0);
+  for (const k of tight) assert.match(await page.locator(`[data-testid="check-${k}"] th`).textContent(), /tight/);
+  assert.doesNotMatch(await page.textContent('[data-testid="panel-results"]'), /binding|Hot spot/);
+  assert.doesNotMatch(await page.innerText('main'), /Hot spot|hot-spot/i);
+  // Fields in the units the results use.
+  const demo = cli(['demo', 'forward']);
+  assert.equal(Number(await page.inputValue('[id="f-duty_max"]')) / 100, demo.spec.duty_max);
+  assert.equal(await page.textContent('.field:has([id="f-duty_max"]) .unit'), '%');
+  assert.equal(await page.textContent('.field:has([id="f-choices.insulation.tape_thickness"]) .unit'), 'mm');
+  await page.screenshot({ path: join(OUT, 'names-labels.png'), fullPage: true });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

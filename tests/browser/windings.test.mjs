@@ -201,8 +201,8 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   }
   assert.ok(close(Number(await page.getAttribute('[data-testid="leakage"]', 'data-si')), want.leakage, 1e-6));
   assert.equal(Number(await page.getAttribute('[data-testid="nreset"]', 'data-si')), want.turns.reset);
-  // A hot-spot limit below the operating temperature fails; it goes first, in red.
-  await page.focus('#f-hot_spot_max');
+  // A core temperature limit below the operating temperature fails; it goes first, in red.
+  await page.focus('#f-temperature_max');
   await page.keyboard.press('Control+A');
   await page.keyboard.type('55', { delay: 20 });
   await page.waitForFunction(() => document.querySelector('[data-testid="verdict"]')?.dataset.pass === 'false');
@@ -210,7 +210,7 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   assert.equal(first.id, 'check-temperature');
   const [r, g, b] = first.colour.match(/\d+/g).map(Number);
   assert.ok(r > 130 && g < 60 && b < 60, `failing row is red (${first.colour})`);
-  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Hot spot \(-\d+ %\)/);
+  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Core temperature \(-[\d.]+ K\)/);
   await page.locator('[data-testid="panel-results"]').screenshot({ path: join(OUT, 'results-failing.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);

@@ -195,14 +195,14 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     pct("duty_max", "Duty max", Group::Converter, "Largest on-time of one switch over its period, %"),
     pct("efficiency", "Efficiency", Group::Converter, "Estimated Pout/Pin of the converter, %"),
     num("ambient", "Ambient", "°C", Group::Converter, "Air temperature around the magnetic"),
-    num("hot_spot_max", "Hot spot max", "°C", Group::Converter, "Highest temperature the magnetic may reach"),
+    num("temperature_max", "Core temp. max", "°C", Group::Converter, "Highest mean surface temperature of the magnetic (McLyman's surface-dissipation model); the winding's hottest point runs higher"),
     num("choke_ripple_ratio", "Choke ripple", "", Group::Converter, "Output choke ripple ΔI/Iout at Vin max (forward, push-pull)"),
     num("flyback.ratio", "Ratio value", "", Group::Flyback, "Reflected voltage (V) or turns ratio Np/Ns, as chosen"),
     num("flyback.ripple_ratio", "Ripple ratio", "", Group::Flyback, "ΔIp/Ip,centre at Vin min: below 2 CCM, 2 boundary, above DCM"),
     NumDef {
         prefixed: true,
         optional: true,
-        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the hot-spot limit less the margin")
+        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the core temperature limit less the margin")
     },
     pct("choices.saturation_margin", "Bsat margin", Group::Flux, "Share kept below Bsat, e.g. 20 %"),
     NumDef {
@@ -378,7 +378,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(s.duty_max),
         Some(s.efficiency),
         Some(s.ambient),
-        Some(s.hot_spot_max),
+        Some(s.temperature_max),
         Some(s.choke_ripple_ratio),
         Some(fly_value),
         Some(s.flyback.ripple_ratio),
@@ -542,7 +542,7 @@ impl Form {
             duty_max: g(ix::DUTY),
             efficiency: g(ix::EFF),
             ambient: g(ix::AMBIENT),
-            hot_spot_max: g(ix::HOT),
+            temperature_max: g(ix::HOT),
             isolation: self.isolation.get(),
             flyback: FlybackOptions {
                 ratio: match ratio {

@@ -146,7 +146,7 @@ impl Default for Insulation {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default, deny_unknown_fields)]
 pub struct Choices {
-    /// Highest peak flux density allowed, T (`None`: Bsat at the hot-spot
+    /// Highest peak flux density allowed, T (`None`: Bsat at the core temperature
     /// limit less the saturation margin).
     pub b_max: Option<f64>,
     /// Fraction kept below Bsat (0.2: stay 20 % below).
