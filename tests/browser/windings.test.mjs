@@ -42,7 +42,7 @@ async function matchesCli(page, what) {
     // Same engine, same f64 arithmetic; the wasm and native libm may differ
     // in the last bit of pow/exp, amplified a little by the thermal loop.
     assert.ok(close(got[w.name].fr, w.fr, 1e-6), `${what}: Fr of ${w.name}: page ${got[w.name].fr}, CLI ${w.fr}`);
-    assert.ok(close(got[w.name].loss, w.ac_loss, 1e-6), `${what}: loss of ${w.name}: page ${got[w.name].loss}, CLI ${w.ac_loss}`);
+    assert.ok(close(got[w.name].loss, w.total_loss, 1e-6), `${what}: loss of ${w.name}: page ${got[w.name].loss}, CLI ${w.total_loss}`);
     assert.ok(close(got[w.name].rdc, w.rdc, 1e-6), `${what}: Rdc of ${w.name}`);
   }
   return { design: JSON.parse(design), want };
@@ -237,7 +237,7 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the seconda
   assert.deepEqual(order(seeded.design), asWound.map((w) => ({ winding: w, turns: null })));
   for (const w of start.want.operating.copper.windings) {
     const now = seeded.want.operating.copper.windings.find((x) => x.name === w.name);
-    assert.ok(close(now.ac_loss, w.ac_loss, 1e-12), `seeding changes nothing: ${w.name}`);
+    assert.ok(close(now.total_loss, w.total_loss, 1e-12), `seeding changes nothing: ${w.name}`);
   }
   assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move secondary 1 section 1 up');
   assert.equal(await page.getAttribute('#order-split-3', 'aria-label'), 'Split primary section 2 in two');

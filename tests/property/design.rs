@@ -362,7 +362,7 @@ pub fn check_report(d: &Design, r: &Report) -> Result<(), String> {
             if w.fr < 1.0 - 1e-9 {
                 return Err(format!("{}: Fr = {} < 1", w.name, w.fr));
             }
-            if w.dc_loss < 0.0 || w.ac_loss < 0.0 {
+            if w.dc_loss < 0.0 || w.total_loss < 0.0 {
                 return Err(format!("{}: negative winding loss", w.name));
             }
         }
