@@ -5,7 +5,7 @@
 //! magwright sweep FILE|- [FROM TO POINTS]    loss against switching frequency (default 20k 1M 200)
 //! magwright flux-sweep FILE|- [POINTS]       loss against peak flux density at the design's frequency
 //! magwright rank FILE|-                      rank every library core × material for the design's spec
-//! magwright demo [forward|flyback|push-pull] print a demo design file
+//! magwright demo [forward|flyback|push-pull|inductor] print a demo design file
 //! magwright stackup FILE|-                   the design's winding stack-up in its JSON schema
 //! magwright cores                            the core library (effective parameters, provenance)
 //! magwright materials                        the material library (provenance)
@@ -37,7 +37,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull]  |  cores  |  materials  |  help";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials  |  help";
 
 /// Largest input read, bytes (the engine's limit, 16 MB): more than any
 /// design file (a few kB), little enough that `magwright evaluate /dev/zero`
@@ -126,7 +126,8 @@ fn run(args: &[String]) -> Result<String, String> {
             "forward" => Ok(Design::demo_forward().to_json()),
             "flyback" => Ok(Design::demo_flyback().to_json()),
             "push-pull" => Ok(Design::demo_push_pull().to_json()),
-            other => Err(format!("no demo \"{other}\" (forward, flyback, push-pull)")),
+            "inductor" => Ok(Design::demo_inductor().to_json()),
+            other => Err(format!("no demo \"{other}\" (forward, flyback, push-pull, inductor)")),
         },
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),

@@ -47,6 +47,10 @@ test('browse the core library, filter by family, pick a core and a material', as
     assert.ok(close(await shown(page, id), first.want.core[key]), id);
   }
   assert.match(await page.textContent('[data-testid="core-provenance"]'), /from memory/);
+  // ETD 34's computed values miss its published ones by more than 3 %
+  // (engine core::library::agreement): the page says so, visibly.
+  assert.match(await page.textContent('[data-testid="core-check"]'), /^Unconfirmed: computed Ae \+/);
+  assert.match(first.want.core.provenance, /^unconfirmed/);
 
   // Open the browser with the keyboard; the search box takes the focus.
   await page.focus('[data-testid="browse-cores"]');
@@ -73,6 +77,10 @@ test('browse the core library, filter by family, pick a core and a material', as
   await page.keyboard.press('Backspace');
   await page.keyboard.press('Backspace');
   await page.screenshot({ path: join(OUT, 'library-browser.png') });
+  // Each row's source column leads with the engine's mark: ETD 29 checked,
+  // ETD 34 unconfirmed (and styled as a warning).
+  assert.match(await page.textContent('tr[data-designation="ETD 29"] td.src'), /^checked: /);
+  assert.match(await page.textContent('tr[data-designation="ETD 34"] td.src.unconfirmed'), /^unconfirmed: /);
 
   // Pick ETD 29: the browser closes, the design uses it, results follow.
   await page.click('tr[data-designation="ETD 29"] [data-testid="use-core"]');

@@ -38,7 +38,7 @@ test('first visit: caution box for the 120 V switch node, standing caution, opti
   assert.ok(cliText(['--help']).includes(standing.trim()));
   // The header names every topology the page designs.
   const sub = await page.textContent('header.top .sub');
-  for (const t of ['flyback', 'forward', 'push-pull', 'half-bridge', 'full-bridge']) assert.ok(sub.includes(t), `${t} in "${sub}"`);
+  for (const t of ['flyback', 'forward', 'push-pull', 'half-bridge', 'full-bridge', 'inductor']) assert.ok(sub.includes(t), `${t} in "${sub}"`);
   // The optimiser before its first run.
   assert.match(await page.textContent('[data-testid="suggest-status"]'), /Not run yet/);
   assert.doesNotMatch(await page.textContent('[data-testid="panel-suggest"]'), /No candidate passes/);

@@ -148,6 +148,7 @@ fn spec() -> impl Strategy<Value = Spec> {
                     ripple_ratio,
                 },
                 choke_ripple_ratio,
+                inductor: None,
             },
         )
 }

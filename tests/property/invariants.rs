@@ -163,6 +163,7 @@ fn spec(f_lo: f64, f_hi: f64) -> impl Strategy<Value = Spec> {
                         ripple_ratio,
                     },
                     choke_ripple_ratio,
+                    inductor: None,
                 };
                 if let (Some(x), Ok(dc)) = (ratio, spec.dc_range()) {
                     spec.flyback.ratio =

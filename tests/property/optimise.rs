@@ -7,7 +7,8 @@
 //! * the passing set equals the brute force's: each core × material
 //!   designed on its own with `design::evaluate` (the public entry point,
 //!   the core and material chosen by name as a design file would), kept
-//!   when the report passes;
+//!   when the report's own checks pass (the output choke's verdict, a
+//!   separate magnetic, is not part of the ranking);
 //! * the rankings are those candidates sorted by volume (ties by loss) and
 //!   by loss, with the same losses, volumes and turns;
 //! * a candidate is on the Pareto front exactly when no other passing
@@ -49,7 +50,10 @@ fn brute_force(design: &Design, core_names: &[String], mat_names: &[String]) -> 
             d.core = CoreChoice::Library { designation: c.clone() };
             d.material = MaterialChoice::Library { name: m.clone() };
             if let Ok(r) = evaluate(&d) {
-                if r.pass {
+                // The optimiser ranks the transformer; the output choke is a
+                // magnetic of its own, designed for the design picked, with
+                // its own verdict (the `choke` check and member).
+                if r.checks.iter().filter(|k| k.key != "choke").all(|k| k.pass) {
                     let volume = cores::find(c).unwrap().volume;
                     out.push((c.clone(), m.clone(), r.losses.total, volume, r.turns.primary));
                 }

@@ -127,7 +127,7 @@ fn e_core_c1_by_hand() {
 ///   tables, not a nudge of the dimensions towards the number.
 #[test]
 fn every_core_against_published_effective_parameters() {
-    const CHECKED: [&str; 22] = [
+    const CHECKED: [&str; 26] = [
         "R 10/6/4",
         "R 12.5/7.5/5",
         "R 16/9.6/6.3",
@@ -138,6 +138,10 @@ fn every_core_against_published_effective_parameters() {
         "R 40/24/16",
         "E 13/7/4",
         "E 55/28/21",
+        "EFD 15/8/5",
+        "EFD 20/10/7",
+        "EFD 25/13/9",
+        "EFD 30/15/9",
         "ETD 29",
         "ETD 54",
         "E 18/4/10",
@@ -156,6 +160,7 @@ fn every_core_against_published_effective_parameters() {
         "core", "Ae mm²", "publ.", "diff", "le mm", "publ.", "diff", "Ve mm³", "publ.", "diff"
     );
     let mut unconfirmed = Vec::new();
+    let mut wrong = Vec::new();
     for c in library::all() {
         let p = library::published(&c.designation)
             .unwrap_or_else(|| panic!("{}: no published values in the table", c.designation));
@@ -177,15 +182,20 @@ fn every_core_against_published_effective_parameters() {
         let a = library::agreement(&c.designation).unwrap();
         assert_eq!(a.confirmed, within, "{}", c.designation);
         if CHECKED.contains(&c.designation.as_str()) {
-            assert!(within, "{}: {d:?} beyond 3 %", c.designation);
-            assert!(c.provenance.starts_with("checked"), "{}", c.provenance);
+            if !within {
+                wrong.push(format!("{}: {d:?} beyond 3 %", c.designation));
+            }
+            assert!(!within || c.provenance.starts_with("checked"), "{}", c.provenance);
         } else {
-            assert!(!within, "{} now agrees: add it to CHECKED", c.designation);
-            assert!(c.provenance.starts_with("unconfirmed"), "{}", c.provenance);
+            if within {
+                wrong.push(format!("{} now agrees: add it to CHECKED", c.designation));
+            }
+            assert!(within || c.provenance.starts_with("unconfirmed"), "{}", c.provenance);
             unconfirmed.push(c.designation.clone());
         }
     }
     println!("unconfirmed ({}): {}", unconfirmed.len(), unconfirmed.join(", "));
+    assert!(wrong.is_empty(), "{}", wrong.join("; "));
 }
 
 fn rel_signed(got: f64, want: f64) -> f64 {

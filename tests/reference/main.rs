@@ -5,6 +5,7 @@ mod checks;
 mod conductors;
 mod cores;
 mod design;
+mod inductor;
 mod materials;
 mod topologies;
 mod transformer;

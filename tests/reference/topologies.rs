@@ -305,6 +305,7 @@ fn fly_spec() -> Spec {
             ripple_ratio: 0.6,
         },
         choke_ripple_ratio: 0.2,
+        inductor: None,
     }
 }
 const FLY_AE: f64 = 52e-6;

@@ -14,6 +14,7 @@ use magwright_engine::design::file::{Insulation, Interleave, SectionTurns, Turns
 use magwright_engine::design::{self, Choices, CoreChoice, Design, MaterialChoice};
 use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
+use magwright_engine::topology::inductor::{Circuit, InductorOptions};
 use magwright_engine::topology::{Bulk, FlybackOptions, FlybackRatio, Input, Isolation, Output, Spec, Topology};
 use magwright_engine::Error;
 
@@ -22,7 +23,7 @@ pub type Report = design::Report;
 
 /// What the page designs, shown under its name.
 pub const TITLE: &str =
-    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters";
+    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters, and DC-biased inductors";
 
 /// The design shown to a first-time visitor: the forward demo, which passes.
 pub fn demo() -> Design {
@@ -196,7 +197,7 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     pct("efficiency", "Efficiency", Group::Converter, "Estimated Pout/Pin of the converter, %"),
     num("ambient", "Ambient", "°C", Group::Converter, "Air temperature around the magnetic"),
     num("temperature_max", "Core temp. max", "°C", Group::Converter, "Highest mean surface temperature of the magnetic (McLyman's surface-dissipation model); the winding's hottest point runs higher"),
-    num("choke_ripple_ratio", "Choke ripple", "", Group::Converter, "Output choke ripple ΔI/Iout at Vin max (forward, push-pull)"),
+    num("choke_ripple_ratio", "Choke ripple", "", Group::Converter, "Output choke ripple ΔI/Iout at Vin max (forward, push-pull, bridges); inductor: ΔI/IL at its largest"),
     num("flyback.ratio", "Ratio value", "", Group::Flyback, "Reflected voltage (V) or turns ratio Np/Ns, as chosen"),
     num("flyback.ripple_ratio", "Ripple ratio", "", Group::Flyback, "ΔIp/Ip,centre at Vin min: below 2 CCM, 2 boundary, above DCM"),
     NumDef {
@@ -262,7 +263,9 @@ pub fn label_of(key: &str) -> String {
         "topology" => "Topology".into(),
         "turns" => "Turns".into(),
         "gap" => "Gap".into(),
+        "choices" if key.starts_with("choices.choke_core") => "Choke core".into(),
         "choices" => "Choices".into(),
+        "inductor" => "Inductance".into(),
         _ => "Input".into(),
     }
 }
@@ -326,6 +329,21 @@ pub struct Form {
     pub wires: RwSignal<Vec<WireOverride>>,
     /// The sections bobbin outward when the interleaving is custom.
     pub section_order: RwSignal<Vec<SectionTurns>>,
+    /// Inductor kind: buck or boost.
+    pub circuit: RwSignal<Circuit>,
+    /// Inductor kind: the target inductance as typed (empty: from the ripple ratio).
+    pub inductance: RwSignal<String>,
+    /// The output choke's core, kept as loaded (`None`: automatic).
+    pub choke_core: RwSignal<Option<CoreChoice>>,
+}
+
+/// The inductor options of a design (defaults when it has none).
+fn inductor_of(d: &Design) -> InductorOptions {
+    d.spec.inductor.unwrap_or_default()
+}
+
+fn inductance_text(d: &Design) -> String {
+    inductor_of(d).inductance.map(|l| text_of(l, true)).unwrap_or_default()
 }
 
 /// The numeric values of a design, in [`NUMS`] order (entries the design
@@ -425,6 +443,9 @@ impl Form {
             material: RwSignal::new(d.material.clone()),
             wires: RwSignal::new(d.choices.wires.clone()),
             section_order: RwSignal::new(d.choices.section_order.clone()),
+            circuit: RwSignal::new(inductor_of(d).circuit),
+            inductance: RwSignal::new(inductance_text(d)),
+            choke_core: RwSignal::new(d.choices.choke_core.clone()),
         };
         f.set_choices(d);
         f
@@ -455,6 +476,9 @@ impl Form {
         self.material.set(d.material.clone());
         self.wires.set(d.choices.wires.clone());
         self.section_order.set(d.choices.section_order.clone());
+        self.circuit.set(inductor_of(d).circuit);
+        self.inductance.set(inductance_text(d));
+        self.choke_core.set(d.choices.choke_core.clone());
     }
 
     /// Replaces every field with the values of `d` (opening a file).
@@ -518,6 +542,23 @@ impl Form {
             }
             outputs.push(Output { voltage: v[0], current: v[1], rectifier_drop: v[2] });
         }
+        let inductor = if topology == Topology::Inductor {
+            let text = self.inductance.get();
+            let inductance = if text.trim().is_empty() {
+                None
+            } else {
+                match notation::parse(&text, "H") {
+                    Ok(l) => Some(l),
+                    Err(e) => {
+                        errs.push(("inductor.inductance", e.to_string()));
+                        None
+                    }
+                }
+            };
+            Some(InductorOptions { circuit: self.circuit.get(), inductance })
+        } else {
+            None
+        };
         if !errs.is_empty() {
             return Err(errs);
         }
@@ -553,6 +594,7 @@ impl Form {
                 ripple_ratio: g(ix::FLY_RIPPLE),
             },
             choke_ripple_ratio: g(ix::CHOKE),
+            inductor,
         };
         let choices = Choices {
             b_max: vals[ix::B_MAX],
@@ -577,6 +619,7 @@ impl Form {
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],
             magnetic_loss_share: g(ix::LOSS_SHARE),
+            choke_core: self.choke_core.get(),
         };
         Ok(Design {
             schema: design::file::SCHEMA.into(),
@@ -654,7 +697,9 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         (Topology::PushPull, "Push-pull"),
         (Topology::HalfBridge, "Half bridge"),
         (Topology::FullBridge, "Full bridge"),
+        (Topology::Inductor, "Inductor with DC bias (buck, boost)"),
     ];
+    let is_inductor = move || form.topology.get() == Topology::Inductor;
     let is_ac = move || form.input.get() == InputKind::Ac;
     let is_flyback = move || form.topology.get() == Topology::Flyback;
     let needs_value = move || form.ratio.get() != RatioKind::FromDuty;
@@ -671,6 +716,14 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
             <Pick key="isolation" label="Isolation" value=form.isolation
                 options=vec![(Isolation::Functional, "Functional"), (Isolation::Basic, "Basic"), (Isolation::Reinforced, "Reinforced")]
                 help="Sets the insulation Magwright suggests and the cautions it shows" />
+        </div>
+        <div class="fields" class:hidden=move || !is_inductor()>
+            <Pick key="inductor-circuit" label="Circuit" value=form.circuit
+                options=vec![(Circuit::Buck, "Buck (or output choke)"), (Circuit::Boost, "Boost")]
+                help="Where the inductor sits: in series with the output (buck) or the input (boost)" />
+            <Field key="inductor.inductance" label="Inductance" unit="H" text=form.inductance
+                error=field_error(outcome, "inductor.inductance")
+                help="Target inductance, e.g. 22u; empty: from the choke ripple ratio over the input range" />
         </div>
         <div class="fields" class:hidden=move || !is_flyback()>
             <Pick key="flyback-ratio" label="Flyback ratio from" value=form.ratio

@@ -174,6 +174,11 @@ pub struct Choices {
     /// a design whose magnetic loses more. 0.01 to 1; default
     /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
     pub magnetic_loss_share: f64,
+    /// Forward, push-pull and bridges: the output choke's core (`None`:
+    /// chosen from the library by least loss, `design::solve::choke`).
+    /// Left out of the file when absent.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub choke_core: Option<CoreChoice>,
 }
 
 /// Default share of the converter's loss budget for the magnetic: one half
@@ -198,6 +203,7 @@ impl Default for Choices {
             edge_time: 0.0,
             switch_voltage_rating: None,
             magnetic_loss_share: DEFAULT_MAGNETIC_LOSS_SHARE,
+            choke_core: None,
         }
     }
 }
@@ -235,6 +241,11 @@ impl Design {
     /// The 24 V push-pull demo (a scenario of our own).
     pub fn demo_push_pull() -> Design {
         Design::new("24 V push-pull", Spec::demo_push_pull(), "ETD 34", "MnZn-200k")
+    }
+
+    /// The 24 V buck inductor demo (a scenario of our own).
+    pub fn demo_inductor() -> Design {
+        Design::new("24 V to 5 V buck inductor", Spec::demo_inductor(), "E 20/10/6", "MnZn-200k")
     }
 
     /// Reads a design file, refusing foreign and future files with a

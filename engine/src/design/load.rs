@@ -44,7 +44,7 @@ impl Design {
     }
 
     /// [`Design::load`], also returning the notes of converting an older
-    /// file version (`design::upgrade`; empty for a current file).
+    /// file (`design::upgrade`; empty for a current file).
     pub fn load_noted(text: &str) -> Result<(Design, Vec<String>)> {
         let (d, notes) = Design::from_json_noted(text)?;
         d.validate()?;

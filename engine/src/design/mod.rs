@@ -9,8 +9,8 @@
 //! * [`upgrade`]: older design files converted to the current version.
 
 pub mod file;
-pub mod material_view;
 mod load;
+pub mod material_view;
 pub mod optimise;
 pub mod solve;
 pub mod sweep;

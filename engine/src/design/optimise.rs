@@ -7,6 +7,10 @@
 //! ranking is exact over the candidates, and the report counts how many
 //! were evaluated and why the rest failed. [`Optimiser`] exposes it one
 //! candidate at a time so a front end can show progress and cancel.
+//!
+//! It ranks the transformer (or inductor) itself: a forward-type design's
+//! output choke is a magnetic of its own, designed by `evaluate` for the
+//! design the user picks, with its own verdict (the report's `choke`).
 
 use super::file::{CoreChoice, Design, MaterialChoice};
 use super::solve::{evaluate_with, Prepared};

@@ -66,6 +66,9 @@ pub enum LossWarning {
     FastEdges { f_equivalent: f64, f_max: f64 },
     /// The swing's amplitude ΔB/2 lies outside the fitted range.
     FluxOutsideFit { b_pk: f64, b_min: f64, b_max: f64 },
+    /// The swing's amplitude ΔB/2 lies below the fitted range: the loss is
+    /// the bound of [`low_flux_bound`] (the fit raised by `factor`).
+    FluxBelowFit { b_pk: f64, b_min: f64, factor: f64 },
     /// B(t) is biased: mean level `b_dc`, AC amplitude `b_ac` (T).
     DcBias { b_dc: f64, b_ac: f64 },
     /// More than one maximum per period; treated as one major loop.
@@ -89,6 +92,11 @@ impl LossWarning {
             LossWarning::FluxOutsideFit { b_pk, b_min, b_max } => format!(
                 "the flux amplitude ΔB/2 = {:.1} mT is outside the material's fitted range ({:.1}–{:.1} mT): core loss is extrapolated",
                 b_pk * 1e3, b_min * 1e3, b_max * 1e3
+            ),
+            LossWarning::FluxBelowFit { b_pk, b_min, factor } => format!(
+                "the flux amplitude ΔB/2 = {:.1} mT is below the material's fitted range (from {:.1} mT): core loss is \
+                 taken as the upper bound that falls as B² below the fit (×{:.2} on the fit's extrapolation)",
+                b_pk * 1e3, b_min * 1e3, factor
             ),
             LossWarning::DcBias { b_dc, b_ac } => format!(
                 "the flux has a DC bias of {:.0} mT (AC amplitude {:.0} mT); DC bias is not modelled and raises the real core loss",
@@ -161,8 +169,28 @@ pub fn core_loss(material: &Material, b_t: &Pwl, temp_c: f64, ve: f64) -> Result
     core_loss_with(&c, material, b_t, temp_c, ve)
 }
 
+/// The factor that turns the fit's extrapolation below its flux range
+/// into an upper bound of the loss: (b_min/B)^(β − 2) for β > 2 and a
+/// flux amplitude B below the fit's `b_min`, else 1.
+///
+/// Below the fitted range a ferrite is in its low-field (Rayleigh) region:
+/// hysteresis loss per cycle goes as B³ (Rayleigh 1887) and eddy-current
+/// and residual losses as B² (classical eddy-current loss; e.g. Bertotti,
+/// Hysteresis in Magnetism, 1998, ch. 12), so from the fitted point at
+/// b_min the loss falls at least as fast as B². Continuing the fit with
+/// β > 2 would fall faster and understate it; continuing with the exponent
+/// 2 bounds it from above. With β ≤ 2 the fit itself is that bound.
+pub fn low_flux_bound(s: &crate::material::Steinmetz, b_amplitude: f64) -> f64 {
+    if b_amplitude > 0.0 && b_amplitude < s.b_min && s.beta > 2.0 {
+        (s.b_min / b_amplitude).powf(s.beta - 2.0)
+    } else {
+        1.0
+    }
+}
+
 /// [`core_loss`] with coefficients built once ([`IgseCoefficients::from_material`]
 /// of the same material). Does not re-check the material.
+/// Below the fit's flux range the loss is the bound of [`low_flux_bound`].
 pub fn core_loss_with(
     coeffs: &IgseCoefficients,
     material: &Material,
@@ -183,7 +211,9 @@ pub fn core_loss_with(
     }
     let scan = coeffs.scan(b_t)?;
     let frequency = 1.0 / b_t.period;
-    let pv_reference = coeffs.pv_of_scan(&scan, b_t.period);
+    let s = &material.steinmetz;
+    let low_flux = low_flux_bound(s, 0.5 * scan.delta_b);
+    let pv_reference = coeffs.pv_of_scan(&scan, b_t.period) * low_flux;
     let temp_factor = material.temp_factor.at(temp);
     let pv = pv_reference * temp_factor;
     let watts = pv * ve;
@@ -192,7 +222,6 @@ pub fn core_loss_with(
     }
 
     let mut warnings = Vec::new();
-    let s = &material.steinmetz;
     if frequency < s.f_min || frequency > s.f_max {
         warnings.push(LossWarning::FrequencyOutsideFit { f: frequency, f_min: s.f_min, f_max: s.f_max });
     } else if scan.delta_b > 0.0 {
@@ -203,7 +232,9 @@ pub fn core_loss_with(
     }
     let b_ac = 0.5 * scan.delta_b;
     let b_dc = 0.5 * (scan.b_max + scan.b_min);
-    if scan.delta_b > 0.0 && (b_ac < s.b_min || b_ac > s.b_max) {
+    if scan.delta_b > 0.0 && b_ac < s.b_min {
+        warnings.push(LossWarning::FluxBelowFit { b_pk: b_ac, b_min: s.b_min, factor: low_flux });
+    } else if scan.delta_b > 0.0 && b_ac > s.b_max {
         warnings.push(LossWarning::FluxOutsideFit { b_pk: b_ac, b_min: s.b_min, b_max: s.b_max });
     }
     if let Some(w) = dc_bias_check(b_dc, b_ac) {
@@ -263,6 +294,27 @@ mod tests {
     }
 
     #[test]
+    fn below_the_fit_the_loss_falls_as_b_squared() {
+        // Low-field region (Rayleigh 1887: hysteresis ∝ B³; classical eddy
+        // loss ∝ B²): from the fitted point at b_min the bound falls as B²,
+        // so halving the swing below b_min quarters the loss, and the bound
+        // is continuous at b_min.
+        let m = library::find("MnZn-200k").unwrap();
+        let s = &m.steinmetz;
+        assert!(s.beta > 2.0);
+        let at = |b: f64| core_loss(&m, &triangle(100e3, -b, b, 0.5), 100.0, 1e-6).unwrap().pv;
+        let edge = at(s.b_min);
+        assert!((at(s.b_min * (1.0 - 1e-9)) / edge - 1.0).abs() < 1e-6, "continuous at b_min");
+        assert!((at(0.5 * s.b_min) / edge - 0.25).abs() < 1e-9);
+        assert!((at(0.1 * s.b_min) / edge - 0.01).abs() < 1e-9);
+        // Above the fit's floor nothing changes: the fit's own exponent β.
+        assert!((at(2.0 * s.b_min) / edge - 2f64.powf(s.beta)).abs() < 1e-9);
+        let mut flat = s.clone();
+        flat.beta = 1.8;
+        assert_eq!(low_flux_bound(&flat, 0.5 * flat.b_min), 1.0, "β ≤ 2: the fit is the bound");
+    }
+
+    #[test]
     fn warnings_are_returned() {
         let m = library::find("MnZn-200k").unwrap();
         let has = |r: &CoreLoss, pred: fn(&LossWarning) -> bool| r.warnings.iter().any(pred);
@@ -274,6 +326,9 @@ mod tests {
         assert!(has(&r, |w| matches!(w, LossWarning::FastEdges { .. })));
         // 5 mT amplitude: below b_min = 20 mT.
         let r = core_loss(&m, &triangle(100e3, -0.005, 0.005, 0.5), 100.0, 1e-6).unwrap();
+        assert!(has(&r, |w| matches!(w, LossWarning::FluxBelowFit { .. })));
+        // 400 mT amplitude: above b_max.
+        let r = core_loss(&m, &triangle(100e3, -0.4, 0.4, 0.5), 100.0, 1e-6).unwrap();
         assert!(has(&r, |w| matches!(w, LossWarning::FluxOutsideFit { .. })));
         // Choke: 200 ± 20 mT → DC bias.
         let r = core_loss(&m, &triangle(100e3, 0.18, 0.22, 0.5), 100.0, 1e-6).unwrap();

@@ -19,6 +19,12 @@
 //! extrapolation no further than the next point that could have been
 //! measured.
 //!
+//! Below the fitted flux range the rule is different: there the loss is
+//! not extrapolated but bounded from above ([`super::low_flux_bound`]: it
+//! falls at least as fast as B² in the low-field region), so a swing below
+//! the range warns and never fails on that account alone. Small ripple
+//! flux, the normal state of an output choke, is the common case.
+//!
 //! The solver's check, and through the report's pass/fail the sweeps and
 //! the optimiser, all use [`data_range`]; nothing else decides it.
 
@@ -52,9 +58,12 @@ pub struct DataRange {
     pub b_amplitude: f64,
     /// max(f/f_max, f_min/f): at most 1 inside the frequency range.
     pub f_factor: f64,
-    /// max(B/b_max, b_min/B): at most 1 inside the flux range (0 without a
-    /// swing: no core loss to extrapolate).
+    /// B/b_max: at most 1 at or below the top of the flux range (0
+    /// without a swing: no core loss to extrapolate).
     pub b_factor: f64,
+    /// b_min/B where the swing lies below the fitted range (else 0): the
+    /// loss there is a bound, not an extrapolation; it warns only.
+    pub b_below: f64,
     /// The larger of the two.
     pub factor: f64,
     pub verdict: RangeVerdict,
@@ -74,16 +83,19 @@ pub fn data_range(s: &Steinmetz, frequency: f64, b_amplitude: f64) -> DataRange 
         above.max(below)
     };
     let f_factor = outside(frequency, s.f_min, s.f_max);
-    let b_factor = outside(b_amplitude, s.b_min, s.b_max);
+    let b_factor = outside(b_amplitude, 0.0, s.b_max);
+    let b_below = if b_amplitude > 0.0 && b_amplitude < s.b_min { s.b_min / b_amplitude } else { 0.0 };
     let factor = f_factor.max(b_factor);
-    let verdict = if factor <= 1.0 {
+    let verdict = if factor <= 1.0 && b_below == 0.0 {
         RangeVerdict::Inside
+    } else if factor <= 1.0 {
+        RangeVerdict::Extrapolated
     } else if factor <= DATA_RANGE_BAND {
         RangeVerdict::Extrapolated
     } else {
         RangeVerdict::Beyond
     };
-    DataRange { frequency, b_amplitude, f_factor, b_factor, factor, verdict }
+    DataRange { frequency, b_amplitude, f_factor, b_factor, b_below, factor, verdict }
 }
 
 /// [`data_range`] of one period of B(t): frequency 1/T, amplitude
@@ -112,7 +124,12 @@ mod tests {
         assert_eq!(data_range(&s, 15.5e3, 0.1).verdict, RangeVerdict::Beyond);
         assert_eq!(data_range(&s, 100e3, 0.37).verdict, RangeVerdict::Extrapolated);
         assert_eq!(data_range(&s, 100e3, 0.38).verdict, RangeVerdict::Beyond);
-        assert_eq!(data_range(&s, 100e3, 0.015).verdict, RangeVerdict::Beyond);
+        // Below the flux range: a bound, not an extrapolation; warns only,
+        // however far below.
+        assert_eq!(data_range(&s, 100e3, 0.015).verdict, RangeVerdict::Extrapolated);
+        assert_eq!(data_range(&s, 100e3, 0.001).verdict, RangeVerdict::Extrapolated);
+        assert!((data_range(&s, 100e3, 0.01).b_below - 2.0).abs() < 1e-12);
+        assert_eq!(data_range(&s, 15.5e3, 0.001).verdict, RangeVerdict::Beyond);
         let r = data_range(&s, 17.0 * 300e3, 0.1);
         assert!((r.f_factor - 17.0).abs() < 1e-12 && r.verdict == RangeVerdict::Beyond);
         // No swing: nothing to extrapolate in B.

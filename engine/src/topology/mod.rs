@@ -58,10 +58,12 @@
 //!
 //! Module layout: [`spec`] (what is asked), [`sizing`] (helpers),
 //! `flyback`, `forward` (single and two switch), `push_pull` (push-pull,
-//! half and full bridge: the symmetric, bipolar-flux family).
+//! half and full bridge: the symmetric, bipolar-flux family), [`inductor`]
+//! (the inductor kind: one DC-biased winding, buck or boost).
 
 mod flyback;
 mod forward;
+pub mod inductor;
 mod push_pull;
 pub mod sizing;
 pub mod spec;
@@ -231,12 +233,17 @@ fn check_turns(spec: &Spec, turns: &Turns) -> Result<()> {
             format!("must be 1 to {MAX_TURNS} turns"),
         ));
     }
-    if turns.secondaries.len() != spec.outputs.len() {
+    let expected = if spec.topology == Topology::Inductor {
+        0
+    } else {
+        spec.outputs.len()
+    };
+    if turns.secondaries.len() != expected {
         return Err(Error::input(
             "turns.secondaries",
             format!(
-                "give one turn count per output ({} outputs, {} counts)",
-                spec.outputs.len(),
+                "give one turn count per output ({} outputs, {} counts; none for an inductor)",
+                expected,
                 turns.secondaries.len()
             ),
         ));
@@ -283,6 +290,9 @@ fn context<'a>(spec: &'a Spec, turns: &'a Turns, lp_h: Option<f64>, ae_m2: f64) 
                 "the flyback needs its primary inductance Lp",
             ))
         }
+        None if spec.topology == Topology::Inductor => {
+            return Err(Error::input("lp", "the inductor needs its inductance"))
+        }
         None => None,
     };
     let dc = spec.dc_range()?;
@@ -307,6 +317,7 @@ fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => {
             push_pull::operating_point(ctx, vin)?
         }
+        Topology::Inductor => inductor::operating_point(ctx, vin)?,
     };
     if op.switch_voltage > spec::ES1_DC_LIMIT {
         op.warnings.push(format!(

@@ -185,6 +185,8 @@ pub fn turns_ratio(spec: &Spec) -> Result<f64> {
             push_pull_turns_ratio(dc.min, v1, spec.duty_max)
         }
         Topology::HalfBridge => push_pull_turns_ratio(0.5 * dc.min, v1, spec.duty_max),
+        // One winding: no ratio (1 by convention).
+        Topology::Inductor => Ok(1.0),
     }
 }
 
@@ -215,6 +217,9 @@ pub fn secondary_turns(spec: &Spec, np: u32, n: f64) -> Result<Vec<u32>> {
     positive("turns_ratio", n, "")?;
     if np == 0 {
         return Err(Error::input("turns.primary", "must be at least one turn"));
+    }
+    if spec.topology == Topology::Inductor {
+        return Ok(Vec::new());
     }
     let n1 = (np as f64 / n * (1.0 - 1e-12)).ceil().max(1.0);
     if n1 > MAX_TURNS as f64 {
@@ -264,6 +269,11 @@ pub fn primary_volt_seconds(spec: &Spec, n: f64, lp: Option<f64>, vin: f64) -> R
         }
         Topology::Forward | Topology::TwoSwitchForward => v1 * n * t,
         Topology::PushPull | Topology::HalfBridge | Topology::FullBridge => 0.5 * v1 * n * t,
+        // The inductor's on-time volt-seconds V_on·D·T.
+        Topology::Inductor => {
+            let s = super::inductor::state(spec, vin);
+            s.v_on * s.duty * t
+        }
     })
 }
 

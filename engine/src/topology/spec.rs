@@ -79,6 +79,11 @@ pub enum Topology {
     HalfBridge,
     /// Full bridge: one primary driven ±Vin, centre-tapped secondaries.
     FullBridge,
+    /// A DC-biased inductor with ripple (a buck's or boost's inductor, or
+    /// the output choke of a forward-type converter): one winding on a
+    /// gapped core. Its circuit and target are `Spec::inductor`
+    /// (`topology::inductor`).
+    Inductor,
 }
 
 impl Topology {
@@ -90,6 +95,7 @@ impl Topology {
             Topology::PushPull => "push-pull",
             Topology::HalfBridge => "half bridge",
             Topology::FullBridge => "full bridge",
+            Topology::Inductor => "inductor",
         }
     }
 }
@@ -223,8 +229,15 @@ pub struct Spec {
     /// Forward and push-pull: output choke ripple ΔIL/Iout at Vin max
     /// (its largest), default 0.2 (common practice, no source). Each output
     /// has its own choke with the same ratio. 0 ≤ r ≤ 2.
+    /// Inductor kind: ΔIL/IL at its largest over the input range, which
+    /// sets L when `inductor.inductance` is not given.
     #[serde(default = "default_choke_ripple")]
     pub choke_ripple_ratio: f64,
+    /// Inductor kind only: the circuit around the inductor and its target
+    /// inductance (`None`: a buck, L from `choke_ripple_ratio`). Left out
+    /// of the file when absent.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub inductor: Option<super::inductor::InductorOptions>,
 }
 
 /// Field name of output `i`'s member, e.g. "outputs[1].voltage".
@@ -263,6 +276,7 @@ impl Spec {
                 ripple_ratio: 0.6,
             },
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -289,6 +303,7 @@ impl Spec {
             isolation: Isolation::Basic,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -315,6 +330,7 @@ impl Spec {
             isolation: Isolation::Functional,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
+            inductor: None,
         }
     }
 
@@ -334,6 +350,8 @@ impl Spec {
         in_range("frequency", f, 1e3, 10e6, "Hz")?;
         let d_hi = match self.topology {
             Topology::Flyback | Topology::Forward => 0.95,
+            // A buck's or an output choke's on-time may approach the whole period.
+            Topology::Inductor => 1.0,
             Topology::TwoSwitchForward
             | Topology::PushPull
             | Topology::HalfBridge
@@ -419,6 +437,9 @@ impl Spec {
             "",
         )?;
         in_range("choke_ripple_ratio", self.choke_ripple_ratio, 0.0, 2.0, "")?;
+        if self.topology == Topology::Inductor {
+            super::inductor::validate(self)?;
+        }
         if self.topology == Topology::Flyback {
             let dc = self.dc_range()?;
             let vo = self.outputs[0].voltage + self.outputs[0].rectifier_drop;

@@ -44,6 +44,9 @@ const CSS: &str = r#"
 .lib table.data tr + tr { border-top:1px solid #eef0f3; }
 .lib table.data td.text { text-align:left; white-space:normal; }
 .lib .prov { font-size:.8em; color:var(--muted); margin:.1rem 0 .5rem; }
+.lib .mark { font-size:.82em; margin:.2rem 0 .1rem; padding:.15rem .4rem; border-radius:3px; }
+.lib .mark.checked { background:#eef7ee; }
+.lib .mark.unconfirmed { background:#fff4e0; color:var(--warn); font-weight:600; }
 .lib details { border:1px solid var(--line); border-radius:4px; padding:.3rem .5rem; margin:.4rem 0; }
 .lib details > summary { cursor:pointer; font-weight:600; font-size:.92em; }
 .lib details[open] > summary { margin-bottom:.3rem; }
@@ -68,6 +71,7 @@ const CSS: &str = r#"
 .lib-dialog tbody th { white-space:nowrap; font-weight:600; padding:.16rem .45rem; }
 .lib-dialog td { text-align:right; font-variant-numeric:tabular-nums; padding:.16rem .45rem; white-space:nowrap; }
 .lib-dialog td.src { white-space:normal; min-width:14em; color:var(--muted); font-size:.92em; }
+.lib-dialog td.src.unconfirmed { color:var(--warn); font-weight:600; }
 .lib-dialog tbody tr:nth-child(even) { background:#fafbfc; }
 .lib-dialog tbody tr.current { background:#e6effa; }
 .lib-dialog .count { font-size:.85em; color:var(--muted); }
@@ -322,6 +326,45 @@ fn figure_n(id: &'static str, label: &'static str, v: f64, scale: f64, unit: &'s
     }
 }
 
+/// Whether the engine marked a library core unconfirmed (its provenance
+/// starts so; the engine's `core::library` docs say when).
+fn is_unconfirmed(c: &Core) -> bool {
+    c.provenance.starts_with("unconfirmed")
+}
+
+/// The library core's computed values against its published effective
+/// parameters, as the engine's `core::library::agreement` reports them: a
+/// visible mark above the provenance note. Nothing for the user's own core.
+fn agreement_note(c: &Core) -> Option<impl IntoView> {
+    c.shape?;
+    let a = cores::agreement(&c.designation)?;
+    let diffs = format!(
+        "Ae {}, le {}, Ve {}",
+        signed_pct(a.ae),
+        signed_pct(a.le),
+        signed_pct(a.ve)
+    );
+    let (class, text) = if a.confirmed {
+        ("mark checked", format!("Checked: computed {diffs} from the published effective parameters (from memory)."))
+    } else {
+        (
+            "mark unconfirmed",
+            format!("Unconfirmed: computed {diffs} from the published effective parameters (from memory); the dimensions are in doubt, use your supplier's data."),
+        )
+    };
+    Some(view! { <p class=class data-testid="core-check">{text}</p> })
+}
+
+fn signed_pct(d: f64) -> String {
+    // Rounded to 0.1 %; a value that rounds to zero is shown unsigned.
+    let p = (d * 1000.0).round() / 10.0;
+    if p == 0.0 {
+        "0.0 %".to_string()
+    } else {
+        format!("{p:+.1} %").replace('-', "−")
+    }
+}
+
 /// The first clause of a provenance note (the rest goes in a tooltip).
 fn short_source(p: &str) -> &str {
     p.split(';').next().unwrap_or(p).trim()
@@ -476,6 +519,7 @@ fn CoreData(form: Form) -> impl IntoView {
                     {figure("core-surface", "Outer surface", c.surface_area, 1e-4, "cm²")}
                     {figure("core-mass", "Mass (set)", c.mass, 1e-3, "g")}
                 </table>
+                {agreement_note(&c)}
                 <p class="prov" data-testid="core-provenance">{c.provenance.clone()}</p>
             }
             .into_any()
@@ -585,7 +629,7 @@ fn CoreBrowser(form: Form, open: RwSignal<bool>) -> impl IntoView {
                         {cell(c.turn_length_inner, 1e-3, 3)}
                         {cell(c.surface_area, 1e-4, 3)}
                         {cell(c.mass, 1e-3, 3)}
-                        <td class="src text" title=c.provenance.clone()>{short_source(&c.provenance).to_string()}</td>
+                        <td class="src text" class:unconfirmed=is_unconfirmed(c) title=c.provenance.clone()>{short_source(&c.provenance).to_string()}</td>
                     </tr>
                 }
             })
@@ -1557,5 +1601,14 @@ mod tests {
         assert_eq!(sig(12345.0, 3), "12345");
         assert_eq!(coef(1.6e-3), "1.6000e-3");
         assert_eq!(coef(10.0), "10.00");
+    }
+
+    #[test]
+    fn agreement_percent_is_signed_and_never_minus_zero() {
+        assert_eq!(signed_pct(-0.0004), "0.0 %");
+        assert_eq!(signed_pct(0.044), "+4.4 %");
+        assert_eq!(signed_pct(-0.0123), "−1.2 %");
+        assert!(is_unconfirmed(&cores::find("ETD 34").unwrap()));
+        assert!(!is_unconfirmed(&cores::find("ETD 29").unwrap()));
     }
 }

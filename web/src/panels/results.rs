@@ -181,6 +181,7 @@ fn short_label(c: &Check) -> String {
         "magnetising" => "Magnetising in dead time".into(),
         "loss_budget" => "Loss budget share".into(),
         "material_range" => "Material data range".into(),
+        "choke" => "Output choke".into(),
         _ => c.label.clone(),
     }
 }
@@ -265,10 +266,10 @@ fn turns_line(r: &Report) -> Vec<(String, String, u32)> {
     );
     let mut v = vec![(
         "np".to_string(),
-        if r.topology == Topology::PushPull {
-            "Np (each half)"
-        } else {
-            "Np"
+        match r.topology {
+            Topology::PushPull => "Np (each half)",
+            Topology::Inductor => "N",
+            _ => "Np",
         }
         .to_string(),
         r.turns.primary,
@@ -306,8 +307,11 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
             let sw_v = worst("switch_voltage");
             let sw_i = worst("switch_peak_current");
             let is_flyback = r.topology == Topology::Flyback;
+            let is_inductor = r.topology == Topology::Inductor;
             let l_label = if is_flyback {
                 "Primary inductance Lp"
+            } else if is_inductor {
+                "Inductance as wound"
             } else {
                 "Magnetising inductance"
             };
@@ -340,7 +344,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                 </table>
                 <p class="turns-line" data-testid="turns">{turns}</p>
                 <div class="tiles" data-testid="key-figures">
-                    {tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new())}
+                    {(!is_inductor).then(|| tile("ratio", "Turns ratio Np/Ns1", format!("{:.4}", r.turns_ratio), r.turns_ratio, String::new()))}
                     {mode_tile(&r)}
                     {tile("inductance", l_label, notation::format(r.inductance, "H", 3), r.inductance, format!("AL {} /turn²", notation::format(r.al, "H", 3)))}
                     {r.leakage.map(|l| tile("leakage", "Leakage (primary)", notation::format(l, "H", 3), l, format!("{:.2} % of L", 100.0 * l / r.inductance.max(1e-30))))}
@@ -357,6 +361,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                 </div>
                 <p class="core-note" data-testid="turns-reason">{format!("Turns: {}.", r.turns_reason)}</p>
                 <p class="thermal-note" data-testid="thermal-note">{thermal_note}</p>
+                {r.choke.as_deref().map(choke_section)}
                 <Warnings warnings=r.warnings.clone() />
             }
             .into_any()
@@ -365,6 +370,37 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
     view! {
         <style>{CSS}</style>
         <div class="results-body">{body}</div>
+    }
+}
+
+/// The output choke's design (forward, push-pull, bridges): its own
+/// report's key figures and verdict.
+fn choke_section(c: &Report) -> impl IntoView {
+    let b_pk = c.waveforms.get("b_peak").map(|x| (x.value, x.corner));
+    let wire = c.wires.first().map(|w| {
+        if w.parallel > 1 {
+            format!("{} × {}", w.parallel, w.conductor)
+        } else {
+            w.conductor.clone()
+        }
+    });
+    let (head, sub) = verdict(c);
+    view! {
+        <section class="choke" data-testid="choke" data-pass=c.pass.to_string()>
+            <h3>"Output choke (output 1)"</h3>
+            <p class="verdict-line" class:fail=!c.pass data-testid="choke-verdict">{head}<span class="sub">{sub}</span></p>
+            <div class="tiles">
+                {tile("choke-core", "Core", c.core.designation.clone(), c.core.ae, c.material.name.clone())}
+                {tile("choke-turns", "Turns N", c.turns.primary.to_string(), f64::from(c.turns.primary), wire.unwrap_or_default())}
+                {tile("choke-inductance", "Inductance as wound", notation::format(c.inductance, "H", 3), c.inductance, format!("ripple at {}", notation::format(c.frequency, "Hz", 3)))}
+                {tile("choke-gap", "Gap", c.gap.as_ref().map_or("none".to_string(), |g| format!("{:.3} mm", g.gap * 1e3)), c.gap.as_ref().map_or(0.0, |g| g.gap), gap_place(c))}
+                {tile("choke-b-peak", "Bpk at peak current", b_pk.map_or(String::new(), |(b, _)| format!("{:.0} mT", b * 1e3)), b_pk.map_or(0.0, |x| x.0), b_pk.map_or(String::new(), |(_, k)| corner_name(Some(k)).to_string()))}
+                {tile("choke-core-loss", "Core loss (ripple)", notation::format(c.losses.core, "W", 3), c.losses.core, String::new())}
+                {tile("choke-cu-loss", "Copper loss", notation::format(c.losses.copper, "W", 3), c.losses.copper, format!("DC {} + AC {}", notation::format(c.losses.copper_dc, "W", 2), notation::format(c.losses.copper_ac_extra, "W", 2)))}
+                {tile("choke-total-loss", "Total loss", notation::format(c.losses.total, "W", 3), c.losses.total, String::new())}
+                {tile("choke-temperature", "Core temperature", format!("{:.1} °C", c.thermal.temperature), c.thermal.temperature, format!("rise {:.1} K", c.thermal.rise))}
+            </div>
+        </section>
     }
 }
 

@@ -11,6 +11,11 @@ struct ETypePieces {
     depth: f64,
     /// Centre-leg section.
     a_centre: f64,
+    /// Half the centre leg's width along the yoke (F/2): half the flux
+    /// turns each way, so this is the width of the leg the corner sees.
+    /// For the flat EFD leg it is F/2 too, whatever its thickness K (the
+    /// equivalent width F·K/(2·C) would shrink the corner with K).
+    w_centre: f64,
     /// Total outer-leg section.
     a_outer: f64,
     /// Window height (centre-leg length between the yokes).
@@ -37,7 +42,7 @@ fn etype_constants(p: &ETypePieces) -> Constants {
     ch.piece(p.window_height, p.a_centre);
     ch.piece(p.window_height, p.a_outer);
     let w_outer = p.a_outer / (2.0 * p.depth);
-    let w_centre = p.a_centre / (2.0 * p.depth);
+    let w_centre = p.w_centre;
     for h in [p.h_top, p.h_bottom] {
         let a_yoke = 2.0 * p.depth * h;
         ch.piece(p.yoke_length, a_yoke);
@@ -71,6 +76,7 @@ pub(super) fn rect_e(
     let pieces = ETypePieces {
         depth: c,
         a_centre,
+        w_centre: 0.5 * f,
         a_outer,
         window_height: hw,
         h_top,

@@ -22,23 +22,32 @@
 //!   sums.
 //! * Legs are counted between the inner faces of the yokes (length = window
 //!   height), yokes between the faces of the legs (length (E − F)/2 each).
-//! * **Corner treatment, every E-type family (E, EF, EFD, ETD, ER, PQ, RM,
-//!   EP, planar E):** each of the four corners where a leg of width w meets a
-//!   yoke of height h is a quarter circle whose radius is the mean of the two
-//!   half-widths, l = (π/2)·(w/2 + h/2)/2 = π·(w + h)/8, with the mean of the
-//!   two adjoining areas. This is the IEC 60205 corner piece for E cores as
-//!   recalled (from memory); for the other families the standard has its own
-//!   pieces and we apply the same corner instead (a simplification).
-//!   For a leg whose section is not a rectangle of the yoke's depth C (round
-//!   legs, shaped outer legs, the flat EFD leg) w is the *equivalent width*
-//!   A_leg/(2·C) (outer legs: the area of one leg over C; centre leg: half its
-//!   area over C, since half the flux turns each way). For a plain E core this
-//!   is exactly F/2 and (A − E)/2.
+//! * **Corners, one rule per family kind.** Where a leg meets a yoke of
+//!   height h the flux turns along a quarter circle whose radius is the mean
+//!   of the middle of the flux in the leg (depth s below the leg face the
+//!   flux crosses) and the middle of the yoke (h/2): l = (π/8)·(2s + h)
+//!   (`etype::corner_length`), with the mean of the two adjoining areas.
+//!   IEC 60205 measures s per family (as recalled, from memory); so do we:
+//!   - rectangular legs (E, EFD, planar E and E + PLT, module `etype`):
+//!     s = w/2 for a leg of width w, i.e. the standard's E-core corner
+//!     l = (π/8)·(w + h). The centre leg's w is F/2 (half the flux turns
+//!     each way), also for the flat EFD leg whatever its thickness K: its
+//!     width along the yoke is F. (An earlier equivalent width F·K/(2·C)
+//!     shrank the EFD corners and left EFD le 4–5 % short of the published
+//!     values; with F/2 all four sizes agree within 2 %.) The outer legs' w
+//!     is one leg's area over C, exactly (A − E)/2 for a plain E core;
+//!   - round centre legs (ETD, ER, PQ, RM, EP, module `round`): s is the
+//!     depth of the chord that halves the half-leg feeding each side
+//!     (`round::half_area_depth`, ≈ 0.596·F/2 for a solid leg), the
+//!     round-leg counterpart of the pot core's half-area radius; the earlier
+//!     equivalent-width corner put the turn too close to the surface (ETD le
+//!     2–3 % short);
+//!   - pot cores (module `pot`): s from the radii that halve the post's and
+//!     the wall's areas, √((r3² + r4²)/2) and √((r1² + r2²)/2).
 //! * **Pot cores:** centre post and outer wall as legs, the base plates as a
 //!   radial yoke of thickness h from the post radius r3 to the wall radius r2
 //!   in closed form (C1 += ln(r2/r3)/(2π·h), C2 += (1/r3 − 1/r2)/(4π²·h²) per
-//!   plate: the series sum of thin cylindrical shells), corners as above with
-//!   the post's radial width and the wall's radial thickness.
+//!   plate: the series sum of thin cylindrical shells).
 //! * **Ring:** closed form of IEC 60205 (see [`ring_constants`]).
 //!
 //! Approximations stated per family on each [`Shape`] variant.
@@ -125,8 +134,8 @@ pub enum Shape {
     },
     /// EFD pair: flat rectangular centre leg F (width) × K (thickness, along
     /// the depth, K ≤ C). Simplification: the centre leg is taken centred in
-    /// the depth (in the real core it is offset) and the corner at the
-    /// centre leg uses the equivalent width (F·K/2)/C.
+    /// the depth (in the real core it is offset); the corner at the centre
+    /// leg uses its width along the yoke, F/2 (module docs).
     Efd {
         a: f64,
         b: f64,

@@ -104,10 +104,11 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
     // The flyback's Lp is taken from the turns as wound, so the ripple ratio
     // (and with it the mode) asked for holds at Vin min and full load after
     // rounding (`sizing::flyback_lp_as_wound`); `lp` was the estimate that
-    // chose the turns.
+    // chose the turns. The inductor kind's target L does not depend on
+    // turns and is kept.
     let lp = match lp {
-        Some(_) => Some(sizing::flyback_lp_as_wound(spec, &turns)?),
-        None => None,
+        Some(_) if spec.topology == Topology::Flyback => Some(sizing::flyback_lp_as_wound(spec, &turns)?),
+        other => other,
     };
     let (inductance, al, gap) = match lp {
         Some(l) => {
@@ -217,7 +218,7 @@ pub fn core_sense(topo: Topology, name: &str) -> f64 {
     let secondary = name.starts_with("secondary");
     let b_half = name.ends_with(" B");
     match topo {
-        Topology::Flyback => 1.0,
+        Topology::Flyback | Topology::Inductor => 1.0,
         Topology::Forward | Topology::TwoSwitchForward => {
             if secondary {
                 -1.0

@@ -179,6 +179,12 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
     };
     let what = if r.f_factor >= r.b_factor { "frequency" } else { "flux amplitude" };
     let note = match r.verdict {
+        crate::loss::RangeVerdict::Extrapolated if r.factor <= 1.0 => format!(
+            "ΔB/2 {:.1} mT below the fit's {:.0} mT at {:.1} kHz: core loss taken as its upper bound (∝ B² below the fit)",
+            r.b_amplitude * 1e3,
+            s.b_min * 1e3,
+            r.frequency / 1e3
+        ),
         crate::loss::RangeVerdict::Inside => format!(
             "{:.1} kHz, ΔB/2 {:.1} mT inside the fit ({:.0}–{:.0} kHz, {:.0}–{:.0} mT)",
             r.frequency / 1e3,

@@ -173,12 +173,15 @@ pub(super) fn finish(
     };
     // Filled in by `evaluate` (sweeps and the optimiser do not need it).
     let stackup_json = String::new();
-    let n_actual =
-        c.turns.primary as f64 / c.turns.secondaries.first().copied().unwrap_or(1).max(1) as f64;
+    let n_actual = match c.turns.secondaries.first() {
+        Some(&ns) => c.turns.primary as f64 / ns.max(1) as f64,
+        // One winding (the inductor kind): no ratio, 1 by convention.
+        None => 1.0,
+    };
     let _ = n_design;
+    let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
     // The switch node counts for the hazardous-voltage cautions too.
     let cautions = spec.cautions_with_switch(c.waves.get("switch_voltage").map(|w| w.value));
-    let conduction = super::mode::conduction(design, &c.turns, c.inductance, &c.waves);
     Ok(Report {
         name: design.name.clone(),
         topology: spec.topology,
@@ -211,5 +214,6 @@ pub(super) fn finish(
         pass,
         cautions,
         warnings,
+        choke: None,
     })
 }

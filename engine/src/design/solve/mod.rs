@@ -40,6 +40,7 @@
 mod balance;
 mod candidate;
 mod checks;
+mod choke;
 mod conductors;
 pub(crate) use conductors::fixed_conductor;
 mod finish;
@@ -56,6 +57,7 @@ use crate::topology::{self, sizing, Spec, Topology};
 use crate::winding::stackup::to_json;
 use candidate::*;
 pub use candidate::{core_sense, currents_of};
+pub use choke::{choke_design, choke_spec};
 use conductors::*;
 pub use report::*;
 
@@ -68,8 +70,12 @@ pub fn evaluate(design: &Design) -> Result<Report> {
     design.check_envelope()?;
     let core = design.resolve_core()?;
     let material = design.resolve_material()?;
-    let mut r = evaluate_with(design, &core, &material, &Prepared::new(&material)?)?;
+    let prep = Prepared::new(&material)?;
+    let mut r = evaluate_with(design, &core, &material, &prep)?;
     r.stackup_json = to_json(&r.stackup);
+    // The output choke is designed once per evaluation (sweeps and the
+    // optimiser, which call `evaluate_with`, skip it).
+    choke::attach(design, &material, &prep, &mut r)?;
     Ok(r)
 }
 
@@ -103,10 +109,10 @@ pub fn evaluate_with(
     let n = sizing::turns_ratio(spec)?;
     let b_auto = material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin);
     let b_limit = ch.b_max.unwrap_or(b_auto);
-    let lp_target = if spec.topology == Topology::Flyback {
-        Some(sizing::flyback_lp(spec, n)?)
-    } else {
-        None
+    let lp_target = match spec.topology {
+        Topology::Flyback => Some(sizing::flyback_lp(spec, n)?),
+        Topology::Inductor => Some(topology::inductor::target_inductance(spec)?),
+        _ => None,
     };
     let cx = Ctx {
         design,
@@ -294,6 +300,12 @@ fn flux_limited_turns(spec: &Spec, n: f64, lp: Option<f64>, b_limit: f64, ae: f6
                 ae,
             )
         }
+        // N = L·Ipk/(Bpk·Ae), the peak current's flux DC bias included.
+        Topology::Inductor => {
+            let l = lp.ok_or_else(|| Error::input("inductor.inductance", "the inductor needs L"))?;
+            let ipk = topology::inductor::peak_current(spec, l)?;
+            sizing::flyback_primary_turns(l, ipk, b_limit, ae)
+        }
     }
 }
 
@@ -329,6 +341,7 @@ mod tests {
             Design::demo_forward(),
             Design::demo_flyback(),
             Design::demo_push_pull(),
+            Design::demo_inductor(),
         ] {
             let r = evaluate(&d).unwrap_or_else(|e| panic!("{}: {e}", d.name));
             assert!(

@@ -152,4 +152,9 @@ pub struct Report {
     pub pass: bool,
     pub cautions: Vec<String>,
     pub warnings: Vec<String>,
+    /// Forward, push-pull and bridges: the first output's choke, designed
+    /// as a report of the inductor kind (`design::solve::choke`); filled by
+    /// [`evaluate`] only. Left out when absent.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub choke: Option<Box<Report>>,
 }
