@@ -96,7 +96,7 @@ test('malformed, foreign and ill-fitting files are refused and change nothing', 
     ['newer.json', '{"schema": "magwright-design", "version": 7, "spec": {}}', /newer Magwright/],
     ['wrongtype.json', (() => { const d = cli(['demo', 'forward']); d.spec.outputs[0].voltage = 'twelve'; return JSON.stringify(d, null, 2); })(),
       /invalid type: string "twelve".*\[field spec\.outputs\[0\]\.voltage\]/],
-    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 1, spec: { topology: 'forward' } }), /missing field `\w+`.*\[field spec\]/],
+    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 2, spec: { topology: 'forward' } }), /the key "\w+" is missing.*\[field spec\.\w+\]/],
   ];
   for (const [i, [name, text, re]] of cases.entries()) {
     const msg = await openWithKeyboard(page, name, text, { keyboard: i === 0 });

@@ -160,3 +160,4 @@ test('labels say what is computed: core temperature, margins in K, tight, Bsat a
   assert.deepEqual(errors, []);
   await context.close();
 });
+

@@ -277,7 +277,8 @@ impl Design {
             )),
             Some(v) if v >= 1 => {
                 let notes = super::upgrade::upgrade(&mut value, v)?;
-                Ok((crate::json::from_str_checked(&crate::json::to_string_pretty(&value))?, notes))
+                let converted = crate::json::from_str_checked(&crate::json::to_string_pretty(&value));
+                Ok((converted.map_err(|e| super::upgrade::unlined(e, v))?, notes))
             }
             _ => Err(Error::format(Some("version"), format!("the file's \"version\" must be 1 to {VERSION}"))),
         }

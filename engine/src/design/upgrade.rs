@@ -152,6 +152,25 @@ fn convert_quadratic(tf: &Map<String, Value>, field: &str) -> Result<(f64, f64, 
     Ok((tm, a / m, m))
 }
 
+/// An error found in the converted text: its line numbers are those of the
+/// converted text, not of the user's file, so they are left out (the field
+/// path still names the value).
+pub fn unlined(e: Error, from: u64) -> Error {
+    let strip = |m: String| -> String {
+        let m = match m.rfind(" (line ") {
+            Some(i) if m.ends_with(')') => m[..i].to_string(),
+            _ => m,
+        };
+        format!("{m} (in the file converted from version {from})")
+    };
+    match e {
+        Error::Input { field, message } => Error::Input { field, message: strip(message) },
+        Error::Unknown { field, message } => Error::Unknown { field, message: strip(message) },
+        Error::Infeasible { field, message } => Error::Infeasible { field, message: strip(message) },
+        Error::Format { field, message } => Error::Format { field, message: strip(message) },
+    }
+}
+
 fn number(x: f64, field: &str) -> Result<Value> {
     serde_json::Number::from_f64(x)
         .map(Value::Number)
@@ -231,6 +250,12 @@ mod tests {
         let e = Design::from_json(&new.to_string()).unwrap_err();
         assert!(e.field().is_some_and(|f| f.starts_with("material")), "{e}");
         assert!(e.message().contains("ct2") || e.message().contains("unknown"), "{e}");
+        // An error in an old file names its field, not a line of the converted text.
+        let mut bad = old_custom(1e-4, 2e-2, 2.0, 10.0);
+        bad["spec"].as_object_mut().unwrap().remove("frequency");
+        let e = Design::from_json(&bad.to_string()).unwrap_err();
+        assert_eq!(e.field(), Some("spec.frequency"), "{e}");
+        assert!(!e.message().contains("(line ") && e.message().contains("converted from version 1"), "{e}");
         // A current file reads with no notes.
         let (_, notes) = Design::from_json_noted(&Design::demo_forward().to_json()).unwrap();
         assert!(notes.is_empty());
