@@ -15,7 +15,7 @@ use crate::json::known_prefix;
 use crate::json_spans::{join, line_of, scan, Kind, Node};
 
 /// Candidates probed at most (a refused file costs at most this many reads).
-const MAX_PROBES: usize = 64;
+const MAX_PROBES: usize = 32;
 
 /// What serde said, sorted.
 enum Says<'a> {
@@ -168,6 +168,19 @@ fn locate(text: &str, nodes: &[Node], prefix: usize, msg: &str, read: &dyn Fn(&s
     let under = |i: usize| i >= prefix && nodes[i].span.0 >= root.span.0 && nodes[i].span.1 <= root.span.1;
     let inside: Vec<usize> = (prefix..nodes.len()).take_while(|&i| under(i)).collect();
     let changed = |t: String| read(&t).filter(|m| m != msg);
+    // Where the tracker reached the value itself (a plain struct), it is
+    // the one: no probing.
+    match says(msg) {
+        Says::BadValue(kind) if root.kind == kind && !matches!(kind, Kind::Object | Kind::Array) => {
+            return Some((prefix, root.path.clone()));
+        }
+        Says::UnknownField(k) => {
+            if let Some(i) = inside.iter().copied().find(|&i| nodes[i].parent == Some(prefix) && nodes[i].key.as_deref() == Some(k)) {
+                return Some((i, nodes[i].path.clone()));
+            }
+        }
+        _ => {}
+    }
     match says(msg) {
         Says::UnknownField(k) => inside.iter().filter(|&&i| nodes[i].key.as_deref() == Some(k)).take(MAX_PROBES).find_map(|&i| {
             let m = changed(splice(text, nodes[i].key_span?, "\"\\u0001\""))?;

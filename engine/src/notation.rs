@@ -31,19 +31,34 @@ pub enum ParseError {
     Negative(String),
 }
 
+/// The entry as echoed in a message: a very long one is cut (30 characters
+/// and an ellipsis) so the message stays readable.
+fn echo(s: &str) -> String {
+    if s.chars().count() <= 32 {
+        s.to_string()
+    } else {
+        format!("{}…", s.chars().take(30).collect::<String>())
+    }
+}
+
 impl std::fmt::Display for ParseError {
     fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let (ParseError::NotANumber(s) | ParseError::Comma(s) | ParseError::NotWhole(s) | ParseError::Negative(s)) = self
+        else {
+            return f.write_str("enter a value");
+        };
+        let s = &echo(s);
         match self {
             ParseError::Empty => f.write_str("enter a value"),
-            ParseError::NotANumber(s) => {
+            ParseError::NotANumber(_) => {
                 write!(f, "\"{s}\" is not a number (examples: 200k, 4.7u, 1.5m, 2e5)")
             }
-            ParseError::Comma(s) => write!(
+            ParseError::Comma(_) => write!(
                 f,
                 "\"{s}\" has a comma, which could be a decimal or a thousands separator: write a point for decimals (1.5) and no separator (1500)"
             ),
-            ParseError::NotWhole(s) => write!(f, "\"{s}\" is not a whole number; give a count such as 2"),
-            ParseError::Negative(s) => write!(f, "\"{s}\" is below zero; a count is 0 or more"),
+            ParseError::NotWhole(_) => write!(f, "\"{s}\" is not a whole number; give a count such as 2"),
+            ParseError::Negative(_) => write!(f, "\"{s}\" is below zero; a count is 0 or more"),
         }
     }
 }
@@ -196,6 +211,8 @@ mod tests {
             assert!(matches!(parse(t, "A"), Err(ParseError::Comma(_))), "{t}");
         }
         assert!(parse("1,500", "A").unwrap_err().to_string().contains("comma"));
+        let long = "9".repeat(500) + "x";
+        assert!(parse(&long, "").unwrap_err().to_string().len() < 120, "a long entry is cut in the message");
     }
 
     #[test]

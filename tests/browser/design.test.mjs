@@ -58,11 +58,13 @@ test('demo design, edits, invalid entries, no network', async () => {
   await assertMatchesEngine(page);
   await page.screenshot({ path: join(OUT, 'design-edited.png'), fullPage: true });
 
-  // Invalid entries: a message at the field, results say why they are missing.
+  // Invalid entries: a message at the field; the results say what to fix and
+  // keep showing the last good design, marked as not the form's.
   await typeInto(page, 'frequency', '0');
   await page.waitForSelector('[data-testid="missing"]');
   assert.match(await page.textContent('[id="e-frequency"]'), /between|greater than zero/);
-  assert.equal(await page.$('[data-testid="np"]'), null, 'no stale results while invalid');
+  assert.match(await page.textContent('[data-testid="stale-note"]'), /last good design/);
+  assert.ok(await page.$eval('[data-testid="np"]', (e) => !!e.closest('.stale')), 'the results shown are marked as not the form\'s');
   await typeInto(page, 'frequency', '');
   assert.match(await page.textContent('[id="e-frequency"]'), /enter a value/);
   await typeInto(page, 'input.min', 'abc');

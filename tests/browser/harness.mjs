@@ -116,6 +116,46 @@ export async function waitSaved(page, pred, arg) {
   }, [pred.toString(), arg]);
 }
 
+// Opens the file chooser of the button `testid` with the keyboard (focus,
+// Space) and gives it `file`. The chooser is intercepted only once a
+// listener is registered in the browser: one is registered for the page's
+// life, with a round trip to the page, before the first Space (without it
+// the chooser could open first and the wait time out under load).
+export async function chooseWithKeyboard(page, testid, file) {
+  if (!page.__chooserListener) {
+    page.__chooserListener = () => {};
+    page.on('filechooser', page.__chooserListener);
+    await page.evaluate(() => true);
+  }
+  await page.focus(`[data-testid="${testid}"]`);
+  await page.waitForFunction((t) => document.activeElement?.dataset?.testid === t, testid);
+  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
+  await chooser.setFiles(file);
+}
+
+// Waits for `n` rendered frames of the page (requestAnimationFrame): the
+// condition "the page has drawn n times since", for checks that something
+// did NOT happen (never a fixed sleep).
+export async function frames(page, n = 2) {
+  await page.evaluate((k) => new Promise((done) => {
+    let i = 0;
+    const step = () => (++i >= k ? done() : requestAnimationFrame(step));
+    requestAnimationFrame(step);
+  }), n);
+}
+
+// Waits until every canvas named has ink (the picture is drawn).
+export async function drawn(page, ids, { timeout = 20000 } = {}) {
+  await page.waitForFunction((list) => list.every((id) => {
+    const c = document.querySelector(`canvas[data-testid="${id}"]`);
+    if (!c || !c.width || !c.height) return false;
+    const d = c.getContext('2d').getImageData(0, 0, c.width, c.height).data;
+    let ink = 0;
+    for (let i = 0; i < d.length; i += 16) if (d[i] < 245 || d[i + 1] < 245 || d[i + 2] < 245) ink++;
+    return ink / (d.length / 16) > 0.02;
+  }), ids, { timeout });
+}
+
 // Waits until a result shows a value other than `old`.
 export async function waitChanged(page, id, old) {
   await page.waitForFunction(([i, v]) => { const e = document.querySelector(`[data-testid="${i}"]`); return e && e.dataset.si !== String(v); }, [id, old]);

@@ -4,7 +4,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
-import { launch, openPage, attach, cli, shown, typeInto, close, formState, waitChanged, engineFor, OUT, PAGE_URL } from './harness.mjs';
+import { launch, openPage, attach, cli, shown, typeInto, close, formState, waitChanged, engineFor, frames, OUT, PAGE_URL } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -115,7 +115,10 @@ test('test-only panic route: message shown, design kept, reload continues', asyn
 
   // Without a saved design (fresh context) the fragment does nothing.
   const fresh = await openPage(browser, { url: PAGE_URL + '#magwright-test-panic' });
-  await fresh.page.waitForTimeout(400);
+  // The page says where its design came from; the panic route is armed
+  // only for a design from storage.
+  await fresh.page.waitForSelector('header[data-source="demo"]');
+  await frames(fresh.page, 12);
   assert.equal(await fresh.page.$('[data-testid="panic"]'), null);
   assert.deepEqual(fresh.errors, []);
   assert.deepEqual([...requests, ...p.requests, ...fresh.requests], []);

@@ -40,8 +40,10 @@ test('every panel and flow, zero requests', async () => {
   await download('export-stackup');
   // Suggest: a run, then cancel.
   await page.click('[data-testid="suggest-run"]');
-  await page.waitForTimeout(300);
-  await page.click('[data-testid="suggest-cancel"]').catch(() => {});
+  // Running (something evaluated) or already done; then Cancel if it runs.
+  await page.waitForFunction(() => Number(document.querySelector('[data-testid="suggest-evaluated"]')?.dataset.si) > 0
+    || /^Done/.test(document.querySelector('[data-testid="suggest-status"]')?.textContent || ''));
+  if (await page.isEnabled('[data-testid="suggest-cancel"]')) await page.click('[data-testid="suggest-cancel"]');
   // Files: save, open, link, print media.
   await download('save');
   const example = readFileSync(join(resolve(PAGE, '..', '..', 'examples'), 'push-pull-24v.json'));

@@ -144,7 +144,9 @@ test('pictures: all drawn, sweep minimum = engine, corner selector, MMF data = e
   await page.keyboard.press('ArrowDown');
   await page.waitForSelector('[data-testid="waves-figure"][data-corner="vin_max"]');
   await page.waitForSelector('[data-testid="mmf-figure"][data-corner="vin_max"]');
-  await page.waitForTimeout(100);
+  // Redrawn: each canvas's pixels differ from before.
+  await page.waitForFunction(([b]) => ['flux-plot', 'mmf-plot'].every((id, k) =>
+    document.querySelector(`canvas[data-testid="${id}"]`).toDataURL() !== b[k]), [[before.waves, before.mmf]]);
   assert.notEqual(await pixels(page, 'flux-plot'), before.waves, 'the waveforms redraw for Vin max');
   assert.notEqual(await pixels(page, 'mmf-plot'), before.mmf, 'the MMF redraws for Vin max');
   sameProfile(JSON.parse(await page.getAttribute(mmfFig, 'data-mmf')), expectedMmf(report, 'vin_max'), 'Vin max');
@@ -179,7 +181,8 @@ test('pictures: failing frequencies are shaded and listed with the engine\'s rea
   // A low core temperature limit makes the high-loss end of the sweep fail.
   await typeField(page, 'temperature_max', '70');
   await page.waitForFunction(() => document.querySelector('[id="f-temperature_max"]').value === '70');
-  await page.waitForTimeout(50);
+  // The edit reached the design (saved with it); the sweep is then redone for it.
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.temperature_max === 70);
   const s = await checkSweepMinimum(page).catch(async (e) => {
     await page.locator('[data-testid="panel-pictures"]').screenshot({ path: join(OUT, 'pictures-failing-error.png') });
     throw e;

@@ -6,7 +6,7 @@ import assert from 'node:assert/strict';
 import { readFileSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { launch, openPage, cli, shown, canvasInk, close, OUT } from './harness.mjs';
+import { launch, openPage, cli, shown, canvasInk, close, drawn, OUT, chooseWithKeyboard } from './harness.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 let browser;
@@ -86,9 +86,7 @@ test('print build sheet of the forward demo: the sheet only, the engine\'s turns
 test('build sheet of the offline flyback: gap, margins and the safety cautions', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = readFileSync(join(root, 'examples', 'flyback-offline-24w.json'), 'utf8');
-  await page.focus('[data-testid="open"]');
-  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
-  await chooser.setFiles({ name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+  await chooseWithKeyboard(page, 'open', { name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
   await page.waitForFunction(() => document.querySelector('[data-testid="file-status"]')?.textContent.includes('Opened'));
   const want = cli(['evaluate', join(root, 'examples', 'flyback-offline-24w.json')]);
   await page.waitForFunction((np) => document.querySelector('[data-testid="np"]')?.dataset.si === String(np), want.turns.primary);
@@ -104,7 +102,8 @@ test('build sheet of the offline flyback: gap, margins and the safety cautions',
 
 test('every picture is drawn', async () => {
   const { context, page, requests, errors } = await openPage(browser);
-  await page.waitForTimeout(300);
+  await page.waitForSelector('[data-testid="sweep-figure"][data-sweep-ready="true"]', { timeout: 20000 });
+  await drawn(page, ['flux-plot', 'sweep-plot', 'window-plot']);
   for (const id of ['flux-plot', 'sweep-plot', 'window-plot']) {
     const { ink, colours } = await canvasInk(page, id);
     assert.ok(ink > 0.02 && colours > 3, `${id} looks blank (ink ${ink}, ${colours} colours)`);
@@ -118,7 +117,9 @@ test('every picture is drawn', async () => {
 for (const [name, viewport] of [['laptop', { width: 1280, height: 800 }], ['tablet', { width: 768, height: 1024 }]]) {
   test(`layout at ${name} width (${viewport.width}px): no sideways scroll, every field labelled`, async () => {
     const { context, page, requests, errors } = await openPage(browser, { viewport });
-    await page.waitForTimeout(300);
+    // Laid out in full: the sweep drawn (the last part to appear).
+    await page.waitForSelector('[data-testid="sweep-figure"][data-sweep-ready="true"]', { timeout: 20000 });
+    await drawn(page, ['sweep-plot']);
     const { sw, w } = await page.evaluate(() => ({ sw: document.documentElement.scrollWidth, w: window.innerWidth }));
     assert.ok(sw <= w, `page is ${sw}px wide in a ${w}px window`);
     await page.screenshot({ path: join(OUT, `layout-${name}.png`) });

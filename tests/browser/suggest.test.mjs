@@ -4,7 +4,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
-import { launch, openPage, cli, shown, typeInto, canvasInk, close, OUT } from './harness.mjs';
+import { launch, openPage, cli, shown, typeInto, canvasInk, close, frames, OUT } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -46,15 +46,17 @@ test('run: progress advances, the ranking matches the CLI, the Pareto plot is dr
   const want = cli(['rank', '-'], text);
   assert.ok(want.passed > 15, 'the demo design passes on many library candidates');
 
+  // Progress: every evaluated count the page shows is recorded in the page
+  // (a MutationObserver sees each change), until the run is done.
+  await page.evaluate(() => {
+    window.__seen = [];
+    const read = () => { const e = document.querySelector('[data-testid="suggest-evaluated"]'); if (e) window.__seen.push(Number(e.dataset.si)); };
+    read();
+    new MutationObserver(read).observe(document.body, { subtree: true, attributes: true, attributeFilter: ['data-si'], childList: true });
+  });
   await page.click('[data-testid="suggest-run"]');
-  // Progress: sample the evaluated count while the run goes.
-  const seen = new Set();
-  for (let i = 0; i < 400; i++) {
-    const done = await si(page, 'suggest-evaluated');
-    seen.add(done);
-    if (done >= want.evaluated) break;
-    await page.waitForTimeout(10);
-  }
+  await page.waitForFunction((n) => Number(document.querySelector('[data-testid="suggest-evaluated"]')?.dataset.si) >= n, want.evaluated, { timeout: 60000 });
+  const seen = new Set(await page.evaluate(() => window.__seen));
   const mid = [...seen].filter((n) => n > 0 && n < want.evaluated);
   assert.ok(mid.length >= 2, `progress seen part-way at least twice (saw ${[...seen].join(', ')})`);
   await page.waitForFunction(() => /^Done/.test(document.querySelector('[data-testid="suggest-status"]').textContent));
@@ -132,7 +134,9 @@ test('cancel mid-run keeps a partial ranking; the page stays usable while it run
   await page.click('[data-testid="suggest-cancel"]');
   await page.waitForSelector('[data-testid="suggest-partial"]');
   const stopped = await si(page, 'suggest-evaluated');
-  await page.waitForTimeout(600);
+  // Many frames later (the search yields to the page between candidates),
+  // the count has not moved.
+  await frames(page, 30);
   assert.equal(await si(page, 'suggest-evaluated'), stopped, 'nothing more is evaluated after Cancel');
   assert.ok(stopped > 0 && stopped < want.evaluated, `stopped part-way (${stopped} of ${want.evaluated})`);
   assert.match(await page.textContent('[data-testid="suggest-partial"]'), new RegExp(`Partial: stopped after ${stopped} of ${want.evaluated}`));
@@ -194,7 +198,7 @@ test('"Use" loads the candidate into the form and the results show its design', 
   const kept = await designText(page);
   const ev = cli(['evaluate', '-'], kept);
   assert.ok(close(ev.losses.total, pick.total_loss, 1e-9), `CLI evaluate of the loaded design: ${ev.losses.total} vs ${pick.total_loss}`);
-  await page.waitForTimeout(200);
+  await frames(page, 2);
   await page.screenshot({ path: join(OUT, 'suggest-used.png'), fullPage: true });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);

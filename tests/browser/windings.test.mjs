@@ -9,7 +9,7 @@ import { readFileSync } from 'node:fs';
 import { execFileSync } from 'node:child_process';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { launch, openPage, cli, close, canvasInk, CLI, OUT } from './harness.mjs';
+import { launch, openPage, cli, close, canvasInk, CLI, OUT, chooseWithKeyboard } from './harness.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..', '..');
 let browser;
@@ -162,9 +162,7 @@ test('a conductor that cannot fit is refused at the editor, and automatic undoes
 test('the offline flyback shows its safety cautions first and its stack-up', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = readFileSync(join(root, 'examples', 'flyback-offline-24w.json'), 'utf8');
-  await page.focus('[data-testid="open"]');
-  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
-  await chooser.setFiles({ name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+  await chooseWithKeyboard(page, 'open', { name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
   await page.waitForFunction(() => document.querySelector('[data-testid="file-status"]')?.textContent.includes('Opened'));
   const want = cli(['evaluate', join(root, 'examples', 'flyback-offline-24w.json')]);
   await page.waitForFunction((np) => document.querySelector('[data-testid="np"]')?.dataset.si === String(np), want.turns.primary);

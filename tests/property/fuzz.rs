@@ -7,10 +7,17 @@
 //! truncation at a random byte, deletion, duplication and insertion of
 //! bytes, swapping a digit, a number replaced by a hostile token (1e999,
 //! -0, NaN-like strings, huge integers), a key renamed. Design files go to
-//! `Design::from_json` + `evaluate`; stack-ups to `stackup::from_json` and
-//! `stackup::import` on a library core. Never a panic; accepted reports
-//! finite; errors carry a message, and a field whenever the document is
-//! valid JSON (only a syntax error may lack one).
+//! `Design::load` (the one reader the CLI and the page call) + `evaluate`;
+//! stack-ups to `stackup::from_json` and `stackup::import` on a library
+//! core. Never a panic; accepted reports finite; errors carry a message,
+//! and a field whenever the document is valid JSON (only a syntax error
+//! may lack one).
+//!
+//! Size: [`FUZZ_INPUTS`] mutated inputs per run (at least 100 000; the
+//! `MAGWRIGHT_FUZZ_INPUTS` environment variable sets another count). Every
+//! refused or merely parsed input is checked; of the accepted design files
+//! one in [`EVALUATE_EVERY`] is also evaluated in full (evaluation is the
+//! property tests' subject; here the reader is).
 
 use crate::check_error;
 use crate::design::check_report;
@@ -142,12 +149,18 @@ fn check_import_error(text: &str, e: &Error) -> Result<(), String> {
     Ok(())
 }
 
-fn design_case(text: &str) -> Result<bool, String> {
-    match Design::from_json(text) {
-        Ok(d) => match evaluate(&d) {
+/// Mutated inputs per run, at least this many.
+const FUZZ_INPUTS: usize = 100_000;
+/// One accepted design file in this many is evaluated in full.
+const EVALUATE_EVERY: usize = 25;
+
+fn design_case(text: &str, evaluate_it: bool) -> Result<bool, String> {
+    match Design::load(text) {
+        Ok(d) if evaluate_it => match evaluate(&d) {
             Ok(r) => check_report(&d, &r).map(|_| true),
-            Err(e) => check_error(&e).map(|_| false),
+            Err(e) => check_error(&e).map(|_| true),
         },
+        Ok(_) => Ok(true),
         Err(e) => check_import_error(text, &e).map(|_| false),
     }
 }
@@ -177,7 +190,7 @@ fn corpus_files_behave() {
         let is_design = name.starts_with("design-");
         let valid = !name.contains("-bad-") && !name.contains("-truncated");
         let r = if is_design {
-            design_case(text)
+            design_case(text, true)
         } else {
             stackup_case(text, 0)
         };
@@ -195,21 +208,64 @@ fn corpus_files_behave() {
     }
 }
 
+/// The corpus's refusals from issue 14 name the full path of the value
+/// (the design file's schema, docs/design-file.md).
+#[test]
+fn corpus_refusals_name_the_path() {
+    let want = [
+        ("design-bad-misspelt-ripple.json", "spec.flyback.ripple_ratoi"),
+        ("design-bad-outputs-1000.json", "spec.outputs"),
+        ("design-bad-turns-extra-key.json", "choices.turns.turns"),
+        ("design-bad-comma-current.json", "spec.outputs[0].current"),
+        ("design-bad-negative-wraps.json", "choices.insulation.section_wraps"),
+        ("design-bad-fractional-wraps.json", "choices.insulation.section_wraps"),
+        ("design-bad-wire-awg.json", "choices.wires[1].wire.awg"),
+        ("design-bad-input-misspelt.json", "spec.input.mn"),
+        ("design-bad-zero-bsat.json", "material.material.bsat_100"),
+        ("design-bad-unknown-key.json", ""),
+    ];
+    let c = corpus();
+    for (name, path) in want {
+        let (_, text) = c.iter().find(|(n, _)| n == name).unwrap_or_else(|| panic!("{name} not in the corpus"));
+        let e = Design::load(text).expect_err(name);
+        if !path.is_empty() {
+            assert_eq!(e.field(), Some(path), "{name}: {e}");
+        }
+        assert!(e.field().is_some(), "{name}: {e}");
+    }
+    let (_, bom) = c.iter().find(|(n, _)| n == "design-bom-flyback.json").unwrap();
+    assert!(bom.starts_with('\u{feff}'));
+    Design::load(bom).expect("a byte-order mark is skipped");
+}
+
 #[test]
 fn mutated_corpus_never_panics() {
     let t0 = std::time::Instant::now();
     let mut rng = Rng(0x9e37_79b9_7f4a_7c15);
-    let per_file = 300;
-    let (mut n, mut accepted) = (0, 0);
-    for (name, text) in corpus() {
+    let total = std::env::var("MAGWRIGHT_FUZZ_INPUTS").ok().and_then(|v| v.parse().ok()).unwrap_or(FUZZ_INPUTS);
+    let files = corpus();
+    let per_file = total.div_ceil(files.len());
+    let (mut n, mut accepted, mut accepted_designs) = (0, 0, 0);
+    for (name, text) in &files {
         let is_design = name.starts_with("design-");
         for k in 0..per_file {
-            let mut m = mutate(&text, &mut rng);
+            let mut m = mutate(text, &mut rng);
             if k % 3 == 0 {
                 m = mutate(&m, &mut rng);
             }
             let r = if is_design {
-                design_case(&m)
+                // Parsed first; evaluated for one accepted file in EVALUATE_EVERY.
+                let r = design_case(&m, false);
+                if r == Ok(true) {
+                    accepted_designs += 1;
+                    if accepted_designs % EVALUATE_EVERY == 0 {
+                        design_case(&m, true)
+                    } else {
+                        r
+                    }
+                } else {
+                    r
+                }
             } else {
                 stackup_case(&m, k)
             };
@@ -220,8 +276,11 @@ fn mutated_corpus_never_panics() {
             n += 1;
         }
     }
+    assert!(n >= total.min(FUZZ_INPUTS), "{n} inputs");
     eprintln!(
-        "fuzz: {n} mutated files, {accepted} accepted, {:.2} s",
+        "fuzz: {n} mutated files, {accepted} accepted, {} refused ({} design files evaluated), {:.2} s",
+        n - accepted,
+        accepted_designs / EVALUATE_EVERY,
         t0.elapsed().as_secs_f64()
     );
 }

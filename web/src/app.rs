@@ -55,12 +55,18 @@ impl Status {
     }
 }
 
-/// A file error for people: the message, and the field when serde named one.
+/// A file error for people: the field's full path and the message, in the
+/// words the CLI uses (`spec.input.min: must be …`).
 fn describe(e: &Error) -> String {
-    match e.field() {
-        Some(f) => format!("{} [field {f}]", e.message()),
-        _ => e.message().to_string(),
-    }
+    e.to_string()
+}
+
+/// A stored design the page cannot read: kept untouched (never saved over)
+/// until the user downloads or discards it.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Held {
+    pub text: String,
+    pub why: String,
 }
 
 /// The design from a `#design=` fragment, if the fragment is one.
@@ -68,41 +74,73 @@ fn from_link(hash: &str) -> Option<Result<Design, String>> {
     persist::from_fragment(hash).map(|r| r.and_then(|text| files::from_json(&text).map_err(|e| describe(&e))))
 }
 
+/// Where the page starts.
+struct Start {
+    design: Design,
+    source: Source,
+    note: Option<Status>,
+    /// The stored text, when it cannot be read.
+    held: Option<Held>,
+    /// A link replaced a different stored design (kept under
+    /// [`persist::BEFORE_LINK_KEY`]).
+    replaced: bool,
+}
+
+/// Before a link's design is shown: keeps a different, readable stored
+/// design one click away. True when one was kept.
+fn keep_stored_for(link: &Design) -> bool {
+    match persist::load() {
+        Some(text) => match files::from_json(&text) {
+            Ok(stored) if &stored != link => persist::keep_before_link(&text),
+            _ => false,
+        },
+        None => false,
+    }
+}
+
 /// The first design: link, else storage, else demo; and a note to show.
-fn initial(hash: &str) -> (Design, Source, Option<Status>) {
+/// A stored design that cannot be read is held, never replaced.
+fn initial(hash: &str) -> Start {
     let mut note = None;
+    let stored = persist::load();
+    let held = stored.as_ref().and_then(|text| {
+        files::from_json(text).err().map(|e| Held { text: text.clone(), why: describe(&e) })
+    });
     if let Some(link) = from_link(hash) {
         browser::clear_hash();
         match link {
-            Ok(spec) => return (spec, Source::Link, Status::ok("Opened the design from the link.")),
+            Ok(d) => {
+                let replaced = held.is_none() && keep_stored_for(&d);
+                return Start { design: d, source: Source::Link, note: Status::ok("Opened the design from the link."), held, replaced };
+            }
             Err(m) => {
                 note = Status::err(format!("The link's design could not be read: {m}. Nothing was taken from it."))
             }
         }
     }
-    if let Some(text) = persist::load() {
-        match files::from_json_noted(&text) {
-            Ok((spec, notes)) if !notes.is_empty() && note.is_none() => {
-                return (spec, Source::Storage, Status::ok(files::with_notes("The design saved in this browser:", &notes)))
-            }
-            Ok((spec, _)) => return (spec, Source::Storage, note),
-            Err(e) => {
-                note = note.or(Status::err(format!(
-                    "The design saved in this browser could not be read ({}); showing the demo.",
-                    describe(&e)
-                )))
-            }
+    if let (Some(text), None) = (&stored, &held) {
+        if let Ok((d, notes)) = files::from_json_noted(text) {
+            let note = if !notes.is_empty() && note.is_none() {
+                Status::ok(files::with_notes("The design saved in this browser:", &notes))
+            } else {
+                note
+            };
+            return Start { design: d, source: Source::Storage, note, held: None, replaced: false };
         }
     }
-    (form::demo(), Source::Demo, note)
+    Start { design: form::demo(), source: Source::Demo, note, held, replaced: false }
 }
 
 #[component]
 pub fn App() -> impl IntoView {
     let hash = browser::hash();
-    let (first, source, note) = initial(&hash);
+    let Start { design: first, source, note, held, replaced } = initial(&hash);
     let form = Form::new(&first);
     let status = RwSignal::new(note);
+    // The unreadable stored design, while it is kept; nothing is saved then.
+    let held = RwSignal::new(held);
+    // A link's design replaced a different stored one (kept one click away).
+    let replaced = RwSignal::new(replaced);
 
     let spec = Memo::new(move |_| form.parse());
     let outcome: Memo<Outcome> = Memo::new(move |_| match spec.get() {
@@ -114,12 +152,27 @@ pub fn App() -> impl IntoView {
         (Ok(s), true) => Some(s),
         _ => None,
     });
+    // While an entry is invalid, results and pictures keep the last good
+    // design (marked as not matching the form); see `StaleNote`.
+    let shown: Memo<Outcome> = Memo::new(move |prev: Option<&Outcome>| match (outcome.get(), prev) {
+        (Ok(r), _) => Ok(r),
+        (Err(_), Some(Ok(r))) => Ok(r.clone()),
+        (Err(p), _) => Err(p),
+    });
+    let stale = Memo::new(move |_| outcome.with(|o| o.is_err()) && shown.with(|s| s.is_ok()));
     // The design the pictures sweep: the last good one.
-    let design = good;
+    let design = Memo::new(move |prev: Option<&Option<Design>>| match (good.get(), prev) {
+        (Some(d), _) => Some(d),
+        (None, Some(p)) => p.clone(),
+        (None, None) => None,
+    });
     let saved = RwSignal::new(true);
     Effect::new(move |_| {
         if let Some(s) = good.get() {
-            saved.set(persist::save(&files::to_json(&s)));
+            // An unreadable stored design is kept until the user decides.
+            if held.with(|h| h.is_none()) {
+                saved.set(persist::save(&files::to_json(&s)));
+            }
         }
     });
 
@@ -131,6 +184,9 @@ pub fn App() -> impl IntoView {
             browser::clear_hash();
             match link {
                 Ok(s) => {
+                    if held.with_untracked(|h| h.is_none()) && keep_stored_for(&s) {
+                        replaced.set(true);
+                    }
                     form.set(&s);
                     status.set(Status::ok("Opened the design from the link."));
                 }
@@ -146,16 +202,19 @@ pub fn App() -> impl IntoView {
 
     view! {
         <a class="skip" href="#results-h">"Skip to results"</a>
-        <header class="top">
+        <header class="top" data-source=match source { Source::Link => "link", Source::Storage => "storage", Source::Demo => "demo" }>
             <h1>"Magwright"</h1>
             <span class="sub">{form::TITLE}</span>
             <span class="saved" data-testid="saved-state">
-                {move || if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
+                {move || if held.with(|h| h.is_some()) {
+                    "Not saved: the design stored in this browser is kept (see above)"
+                } else if saved.get() { "Saved in this browser" } else { "Not saved: this browser refuses storage" }}
             </span>
             <p class="standing-caution" data-testid="standing-caution" role="note">
                 {magwright_engine::topology::spec::STANDING_CAUTION}
             </p>
         </header>
+        <StorageNotes form=form held=held replaced=replaced status=status />
         <main class="layout">
             <div class="col inputs">
                 <Panel id="spec" title="Specification" help="The converter this transformer serves. Values take SI prefixes (200k, 4.7u, 150m); every edit recomputes the design.">
@@ -169,7 +228,8 @@ pub fn App() -> impl IntoView {
             </div>
             <div class="col outputs">
                 <Panel id="results" title="Results" help="The checks that decide the design, with their margins and worst line corner, then the key figures and cautions.">
-                    <Results outcome=outcome />
+                    <StaleNote outcome=outcome stale=stale what="results" />
+                    <div class="stale-able" class:stale=stale><Results outcome=shown /></div>
                 </Panel>
                 <Panel id="files" title="Files" help="Save the design as a file, open one, copy a link that holds the design, or print a build sheet. Your last good design is also kept in this browser.">
                     <FileActions form=form spec=spec status=status />
@@ -177,7 +237,8 @@ pub fn App() -> impl IntoView {
             </div>
             <div class="col pictures">
                 <Panel id="pictures" title="Pictures" help="The flux in the core over one period at both line corners, and the design redone across switching frequency.">
-                    <Pictures outcome=outcome design=design />
+                    <StaleNote outcome=outcome stale=stale what="pictures" />
+                    <div class="stale-able" class:stale=stale><Pictures outcome=shown design=design /></div>
                 </Panel>
                 <Panel id="windings" title="Windings" help="What to wind with which wire, the loss of each winding, and the window it goes into, to scale.">
                     <Windings form=form outcome=outcome />
@@ -188,6 +249,86 @@ pub fn App() -> impl IntoView {
             <Suggest form=form />
         </Panel>
         <BuildSheet outcome=outcome />
+    }
+}
+
+/// Says that the results (or pictures) are of the last good design while an
+/// entry is invalid, and lists what to fix (the results' note only).
+#[component]
+fn StaleNote(outcome: Memo<Outcome>, stale: Memo<bool>, what: &'static str) -> impl IntoView {
+    move || {
+        if !stale.get() {
+            return None;
+        }
+        let lines = outcome.with(|o| o.as_ref().err().map(Problem::lines).unwrap_or_default());
+        Some(if what == "results" {
+            view! {
+                <div class="missing stale-note" data-testid="missing" role="status">
+                    <p data-testid="stale-note"><strong>"Not the form's design."</strong>" These results are of the last good design; fix these entries to update them:"</p>
+                    <ul>{lines.into_iter().map(|l| view! { <li>{l}</li> }).collect_view()}</ul>
+                </div>
+            }
+            .into_any()
+        } else {
+            view! {
+                <p class="stale-note" data-testid="stale-pictures" role="status">
+                    <strong>"Not the form's design:"</strong>" these pictures are of the last good design."
+                </p>
+            }
+            .into_any()
+        })
+    }
+}
+
+/// At the top: a stored design that cannot be read (kept, with download and
+/// discard), and the way back to the stored design a link replaced.
+#[component]
+fn StorageNotes(form: Form, held: RwSignal<Option<Held>>, replaced: RwSignal<bool>, status: RwSignal<Option<Status>>) -> impl IntoView {
+    let download = move |_| {
+        if let Some(h) = held.get_untracked() {
+            if let Err(e) = browser::download("magwright-stored-design.json", "application/json", &h.text) {
+                status.set(Status::err(format!("Could not download the stored design: {e}.")));
+            }
+        }
+    };
+    let discard = move |_| {
+        persist::discard();
+        held.set(None);
+        // The design on screen is saved from now on (the effect sees `held`).
+        status.set(Status::ok("Discarded the stored design; the design on screen is now saved in this browser."));
+    };
+    let back = move |_| {
+        let kept = persist::before_link().and_then(|t| files::from_json(&t).ok());
+        match kept {
+            Some(d) => {
+                form.set(&d);
+                status.set(Status::ok("Back to the design you had in this browser before the link."));
+            }
+            None => status.set(Status::err("The design from before the link is no longer stored.")),
+        }
+        persist::forget_before_link();
+        replaced.set(false);
+    };
+    let keep_link = move |_| {
+        persist::forget_before_link();
+        replaced.set(false);
+    };
+    view! {
+        {move || held.get().map(|h| view! {
+            <div class="storage-note bad" data-testid="storage-problem" role="alert">
+                <p><strong>"The design saved in this browser could not be read"</strong>{format!(" ({}).", h.why)}
+                    " It is kept untouched and nothing is saved over it: download it to keep it, or discard it. The page shows the demo meanwhile."</p>
+                <button type="button" data-testid="stored-download" on:click=download>"Download the stored design"</button>
+                <button type="button" data-testid="stored-discard" on:click=discard>"Discard it"</button>
+            </div>
+        })}
+        {move || replaced.get().then(|| view! {
+            <div class="storage-note" data-testid="link-note" role="status">
+                <p>"This is the design from the link. The different design you had in this browser is kept."</p>
+                <button type="button" data-testid="back-to-stored" on:click=back>"Back to my design"</button>
+                <button type="button" data-testid="keep-link" on:click=keep_link>"Keep the link's design"</button>
+            </div>
+        })}
     }
 }
 

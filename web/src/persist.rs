@@ -6,6 +6,11 @@
 //!
 //! On load the page takes, in order: a design in the fragment, else the one
 //! in localStorage, else the demo (see `crate::app`).
+//!
+//! Nothing stored is overwritten in silence: a stored design the page cannot
+//! read (a newer version, damaged text) is held untouched until the user
+//! downloads or discards it, and a design opened from a link first copies
+//! the different design stored here to [`BEFORE_LINK_KEY`], one click away.
 
 use crate::browser;
 
@@ -13,6 +18,31 @@ use crate::browser;
 pub const STORAGE_KEY: &str = "magwright.design";
 /// Fragment prefix of a share link.
 pub const FRAGMENT_PREFIX: &str = "#design=";
+
+/// localStorage key of the design that was stored when a link was opened.
+pub const BEFORE_LINK_KEY: &str = "magwright.design.before-link";
+
+/// Removes the stored design (the user chose to discard it).
+pub fn discard() -> bool {
+    browser::storage().is_some_and(|s| s.remove_item(STORAGE_KEY).is_ok())
+}
+
+/// Keeps `text` as the design from before a link was opened.
+pub fn keep_before_link(text: &str) -> bool {
+    browser::storage().is_some_and(|s| s.set_item(BEFORE_LINK_KEY, text).is_ok())
+}
+
+/// The design kept from before a link was opened, if any.
+pub fn before_link() -> Option<String> {
+    browser::storage()?.get_item(BEFORE_LINK_KEY).ok().flatten()
+}
+
+/// Forgets the design kept from before a link.
+pub fn forget_before_link() {
+    if let Some(s) = browser::storage() {
+        let _ = s.remove_item(BEFORE_LINK_KEY);
+    }
+}
 
 /// Saves the design text; false when storage is unavailable or full.
 pub fn save(text: &str) -> bool {

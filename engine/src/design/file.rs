@@ -172,7 +172,7 @@ pub struct Choices {
     /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
     /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
     /// a design whose magnetic loses more. 0.01 to 1; default
-    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`].
+    /// [`DEFAULT_MAGNETIC_LOSS_SHARE`] (also when absent from a file).
     pub magnetic_loss_share: f64,
     /// Forward, push-pull and bridges: the output choke's core (`None`:
     /// chosen from the library by least loss, `design::solve::choke`).

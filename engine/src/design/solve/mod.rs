@@ -34,8 +34,10 @@
 //!    (`thermal`): core loss follows its temperature factor, copper its
 //!    resistivity; the copper model is rebuilt at each outer step.
 //! 8. **Checks**: saturation at the equilibrium temperature, core
-//!    temperature, window build, duty, switch voltage; each with its margin,
-//!    the ones that bind marked.
+//!    temperature, window build, duty, switch voltage, Curie, the loss
+//!    budget (energy balance against `choices.magnetic_loss_share`) and the
+//!    material data range (`loss::range`); each with its margin, the ones
+//!    that bind marked.
 
 mod balance;
 mod candidate;
