@@ -35,7 +35,7 @@ pub fn rise(loss: f64, surface: f64) -> Result<f64> {
 /// Result of the equilibrium iteration.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Equilibrium {
-    /// Operating (hot-spot) temperature, °C.
+    /// Operating (mean surface) temperature, °C.
     pub temperature: f64,
     /// Rise over ambient, K.
     pub rise: f64,

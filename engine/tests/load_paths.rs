@@ -191,6 +191,8 @@ fn every_refusal_names_its_path() {
         (0, "/material/material/steinmetz/alpha", Some(json!("x")), "material.material.steinmetz.alpha"),
         (0, "/material/material/steinmetz/k", Some(json!(-1.0)), "material.material.steinmetz.k"),
         (0, "/material/material/temp_factor/curvature", None, "material.material.temp_factor.curvature"),
+        (0, "/material/material/temp_factor/curvature", Some(json!(-1e-4)), "material.material.temp_factor.curvature"),
+        (0, "/material/material/temp_factor/least_loss_c", Some(json!(400.0)), "material.material.temp_factor.least_loss_c"),
         (2, "/version", Some(json!(99)), "version"),
         (2, "/schema", Some(json!("other")), "schema"),
         (2, "/name", Some(json!(5)), "name"),

@@ -49,8 +49,11 @@ test('demo design, edits, invalid entries, no network', async () => {
   assert.equal(await page.inputValue('[id="f-frequency"]'), '100k', 'the field keeps exactly what was typed');
 
   // A decimal typed key by key is not mangled.
-  await typeInto(page, 'duty_max', '0.42');
-  assert.equal(await page.inputValue('[id="f-duty_max"]'), '0.42');
+  // Duty max is entered in % (the results show duty in %).
+  await typeInto(page, 'duty_max', '42.5');
+  assert.equal(await page.inputValue('[id="f-duty_max"]'), '42.5');
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).spec.duty_max === 0.425);
+  await typeInto(page, 'duty_max', '42');
   await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design')).spec.duty_max === 0.42);
   await assertMatchesEngine(page);
   await page.screenshot({ path: join(OUT, 'design-edited.png'), fullPage: true });

@@ -94,7 +94,7 @@ test('malformed, foreign and ill-fitting files are refused and change nothing', 
     ['newer.json', '{"schema": "magwright-design", "version": 7, "spec": {}}', /newer Magwright/],
     ['wrongtype.json', (() => { const d = cli(['demo', 'forward']); d.spec.outputs[0].voltage = 'twelve'; return JSON.stringify(d, null, 2); })(),
       /spec\.outputs\[0\]\.voltage: invalid type: string "twelve".*\(line \d+\)/],
-    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 1, spec: { topology: 'forward' } }), /spec\.\w+: the key "\w+" is missing/],
+    ['missing.json', JSON.stringify({ schema: 'magwright-design', version: 2, spec: { topology: 'forward' } }), /spec\.\w+: the key "\w+" is missing/],
   ];
   for (const [i, [name, text, re]] of cases.entries()) {
     const msg = await openWithKeyboard(page, name, text, { keyboard: i === 0 });

@@ -178,17 +178,17 @@ test('pictures: all drawn, sweep minimum = engine, corner selector, MMF data = e
 test('pictures: failing frequencies are shaded and listed with the engine\'s reasons', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   await sweepReady(page);
-  // A low hot-spot limit makes the high-loss end of the sweep fail.
-  await typeField(page, 'hot_spot_max', '70');
-  await page.waitForFunction(() => document.querySelector('[id="f-hot_spot_max"]').value === '70');
+  // A low core temperature limit makes the high-loss end of the sweep fail.
+  await typeField(page, 'temperature_max', '70');
+  await page.waitForFunction(() => document.querySelector('[id="f-temperature_max"]').value === '70');
   // The edit reached the design (saved with it); the sweep is then redone for it.
-  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.hot_spot_max === 70);
+  await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').spec?.temperature_max === 70);
   const s = await checkSweepMinimum(page).catch(async (e) => {
     await page.locator('[data-testid="panel-pictures"]').screenshot({ path: join(OUT, 'pictures-failing-error.png') });
     throw e;
   });
   const failing = s.points.filter((p) => !p.feasible);
-  assert.ok(failing.length > 0, 'some frequencies fail with a 70 °C hot-spot limit');
+  assert.ok(failing.length > 0, 'some frequencies fail with a 70 °C core temperature limit');
   const items = await page.$$eval('[data-testid="sweep-fails"] li', (els) =>
     els.map((e) => ({ from: Number(e.dataset.fromHz), to: Number(e.dataset.toHz), text: e.textContent })));
   assert.ok(items.length > 0, 'the failing ranges are listed');

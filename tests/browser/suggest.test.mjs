@@ -34,7 +34,7 @@ function sameCandidate(got, want, what) {
   assert.equal(got.material, want.material, `${what}: material`);
   assert.ok(close(got.total_loss, want.total_loss, 1e-9), `${what}: loss ${got.total_loss} vs CLI ${want.total_loss}`);
   assert.ok(close(got.volume, want.volume, 1e-12), `${what}: volume ${got.volume} vs CLI ${want.volume}`);
-  assert.ok(close(got.temperature, want.temperature, 1e-9), `${what}: hot spot`);
+  assert.ok(close(got.temperature, want.temperature, 1e-9), `${what}: core temperature`);
   assert.equal(got.primary_turns, want.primary_turns, `${what}: Np`);
   assert.equal(got.pareto, want.pareto, `${what}: Pareto mark`);
 }

@@ -42,7 +42,7 @@ async function matchesCli(page, what) {
     // Same engine, same f64 arithmetic; the wasm and native libm may differ
     // in the last bit of pow/exp, amplified a little by the thermal loop.
     assert.ok(close(got[w.name].fr, w.fr, 1e-6), `${what}: Fr of ${w.name}: page ${got[w.name].fr}, CLI ${w.fr}`);
-    assert.ok(close(got[w.name].loss, w.ac_loss, 1e-6), `${what}: loss of ${w.name}: page ${got[w.name].loss}, CLI ${w.ac_loss}`);
+    assert.ok(close(got[w.name].loss, w.total_loss, 1e-6), `${what}: loss of ${w.name}: page ${got[w.name].loss}, CLI ${w.total_loss}`);
     assert.ok(close(got[w.name].rdc, w.rdc, 1e-6), `${what}: Rdc of ${w.name}`);
   }
   return { design: JSON.parse(design), want };
@@ -199,8 +199,8 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   }
   assert.ok(close(Number(await page.getAttribute('[data-testid="leakage"]', 'data-si')), want.leakage, 1e-6));
   assert.equal(Number(await page.getAttribute('[data-testid="nreset"]', 'data-si')), want.turns.reset);
-  // A hot-spot limit below the operating temperature fails; it goes first, in red.
-  await page.focus('#f-hot_spot_max');
+  // A core temperature limit below the operating temperature fails; it goes first, in red.
+  await page.focus('#f-temperature_max');
   await page.keyboard.press('Control+A');
   await page.keyboard.type('55', { delay: 20 });
   await page.waitForFunction(() => document.querySelector('[data-testid="verdict"]')?.dataset.pass === 'false');
@@ -208,7 +208,7 @@ test('results at a glance: verdict, failing checks first and red, binding marked
   assert.equal(first.id, 'check-temperature');
   const [r, g, b] = first.colour.match(/\d+/g).map(Number);
   assert.ok(r > 130 && g < 60 && b < 60, `failing row is red (${first.colour})`);
-  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Hot spot \(-\d+ %\)/);
+  assert.match(await page.textContent('[data-testid="verdict"]'), /^Fails 1 check — Core temperature \(-[\d.]+ K\)/);
   await page.locator('[data-testid="panel-results"]').screenshot({ path: join(OUT, 'results-failing.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
@@ -235,7 +235,7 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the seconda
   assert.deepEqual(order(seeded.design), asWound.map((w) => ({ winding: w, turns: null })));
   for (const w of start.want.operating.copper.windings) {
     const now = seeded.want.operating.copper.windings.find((x) => x.name === w.name);
-    assert.ok(close(now.ac_loss, w.ac_loss, 1e-12), `seeding changes nothing: ${w.name}`);
+    assert.ok(close(now.total_loss, w.total_loss, 1e-12), `seeding changes nothing: ${w.name}`);
   }
   assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move secondary 1 section 1 up');
   assert.equal(await page.getAttribute('#order-split-3', 'aria-label'), 'Split primary section 2 in two');

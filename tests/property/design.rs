@@ -131,7 +131,7 @@ fn spec() -> impl Strategy<Value = Spec> {
         .prop_map(
             |(
                 (topology, input, outputs, frequency, duty_max),
-                (efficiency, ambient, hot_spot_max),
+                (efficiency, ambient, temperature_max),
                 (isolation, ratio, ripple_ratio, choke_ripple_ratio),
             )| Spec {
                 topology,
@@ -141,7 +141,7 @@ fn spec() -> impl Strategy<Value = Spec> {
                 duty_max,
                 efficiency,
                 ambient,
-                hot_spot_max,
+                temperature_max,
                 isolation,
                 flyback: FlybackOptions {
                     ratio,
@@ -363,7 +363,7 @@ pub fn check_report(d: &Design, r: &Report) -> Result<(), String> {
             if w.fr < 1.0 - 1e-9 {
                 return Err(format!("{}: Fr = {} < 1", w.name, w.fr));
             }
-            if w.dc_loss < 0.0 || w.ac_loss < 0.0 {
+            if w.dc_loss < 0.0 || w.total_loss < 0.0 {
                 return Err(format!("{}: negative winding loss", w.name));
             }
         }
@@ -539,7 +539,7 @@ fn fr_at_least_one_with_long_edges() {
     d.spec.duty_max = 0.2;
     d.spec.efficiency = 0.6;
     d.spec.ambient = 0.0;
-    d.spec.hot_spot_max = 80.0;
+    d.spec.temperature_max = 80.0;
     d.spec.choke_ripple_ratio = 0.576;
     d.core = CoreChoice::Library {
         designation: "PQ 20/16".into(),

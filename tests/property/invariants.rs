@@ -136,7 +136,7 @@ fn spec(f_lo: f64, f_hi: f64) -> impl Strategy<Value = Spec> {
         .prop_map(
             |(
                 (topology, input, outputs, frequency, dx),
-                (efficiency, ambient, hot_spot_max),
+                (efficiency, ambient, temperature_max),
                 (isolation, ratio, ripple_ratio, choke_ripple_ratio),
             )| {
                 let (lo, hi) = match topology {
@@ -158,7 +158,7 @@ fn spec(f_lo: f64, f_hi: f64) -> impl Strategy<Value = Spec> {
                     duty_max,
                     efficiency: efficiency.min(0.97 * cap),
                     ambient,
-                    hot_spot_max,
+                    temperature_max,
                     isolation,
                     flyback: FlybackOptions {
                         ratio: FlybackRatio::FromDutyMax,

@@ -173,7 +173,7 @@ fn stackup_import_fit_and_copper_loss_never_panic() {
                     prop_assert!(r.total >= 0.0);
                     for w in &r.windings {
                         prop_assert!(w.fr >= 1.0 - 1e-9, "{}: Fr {}", w.name, w.fr);
-                        prop_assert!(w.dc_loss >= 0.0 && w.ac_loss >= 0.0);
+                        prop_assert!(w.dc_loss >= 0.0 && w.total_loss >= 0.0);
                     }
                 }
                 Err(e) => check_error(&e).map_err(TestCaseError::fail)?,

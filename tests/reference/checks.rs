@@ -183,7 +183,7 @@ fn sweep_and_optimiser_hold_the_data_range() {
 
 // ---------------------------------------------------------- temperatures
 
-/// A hot-spot limit at or above the Curie temperature is refused, naming
+/// A core temperature limit at or above the Curie temperature is refused, naming
 /// the field; a rising Bsat is refused at entry unless marked deliberate.
 #[test]
 fn curie_and_rising_bsat_are_refused() {
@@ -192,12 +192,12 @@ fn curie_and_rising_bsat_are_refused() {
         name: "MnZn-hiperm".into(),
     };
     let curie = materials::find("MnZn-hiperm").unwrap().curie_c;
-    d.spec.hot_spot_max = curie + 5.0;
+    d.spec.temperature_max = curie + 5.0;
     let e = evaluate(&d).unwrap_err();
-    assert_eq!(e.field(), Some("spec.hot_spot_max"), "{e}");
+    assert_eq!(e.field(), Some("spec.temperature_max"), "{e}");
     assert!(e.message().contains("Curie"));
-    d.spec.hot_spot_max = curie;
-    assert_eq!(evaluate(&d).unwrap_err().field(), Some("spec.hot_spot_max"));
+    d.spec.temperature_max = curie;
+    assert_eq!(evaluate(&d).unwrap_err().field(), Some("spec.temperature_max"));
 
     let mut m = materials::find("MnZn-200k").unwrap();
     m.name = "swapped".into();

@@ -50,10 +50,10 @@ fn two_switch() -> Design {
 }
 
 /// The Bpk limit by hand: Bsat linear between its 25 °C and 100 °C values
-/// (the library's stated model), at the hot-spot limit, less the margin.
+/// (the library's stated model), at the core temperature limit, less the margin.
 fn b_limit(d: &Design, r: &Report) -> f64 {
     let m = &r.material;
-    let t = d.spec.hot_spot_max;
+    let t = d.spec.temperature_max;
     let bsat = m.bsat_25 + (t - 25.0) / 75.0 * (m.bsat_100 - m.bsat_25);
     bsat * (1.0 - d.choices.saturation_margin)
 }

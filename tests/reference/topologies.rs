@@ -316,7 +316,7 @@ fn fly_spec() -> Spec {
         duty_max: 0.6,
         efficiency: 0.85,
         ambient: 40.0,
-        hot_spot_max: 110.0,
+        temperature_max: 110.0,
         isolation: Isolation::Reinforced,
         flyback: FlybackOptions {
             ratio: FlybackRatio::ReflectedVoltage(100.0),

@@ -9,8 +9,10 @@ pub fn Field(
     /// Key of the spec field (also the element id: `f-<key>`).
     key: &'static str,
     label: &'static str,
-    /// Unit shown after the box.
-    unit: &'static str,
+    /// Unit shown after the box (may follow another entry, e.g. V for a
+    /// reflected voltage, none for a turns ratio).
+    #[prop(into)]
+    unit: Signal<&'static str>,
     text: RwSignal<String>,
     /// Message to show under the field, if any.
     #[prop(into)]
@@ -37,7 +39,7 @@ pub fn Field(
                     prop:value=move || text.get()
                     on:input:target=move |ev| text.set(ev.target().value())
                 />
-                <span class="unit">{unit}</span>
+                <span class="unit">{move || unit.get()}</span>
             </div>
             <div class="msg" id=err_id role="alert">{move || error.get().unwrap_or_default()}</div>
         </div>

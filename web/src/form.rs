@@ -23,7 +23,7 @@ pub type Report = design::Report;
 
 /// What the page designs, shown under its name.
 pub const TITLE: &str =
-    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters";
+    "Transformers for flyback, forward (one and two switch), push-pull, half-bridge and full-bridge converters, and DC-biased inductors";
 
 /// The design shown to a first-time visitor: the forward demo, which passes.
 pub fn demo() -> Design {
@@ -97,10 +97,51 @@ pub struct NumDef {
     pub prefixed: bool,
     /// May be left empty (then "automatic").
     pub optional: bool,
+    /// Shown units per SI unit: 1000 for a length in mm, 100 for a
+    /// fraction in %, 1 when the field holds the SI value itself.
+    pub per: f64,
 }
 
 const fn num(key: &'static str, label: &'static str, unit: &'static str, group: Group, help: &'static str) -> NumDef {
-    NumDef { key, label, unit, help, group, whole: false, prefixed: false, optional: false }
+    NumDef { key, label, unit, help, group, whole: false, prefixed: false, optional: false, per: 1.0 }
+}
+
+/// A fraction entered and shown in % (the results show fractions in %).
+const fn pct(key: &'static str, label: &'static str, group: Group, help: &'static str) -> NumDef {
+    NumDef { per: 100.0, ..num(key, label, "%", group, help) }
+}
+
+/// A length entered and shown in mm.
+const fn mm(key: &'static str, label: &'static str, group: Group, help: &'static str) -> NumDef {
+    NumDef { per: 1000.0, ..num(key, label, "mm", group, help) }
+}
+
+impl NumDef {
+    /// The field's text for the SI value `v`: exact where a decimal in the
+    /// shown unit divides back to `v`, else the nearest (e.g. 1/3 in %).
+    pub fn text(&self, v: f64) -> String {
+        if self.per == 1.0 {
+            return text_of(v, self.prefixed);
+        }
+        // The shortest text whose value, divided by `per`, is exactly `v`.
+        let shown = v * self.per;
+        for digits in 1..=17 {
+            let t = format!("{:.*}", digits, shown);
+            let t = if t.contains('.') { t.trim_end_matches('0').trim_end_matches('.').to_string() } else { t };
+            if notation::parse(&t, "").is_ok_and(|x| x / self.per == v) {
+                return t;
+            }
+        }
+        format!("{shown}")
+    }
+
+    /// The SI value of the field's text (a `per` unit divided out).
+    pub fn read(&self, text: &str) -> Result<f64, notation::ParseError> {
+        if self.whole {
+            return notation::parse_count(text).map(f64::from);
+        }
+        notation::parse(text, self.unit).map(|x| x / self.per)
+    }
 }
 
 /// Indices of the entries in [`NUMS`], by name.
@@ -152,24 +193,24 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     },
     num("input.bridge_drop", "Bridge drop", "V", Group::Ac, "Drop of two bridge diodes in series"),
     NumDef { prefixed: true, ..num("frequency", "fsw", "Hz", Group::Converter, "Switching frequency, e.g. 200k") },
-    num("duty_max", "Duty max", "", Group::Converter, "Largest on-time of one switch over its period"),
-    num("efficiency", "Efficiency", "", Group::Converter, "Estimated Pout/Pin of the converter"),
+    pct("duty_max", "Duty max", Group::Converter, "Largest on-time of one switch over its period, %"),
+    pct("efficiency", "Efficiency", Group::Converter, "Estimated Pout/Pin of the converter, %"),
     num("ambient", "Ambient", "°C", Group::Converter, "Air temperature around the magnetic"),
-    num("hot_spot_max", "Hot spot max", "°C", Group::Converter, "Highest temperature the magnetic may reach"),
+    num("temperature_max", "Core temp. max", "°C", Group::Converter, "Highest mean surface temperature of the magnetic (McLyman's surface-dissipation model); the winding's hottest point runs higher"),
     num("choke_ripple_ratio", "Choke ripple", "", Group::Converter, "Output choke ripple ΔI/Iout at Vin max (forward, push-pull, bridges); inductor: ΔI/IL at its largest"),
     num("flyback.ratio", "Ratio value", "", Group::Flyback, "Reflected voltage (V) or turns ratio Np/Ns, as chosen"),
     num("flyback.ripple_ratio", "Ripple ratio", "", Group::Flyback, "ΔIp/Ip,centre at Vin min: below 2 CCM, 2 boundary, above DCM"),
     NumDef {
         prefixed: true,
         optional: true,
-        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the hot-spot limit less the margin")
+        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the core temperature limit less the margin")
     },
-    num("choices.saturation_margin", "Bsat margin", "", Group::Flux, "Fraction kept below Bsat, e.g. 0.2"),
+    pct("choices.saturation_margin", "Bsat margin", Group::Flux, "Share kept below Bsat, e.g. 20 %"),
     NumDef {
         whole: true,
         ..num("choices.turns.turns", "Primary turns", "", Group::Flux, "Used when the turns rule is 'fixed'")
     },
-    num("choices.window_utilisation", "Window use Ku", "", Group::Winding, "Copper share of the window for automatic wire"),
+    pct("choices.window_utilisation", "Window use Ku", Group::Winding, "Copper share of the window for automatic wire, %"),
     NumDef {
         prefixed: true,
         ..num("choices.edge_time", "Edge time", "s", Group::Winding, "Switching rise/fall time; 0 takes ideal steps (conservative)")
@@ -181,18 +222,16 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     NumDef { whole: true, ..num("choices.insulation.section_wraps", "Tape between sections", "wraps", Group::Winding, "") },
     NumDef { whole: true, ..num("choices.insulation.outer_wraps", "Tape over the top", "wraps", Group::Winding, "") },
     NumDef { whole: true, ..num("choices.insulation.interlayer_wraps", "Tape between layers", "wraps", Group::Winding, "") },
-    NumDef { prefixed: true, ..num("choices.insulation.tape_thickness", "Tape thickness", "m", Group::Winding, "One wrap, e.g. 50u") },
+    mm("choices.insulation.tape_thickness", "Tape thickness", Group::Winding, "One wrap, mm, e.g. 0.05"),
     NumDef {
-        prefixed: true,
         optional: true,
-        ..num("choices.insulation.margin", "Flange margin", "m", Group::Winding, "Margin tape at each flange; empty: from the isolation class")
+        ..mm("choices.insulation.margin", "Flange margin", Group::Winding, "Margin tape at each flange, mm; empty: from the isolation class")
     },
-    num(
+    pct(
         "choices.magnetic_loss_share",
         "Loss share",
-        "",
         Group::Converter,
-        "The magnetic's share of the converter's loss budget Pin − Pout, e.g. 0.5",
+        "The magnetic's share of the converter's loss budget Pin − Pout, %, e.g. 50",
     ),
 ];
 
@@ -357,7 +396,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(s.duty_max),
         Some(s.efficiency),
         Some(s.ambient),
-        Some(s.hot_spot_max),
+        Some(s.temperature_max),
         Some(s.choke_ripple_ratio),
         Some(fly_value),
         Some(s.flyback.ripple_ratio),
@@ -397,7 +436,7 @@ impl Form {
             rule: RwSignal::new(RuleKind::LeastLoss),
             gap: RwSignal::new(d.choices.gap_placement),
             interleave: RwSignal::new(d.choices.interleave),
-            texts: std::array::from_fn(|i| RwSignal::new(vals[i].map(|v| text_of(v, NUMS[i].prefixed)).unwrap_or_default())),
+            texts: std::array::from_fn(|i| RwSignal::new(vals[i].map(|v| NUMS[i].text(v)).unwrap_or_default())),
             outputs: RwSignal::new(d.spec.outputs.len().clamp(1, 4)),
             out_texts: std::array::from_fn(|i| std::array::from_fn(|j| RwSignal::new(text_of(outs[i][j], false)))),
             core: RwSignal::new(d.core.clone()),
@@ -445,7 +484,7 @@ impl Form {
     /// Replaces every field with the values of `d` (opening a file).
     pub fn set(&self, d: &Design) {
         for ((sig, v), def) in self.texts.iter().zip(values(d)).zip(&NUMS) {
-            sig.set(v.map(|v| text_of(v, def.prefixed)).unwrap_or_default());
+            sig.set(v.map(|v| def.text(v)).unwrap_or_default());
         }
         for (row, vals) in self.out_texts.iter().zip(out_values(d)) {
             for (sig, v) in row.iter().zip(vals) {
@@ -472,7 +511,7 @@ impl Form {
         let mut vals: [Option<f64>; ix::COUNT] = [None; ix::COUNT];
         for (i, d) in NUMS.iter().enumerate() {
             if !used(d) {
-                vals[i] = self.texts[i].with_untracked(|t| notation::parse(t, d.unit).ok());
+                vals[i] = self.texts[i].with_untracked(|t| d.read(t).ok());
                 continue;
             }
             let text = self.texts[i].get();
@@ -480,7 +519,12 @@ impl Form {
                 continue;
             }
             // Counts are read as counts: "-1" or "2.5" is refused, never made 0.
-            let read = if d.whole { notation::parse_count(&text).map(f64::from) } else { notation::parse(&text, d.unit) };
+            // A reflected voltage may carry its V.
+            let read = if d.key == "flyback.ratio" && ratio == RatioKind::Reflected {
+                notation::parse(&text, "V")
+            } else {
+                d.read(&text)
+            };
             match read {
                 Ok(v) => vals[i] = Some(v),
                 Err(e) => errs.push((d.key, e.to_string())),
@@ -539,7 +583,7 @@ impl Form {
             duty_max: g(ix::DUTY),
             efficiency: g(ix::EFF),
             ambient: g(ix::AMBIENT),
-            hot_spot_max: g(ix::HOT),
+            temperature_max: g(ix::HOT),
             isolation: self.isolation.get(),
             flyback: FlybackOptions {
                 ratio: match ratio {
@@ -690,9 +734,11 @@ pub fn SpecFields(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
                 options=vec![(RatioKind::FromDuty, "Duty max at Vin min"), (RatioKind::Reflected, "Reflected voltage"), (RatioKind::Turns, "Turns ratio Np/Ns")] />
             {NUMS.iter().enumerate().filter(|(_, d)| d.group == Group::Flyback).map(|(i, d)| {
                 let hide = d.key == "flyback.ratio";
+                let plain = d.unit;
+                let unit = Signal::derive(move || if hide && form.ratio.get() == RatioKind::Reflected { "V" } else { plain });
                 view! {
                     <div class:hidden=move || hide && !needs_value()>
-                        <Field key=d.key label=d.label unit=d.unit text=form.texts[i] error=field_error(outcome, d.key) help=d.help />
+                        <Field key=d.key label=d.label unit=unit text=form.texts[i] error=field_error(outcome, d.key) help=d.help />
                     </div>
                 }
             }).collect_view()}
@@ -812,6 +858,27 @@ mod tests {
         }
         assert_eq!(text_of(200e3, true), "200k");
         assert_eq!(text_of(0.15, true), "150m");
+    }
+
+    #[test]
+    fn mm_and_percent_fields_read_back_exactly() {
+        let duty = &NUMS[ix::DUTY];
+        let tape = &NUMS[ix::TAPE];
+        assert_eq!((duty.unit, tape.unit), ("%", "mm"));
+        assert_eq!(duty.text(0.45), "45");
+        assert_eq!(duty.read("45"), Ok(0.45));
+        assert_eq!(duty.read("45 %"), Ok(0.45));
+        assert_eq!(tape.text(0.05e-3), "0.05");
+        assert_eq!(tape.read("0.05"), Ok(0.05e-3));
+        assert_eq!(tape.read("0.05 mm"), Ok(0.05e-3));
+        for d in [duty, tape, &NUMS[ix::MARGIN], &NUMS[ix::FLANGE], &NUMS[ix::KU]] {
+            for v in [0.45, 0.2, 0.3, 0.42, 0.9, 1.6e-3, 0.05e-3, 2.5e-3, 0.123456789] {
+                assert_eq!(d.read(&d.text(v)), Ok(v), "{} {v} -> {}", d.key, d.text(v));
+            }
+            // No decimal divided by 100 is exactly 1/3: the nearest is kept.
+            let third = d.read(&d.text(1.0 / 3.0)).unwrap();
+            assert!((third * 3.0 - 1.0).abs() < 1e-15, "{third}");
+        }
     }
 
     #[test]

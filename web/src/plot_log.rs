@@ -96,6 +96,26 @@ pub fn log_log_chart(canvas: &HtmlCanvasElement, spec: &LineChart) -> Result<(),
     }
     let tick = RGBColor(150, 158, 170);
     let fx = (FONT, 13).into_font().color(&INK).pos(Pos::new(HPos::Center, VPos::Top));
+    // Labels no closer than a label's size: thin to decades, then to every
+    // other decade, when the axis is short.
+    let spaced = |labels: Vec<f64>, px_per_decade: f64, min_px: f64| -> Vec<f64> {
+        let decades: Vec<f64> = labels.iter().copied().filter(|v| (v.log10() - v.log10().round()).abs() < 1e-9).collect();
+        let step = |a: f64, b: f64| (b / a).log10() * px_per_decade;
+        let fine_ok = labels.windows(2).all(|w| step(w[0], w[1]) >= min_px);
+        if fine_ok {
+            labels
+        } else if px_per_decade >= min_px {
+            decades
+        } else {
+            let k = (min_px / px_per_decade.max(1.0)).ceil() as usize;
+            decades.into_iter().step_by(k.max(1)).collect()
+        }
+    };
+    let (a, b) = (chart.backend_coord(&(lx.0, ly.0)), chart.backend_coord(&(lx.1, ly.1)));
+    let px_x = f64::from((b.0 - a.0).abs()) / (lx.1 - lx.0).max(1e-9);
+    let px_y = f64::from((a.1 - b.1).abs()) / (ly.1 - ly.0).max(1e-9);
+    let labels_x = spaced(labels_x, px_x, 34.0);
+    let labels_y = spaced(labels_y, px_y, 18.0);
     for v in labels_x {
         let (px, py) = chart.backend_coord(&(v.log10(), ly.0));
         root.draw(&PathElement::new(vec![(px, py), (px, py + 5)], tick)).map_err(err)?;

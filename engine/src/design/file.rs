@@ -2,8 +2,10 @@
 //!
 //! The page saves it, the CLI evaluates it, and the browser tests compare the
 //! two through it. It is our own schema: `{"schema": "magwright-design",
-//! "version": 1, ...}`. Unknown versions and foreign files are refused with a
-//! message naming the field; documented with examples in `docs/design-file.md`.
+//! "version": 2, ...}`. Older versions are converted on reading
+//! ([`super::upgrade`], with notes); newer versions and foreign files are
+//! refused with a message naming the field; documented with examples in
+//! `docs/design-file.md`.
 
 use crate::core::{library as cores, Core, Effective, Shape};
 use crate::error::{Error, Result};
@@ -144,7 +146,7 @@ impl Default for Insulation {
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 #[serde(default, deny_unknown_fields)]
 pub struct Choices {
-    /// Highest peak flux density allowed, T (`None`: Bsat at the hot-spot
+    /// Highest peak flux density allowed, T (`None`: Bsat at the core temperature
     /// limit less the saturation margin).
     pub b_max: Option<f64>,
     /// Fraction kept below Bsat (0.2: stay 20 % below).
@@ -275,7 +277,8 @@ impl Design {
             )),
             Some(v) if v >= 1 => {
                 let notes = super::upgrade::upgrade(&mut value, v)?;
-                Ok((crate::json::from_str_checked(&crate::json::to_string_pretty(&value))?, notes))
+                let converted = crate::json::from_str_checked(&crate::json::to_string_pretty(&value));
+                Ok((converted.map_err(|e| super::upgrade::unlined(e, v))?, notes))
             }
             _ => Err(Error::format(Some("version"), format!("the file's \"version\" must be 1 to {VERSION}"))),
         }

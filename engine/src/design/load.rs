@@ -78,9 +78,9 @@ impl Design {
             })?;
         }
         // With no flux limit of its own, the design takes Bsat at the
-        // hot-spot limit less the margin; a material with no Bsat there
+        // core temperature limit less the margin; a material with no Bsat there
         // leaves nothing to design with: name the material's value.
-        if self.choices.b_max.is_none() && material.bsat_at(self.spec.hot_spot_max) <= 0.0 {
+        if self.choices.b_max.is_none() && material.bsat_at(self.spec.temperature_max) <= 0.0 {
             let field = match self.material {
                 MaterialChoice::Custom { .. } => "material.material.bsat_100",
                 MaterialChoice::Library { .. } => "material.name",
@@ -88,8 +88,8 @@ impl Design {
             return Err(Error::input(
                 field,
                 format!(
-                    "Bsat at the hot-spot limit ({} °C) comes out at zero; give Bsat at 100 °C above zero, or set choices.b_max",
-                    self.spec.hot_spot_max
+                    "Bsat at the core temperature limit ({} °C) comes out at zero; give Bsat at 100 °C above zero, or set choices.b_max",
+                    self.spec.temperature_max
                 ),
             ));
         }

@@ -14,6 +14,10 @@
 //!   into the reference loss: k becomes k·m, so Pv is unchanged at every
 //!   temperature. A flat factor (a = b = 0) gives c = 0 and k·d.
 //!
+//! * `spec.hot_spot_max` is `spec.temperature_max`: the limit is on the
+//!   mean surface temperature of McLyman's surface-dissipation model (see
+//!   [`crate::thermal`]), not on a hot spot; the value is kept.
+//!
 //! Every conversion adds a note, which the CLI prints and the page shows.
 
 use crate::error::{Error, Result};
@@ -45,6 +49,25 @@ pub fn upgrade(value: &mut Value, from: u64) -> Result<Vec<String>> {
 }
 
 fn one_to_two(value: &mut Value, notes: &mut Vec<String>) -> Result<()> {
+    if let Some(spec) = value.get_mut("spec").and_then(Value::as_object_mut) {
+        if let Some(t) = spec.remove("hot_spot_max") {
+            if spec.contains_key("temperature_max") {
+                return Err(Error::format(
+                    Some("spec.hot_spot_max"),
+                    "a version-1 file holds both hot_spot_max and temperature_max; keep one",
+                ));
+            }
+            spec.insert("temperature_max".into(), t);
+            notes.push(
+                "spec.hot_spot_max is now spec.temperature_max (the limit on the mean surface temperature), same value."
+                    .into(),
+            );
+        }
+    }
+    temperature_factor(value, notes)
+}
+
+fn temperature_factor(value: &mut Value, notes: &mut Vec<String>) -> Result<()> {
     let Some(material) = value.pointer_mut("/material/material").and_then(Value::as_object_mut) else {
         return Ok(());
     };
@@ -129,6 +152,25 @@ fn convert_quadratic(tf: &Map<String, Value>, field: &str) -> Result<(f64, f64, 
     Ok((tm, a / m, m))
 }
 
+/// An error found in the converted text: its line numbers are those of the
+/// converted text, not of the user's file, so they are left out (the field
+/// path still names the value).
+pub fn unlined(e: Error, from: u64) -> Error {
+    let strip = |m: String| -> String {
+        let m = match m.rfind(" (line ") {
+            Some(i) if m.ends_with(')') => m[..i].to_string(),
+            _ => m,
+        };
+        format!("{m} (in the file converted from version {from})")
+    };
+    match e {
+        Error::Input { field, message } => Error::Input { field, message: strip(message) },
+        Error::Unknown { field, message } => Error::Unknown { field, message: strip(message) },
+        Error::Infeasible { field, message } => Error::Infeasible { field, message: strip(message) },
+        Error::Format { field, message } => Error::Format { field, message: strip(message) },
+    }
+}
+
 fn number(x: f64, field: &str) -> Result<Value> {
     serde_json::Number::from_f64(x)
         .map(Value::Number)
@@ -148,6 +190,8 @@ mod tests {
         let mut d = serde_json::to_value(Design::demo_forward()).unwrap();
         d["version"] = Value::from(1);
         d["material"] = serde_json::json!({"from": "custom", "material": m});
+        let t = d["spec"].as_object_mut().unwrap().remove("temperature_max").unwrap();
+        d["spec"]["hot_spot_max"] = t;
         d
     }
 
@@ -158,11 +202,13 @@ mod tests {
         let (a, b, d, k) = (1.2e-4, 2.4e-2, 2.5, 7.0);
         let mut v = old_custom(a, b, d, k);
         let notes = upgrade(&mut v, 1).unwrap();
-        assert_eq!(notes.len(), 2, "{notes:?}");
-        assert!(notes[0].contains("version 1") && notes[1].contains("least loss at 100"), "{notes:?}");
+        assert_eq!(notes.len(), 3, "{notes:?}");
+        assert!(notes[0].contains("version 1") && notes[1].contains("temperature_max"), "{notes:?}");
+        assert!(notes[2].contains("least loss at 100"), "{notes:?}");
         let design: Design = serde_json::from_value(v).unwrap();
         let crate::design::MaterialChoice::Custom { material } = &design.material else { panic!() };
         assert_eq!(design.version, crate::design::file::VERSION);
+        assert_eq!(design.spec.temperature_max, Design::demo_forward().spec.temperature_max);
         assert!((material.temp_factor.least_loss_c - 100.0).abs() < 1e-12);
         for t in [-40.0, 0.0, 25.0, 100.0, 150.0] {
             let old = k * (a * t * t - b * t + d);
@@ -185,6 +231,10 @@ mod tests {
         v["version"] = Value::from(1);
         assert_eq!(upgrade(&mut v, 1).unwrap().len(), 1);
         assert_eq!(serde_json::from_value::<Design>(v).unwrap(), Design::demo_flyback());
+        // Both names in one old file: refused, naming the old key.
+        let mut v = old_custom(1e-4, 2e-2, 2.0, 10.0);
+        v["spec"]["temperature_max"] = Value::from(90.0);
+        assert_eq!(upgrade(&mut v, 1).unwrap_err().field(), Some("spec.hot_spot_max"));
     }
 
     #[test]
@@ -200,6 +250,12 @@ mod tests {
         let e = Design::from_json(&new.to_string()).unwrap_err();
         assert!(e.field().is_some_and(|f| f.starts_with("material")), "{e}");
         assert!(e.message().contains("ct2") || e.message().contains("unknown"), "{e}");
+        // An error in an old file names its field, not a line of the converted text.
+        let mut bad = old_custom(1e-4, 2e-2, 2.0, 10.0);
+        bad["spec"].as_object_mut().unwrap().remove("frequency");
+        let e = Design::from_json(&bad.to_string()).unwrap_err();
+        assert_eq!(e.field(), Some("spec.frequency"), "{e}");
+        assert!(!e.message().contains("(line ") && e.message().contains("converted from version 1"), "{e}");
         // A current file reads with no notes.
         let (_, notes) = Design::from_json_noted(&Design::demo_forward().to_json()).unwrap();
         assert!(notes.is_empty());

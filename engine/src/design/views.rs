@@ -11,7 +11,7 @@
 //!   corner: the MMF diagram of the chosen interleaving.
 //! * [`saturation`]: Bsat of the material against temperature, the limit
 //!   Bsat·(1 − margin) the saturation check uses, and where the design
-//!   operates (Bpk and the flux swing at the equilibrium hot-spot
+//!   operates (Bpk and the flux swing at the equilibrium core
 //!   temperature).
 //! * [`value_at`] and [`peak_instant`]: a [`Pwl`] evaluated at an instant,
 //!   from the left or the right of an ideal step.
@@ -288,10 +288,10 @@ pub struct SaturationView {
     pub limit: Vec<(f64, f64)>,
     /// The saturation margin the check uses (0.2 = 20 %).
     pub margin: f64,
-    /// Equilibrium hot-spot temperature, °C.
+    /// Equilibrium core temperature, °C.
     pub temperature: f64,
-    /// The hot-spot limit of the spec and the ambient, °C.
-    pub hot_spot_max: f64,
+    /// The core temperature limit of the spec and the ambient, °C.
+    pub temperature_max: f64,
     pub ambient: f64,
     /// Worst-corner Bpk in the smallest section (Bpk·Ae/Amin where
     /// Amin < Ae), T, and that corner.
@@ -326,7 +326,7 @@ pub fn saturation(report: &Report, t_from: f64, t_to: f64, n: usize) -> Result<S
         Some(c) if bsat_op > 0.0 => (1.0 - c.limit / bsat_op).clamp(0.0, 1.0),
         _ => 0.0,
     };
-    let hot_spot_max = report
+    let temperature_max = report
         .checks
         .iter()
         .find(|c| c.key == "temperature")
@@ -346,7 +346,7 @@ pub fn saturation(report: &Report, t_from: f64, t_to: f64, n: usize) -> Result<S
         limit,
         margin,
         temperature: t_op,
-        hot_spot_max,
+        temperature_max,
         ambient: t_op - report.thermal.rise,
         b_peak: worst.map_or(flux.peak_abs(), |w| w.value) * k,
         corner,

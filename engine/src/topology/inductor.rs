@@ -90,7 +90,7 @@ impl Spec {
             duty_max: 0.9,
             efficiency: 0.9,
             ambient: 40.0,
-            hot_spot_max: 100.0,
+            temperature_max: 100.0,
             isolation: super::Isolation::Functional,
             flyback: Default::default(),
             choke_ripple_ratio: 0.3,

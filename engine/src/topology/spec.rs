@@ -220,8 +220,8 @@ pub struct Spec {
     pub efficiency: f64,
     /// Ambient temperature, °C.
     pub ambient: f64,
-    /// Highest allowed hot-spot temperature of the magnetic, °C.
-    pub hot_spot_max: f64,
+    /// Highest allowed core temperature of the magnetic, °C.
+    pub temperature_max: f64,
     pub isolation: Isolation,
     /// Flyback only: turns-ratio choice and ripple ratio.
     #[serde(default)]
@@ -269,7 +269,7 @@ impl Spec {
             duty_max: 0.6,
             efficiency: 0.85,
             ambient: 40.0,
-            hot_spot_max: 110.0,
+            temperature_max: 110.0,
             isolation: Isolation::Reinforced,
             flyback: FlybackOptions {
                 ratio: FlybackRatio::ReflectedVoltage(100.0),
@@ -299,7 +299,7 @@ impl Spec {
             duty_max: 0.45,
             efficiency: 0.9,
             ambient: 40.0,
-            hot_spot_max: 100.0,
+            temperature_max: 100.0,
             isolation: Isolation::Basic,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
@@ -326,7 +326,7 @@ impl Spec {
             duty_max: 0.45,
             efficiency: 0.9,
             ambient: 40.0,
-            hot_spot_max: 100.0,
+            temperature_max: 100.0,
             isolation: Isolation::Functional,
             flyback: FlybackOptions::default(),
             choke_ripple_ratio: default_choke_ripple(),
@@ -370,10 +370,10 @@ impl Spec {
         in_range("duty_max", self.duty_max, 0.01, d_hi, "")?;
         in_range("efficiency", self.efficiency, 0.3, 1.0, "")?;
         in_range("ambient", self.ambient, -55.0, 150.0, "°C")?;
-        in_range("hot_spot_max", self.hot_spot_max, -55.0, 250.0, "°C")?;
-        if self.hot_spot_max <= self.ambient {
+        in_range("temperature_max", self.temperature_max, -55.0, 250.0, "°C")?;
+        if self.temperature_max <= self.ambient {
             return Err(Error::input(
-                "hot_spot_max",
+                "temperature_max",
                 format!("must be above the ambient ({} °C)", self.ambient),
             ));
         }
@@ -765,7 +765,7 @@ mod tests {
             (Box::new(|s| s.duty_max = f64::NAN), "duty_max"),
             (Box::new(|s| s.efficiency = 1.5), "efficiency"),
             (Box::new(|s| s.efficiency = 0.99), "efficiency"),
-            (Box::new(|s| s.hot_spot_max = 30.0), "hot_spot_max"),
+            (Box::new(|s| s.temperature_max = 30.0), "temperature_max"),
             (
                 Box::new(|s| {
                     s.input = Input::Dc {

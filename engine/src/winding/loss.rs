@@ -186,9 +186,10 @@ pub struct WindingLoss {
     pub rdc: f64,
     /// Rdc·I²rms, W.
     pub dc_loss: f64,
-    /// Actual loss, all harmonics, W.
-    pub ac_loss: f64,
-    /// Effective AC resistance factor over the waveform: ac_loss / dc_loss
+    /// The winding's whole copper loss, DC and every harmonic, W (was
+    /// `ac_loss`, a name that said less than it holds).
+    pub total_loss: f64,
+    /// Effective AC resistance factor over the waveform: total_loss / dc_loss
     /// (1 when the winding carries no current).
     pub fr: f64,
     pub layers: Vec<LayerLoss>,
@@ -499,7 +500,7 @@ impl LossModel {
                 rms_current: edged_rms(pwls[w], opts.edge_time),
                 rdc: self.rdc[w],
                 dc_loss: 0.0,
-                ac_loss: 0.0,
+                total_loss: 0.0,
                 fr: 1.0,
                 layers: Vec::new(),
             })
@@ -507,7 +508,7 @@ impl LossModel {
         for (i, l) in self.layers.iter().enumerate() {
             let loss = clean(layer_loss[i] + tail_layers[i]);
             if let Some(w) = out.get_mut(l.winding) {
-                w.ac_loss += loss;
+                w.total_loss += loss;
                 w.layers.push(LayerLoss {
                     item: l.item,
                     layer: l.index,
@@ -519,7 +520,7 @@ impl LossModel {
         for w in &mut out {
             w.dc_loss = w.rdc * w.rms_current * w.rms_current;
             w.fr = if w.dc_loss > 0.0 {
-                clean(w.ac_loss / w.dc_loss)
+                clean(w.total_loss / w.dc_loss)
             } else {
                 1.0
             };
@@ -879,14 +880,14 @@ mod tests {
             )
             .unwrap();
         assert_eq!(r.total, 0.0);
-        assert!(r.windings.iter().all(|w| w.fr == 1.0 && w.ac_loss == 0.0));
+        assert!(r.windings.iter().all(|w| w.fr == 1.0 && w.total_loss == 0.0));
         let r = m
             .evaluate(
                 &[WindingCurrent::new("p", sq), WindingCurrent::new("s", zero.clone())],
                 &opts,
             )
             .unwrap();
-        assert!(r.windings[1].ac_loss > 0.0 && r.windings[1].fr == 1.0);
+        assert!(r.windings[1].total_loss > 0.0 && r.windings[1].fr == 1.0);
         assert!(r.total.is_finite() && r.tail_share > 0.0 && r.tail_share < 1.0);
         let r = m
             .evaluate(&[WindingCurrent::new("p", dc), WindingCurrent::new("s", zero)], &opts)

@@ -85,7 +85,7 @@ pub fn MaterialCurves(form: Form) -> impl IntoView {
     };
     view! {
         <figure class="plot" data-testid="pv-b-figure">
-            <PlotCanvas testid="pv-b-plot" label="Core loss density against peak flux density at several frequencies, log axes" width=520 height=300 draw=draw />
+            <PlotCanvas testid="pv-b-plot" label="Core loss density against peak flux density at several frequencies, log axes" width=520 height=460 draw=draw />
             <figcaption data-testid="pv-b-caption" data-frequencies=freqs>{caption}</figcaption>
         </figure>
     }

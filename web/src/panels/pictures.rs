@@ -4,7 +4,7 @@
 //!    corner: every winding's current (left axis) and B(t) (right axis).
 //! 2. **The operating point against saturation**: Bsat of the material
 //!    against temperature, the limit Bsat·(1 − margin) the check uses, the
-//!    design's Bpk at its equilibrium hot-spot temperature and its flux swing
+//!    design's Bpk at its equilibrium core temperature and its flux swing
 //!    as a bar. Chosen over a B–H plane because the question is "how far
 //!    from saturation, at the temperature it will run at": the material
 //!    model has Bsat at two temperatures and μi, not a measured B–H loop, so
@@ -14,7 +14,7 @@
 //!    winding's layers shaded: the interleaving read at a glance.
 //! 4. **Loss against switching frequency**: the design redone at each of
 //!    [`SWEEP_POINTS`] frequencies (engine: `design::sweep::frequency`), core,
-//!    DC and AC copper and total loss, hot-spot temperature on the right
+//!    DC and AC copper and total loss, core temperature on the right
 //!    axis, the least-loss point marked, the failing ranges shaded by
 //!    reason (and listed below the picture).
 //!
@@ -138,8 +138,8 @@ fn saturation_chart(v: &views::SaturationView) -> LineChart {
         Series::new("Bsat of the material", mt(&v.bsat), plot::RED),
         Series::new(&format!("limit: Bsat less {pct:.0} % margin"), mt(&v.limit), plot::RED).dashed(),
         Series::new(
-            &format!("hot-spot limit {}", notation::format(v.hot_spot_max, "°C", 3)),
-            vec![(v.hot_spot_max, 0.0), (v.hot_spot_max, b_top)],
+            &format!("core temperature limit {}", notation::format(v.temperature_max, "°C", 3)),
+            vec![(v.temperature_max, 0.0), (v.temperature_max, b_top)],
             plot::GREY,
         )
         .dashed(),
@@ -360,7 +360,7 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
         Series::new("copper AC (above DC)", line(|v| v.copper_ac_extra), plot::PURPLE)
             .thin()
             .dots(2),
-        Series::new("hot spot", line(|v| v.temperature), plot::RED)
+        Series::new("core temperature", line(|v| v.temperature), plot::RED)
             .right()
             .thin()
             .dots(1),
@@ -371,7 +371,7 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
     LineChart {
         x: Axis::new("Switching frequency", "Hz").log(),
         y: Axis::new("Loss", "W").from_zero(),
-        y2: Some(Axis::new("Hot spot", "°C")),
+        y2: Some(Axis::new("Core temperature", "°C")),
         series,
         markers,
         shades,
@@ -534,7 +534,7 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         saturation.with(|v| {
             v.as_ref().map_or(String::new(), |v| {
                 format!(
-                    "Bpk {} at the hot spot's {} against a limit of {} there (Bsat {} less {:.0} %). Bsat is the \
+                    "Bpk {} at the core temperature {} against a limit of {} there (Bsat {} less {:.0} %). Bsat is the \
                      material's 25 °C and 100 °C values joined by a line, extrapolated beyond. Read as: the dot must sit \
                      under the dashed line at the temperature the core runs at.",
                     notation::format(v.b_peak, "T", 3),
@@ -627,8 +627,8 @@ mod tests {
                 pt(1e3, false, "window too small", false),
                 pt(4e3, false, "other words", false),
                 pt(16e3, true, "", true),
-                pt(64e3, false, "Hot-spot temperature", true),
-                pt(256e3, false, "Hot-spot temperature", true),
+                pt(64e3, false, "Core temperature (mean surface)", true),
+                pt(256e3, false, "Core temperature (mean surface)", true),
             ],
             minimum: Some(2),
             ratio_at_minimum: None,
@@ -647,16 +647,16 @@ mod tests {
         );
         assert_eq!(reasons_of(&cut), vec!["the windings do not fit this core's window"]);
         cut.values = s.points[2].values;
-        cut.reason = "Duty; Hot-spot temperature".into();
+        cut.reason = "Duty; Core temperature (mean surface)".into();
         assert_eq!(key_of(&cut), "fails: Duty");
-        assert_eq!(runs[1].key, "fails: Hot-spot temperature");
+        assert_eq!(runs[1].key, "fails: Core temperature (mean surface)");
         assert_eq!((runs[1].from, runs[1].to), (32e3, 256e3));
         // Listed: one range per stretch of failing points, reasons each once.
         let mut s2 = s.clone();
-        s2.points[4].reason = "Duty; Hot-spot temperature".into();
+        s2.points[4].reason = "Duty; Core temperature (mean surface)".into();
         let list = fail_runs(&s2, false);
         assert_eq!(list.len(), 2);
-        assert_eq!(list[1].detail, "Hot-spot temperature; Duty");
+        assert_eq!(list[1].detail, "Core temperature (mean surface); Duty");
         let bands = fail_runs(&s2, true);
         assert_eq!(bands.len(), 3);
     }

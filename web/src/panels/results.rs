@@ -126,6 +126,17 @@ fn ordered(checks: &[Check]) -> Vec<&Check> {
     v
 }
 
+/// A check's margin as a reader takes it: for a temperature the kelvin
+/// left to the limit (a percentage of a Celsius value means nothing), for
+/// anything else the share of the limit left, in %.
+pub fn margin_text(c: &Check) -> String {
+    if c.unit == "°C" {
+        format!("{:+.1} K", c.limit - c.value)
+    } else {
+        format!("{:+.0} %", c.margin * 100.0)
+    }
+}
+
 /// The one line a reader takes in first.
 fn verdict(r: &Report) -> (String, String) {
     let failing: Vec<&Check> = r.checks.iter().filter(|c| !c.pass).collect();
@@ -135,9 +146,9 @@ fn verdict(r: &Report) -> (String, String) {
             .map(|c| {
                 let at = corner_name(c.corner);
                 format!(
-                    " — tightest: {}, {:.0} % margin{}{}",
+                    " — tightest: {}, {} margin{}{}",
                     short_label(c),
-                    c.margin * 100.0,
+                    margin_text(c).trim_start_matches('+'),
                     if at.is_empty() { "" } else { " " },
                     at
                 )
@@ -147,7 +158,7 @@ fn verdict(r: &Report) -> (String, String) {
     } else {
         let names: Vec<String> = failing
             .iter()
-            .map(|c| format!("{} ({:+.0} %)", short_label(c), c.margin * 100.0))
+            .map(|c| format!("{} ({})", short_label(c), margin_text(c)))
             .collect();
         let n = failing.len();
         (
@@ -160,8 +171,8 @@ fn verdict(r: &Report) -> (String, String) {
 /// A short name for a check, read at a glance (the engine's label is the tooltip).
 fn short_label(c: &Check) -> String {
     match c.key.as_str() {
-        "saturation" => "Bpk in Amin vs Bsat (hot)".into(),
-        "temperature" => "Hot spot".into(),
+        "saturation" => "Bpk in Amin vs Bsat at core temp.".into(),
+        "temperature" => "Core temperature".into(),
         "window" => "Window build".into(),
         "duty" => "Duty".into(),
         "switch_voltage" => "Switch voltage".into(),
@@ -191,13 +202,13 @@ fn check_row(c: &Check) -> impl IntoView {
             <th scope="row">
                 {short_label(c)}
                 {(!c.pass).then(|| view! { <span class="tag failing">"FAIL"</span> })}
-                {(c.pass && c.binding).then(|| view! { <span class="tag binding" title="This check limits the design">"binding"</span> })}
+                {(c.pass && c.binding).then(|| view! { <span class="tag binding" title="Tight: under 10 % margin, or the tightest check: this check limits the design">"tight"</span> })}
                 {show_note.then(|| view! { <span class="note">{inline}</span> })}
             </th>
             <td data-si=format!("{:e}", c.value)>{v}</td>
             <td>{l}</td>
             <td class:ok=c.pass data-testid=format!("margin-{}", c.key) data-si=format!("{:e}", c.margin)>
-                {format!("{:+.0} %", c.margin * 100.0)}
+                {margin_text(c)}
             </td>
             <td class="corner">{at}</td>
         </tr>
@@ -343,7 +354,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                     {tile("cu-loss", "Copper loss", notation::format(r.losses.copper, "W", 3), r.losses.copper, format!("DC {} + AC {}", notation::format(r.losses.copper_dc, "W", 2), notation::format(r.losses.copper_ac_extra, "W", 2)))}
                     {tile("total-loss", "Total loss", notation::format(r.losses.total, "W", 3), r.losses.total, corner_name(Some(r.loss_corner)).to_string())}
                     {tile("efficiency", "Efficiency of the magnetic", format!("{:.2} %", r.power.magnetic_efficiency * 100.0), r.power.magnetic_efficiency * 100.0, String::new())}
-                    {tile("temperature", "Hot spot", format!("{:.1} °C", t.temperature), t.temperature, format!("rise {:.1} K", t.rise))}
+                    {tile("temperature", "Core temperature", format!("{:.1} °C", t.temperature), t.temperature, format!("rise {:.1} K", t.rise))}
                     {tile("fill", "Window build / copper fill", format!("{:.0} % / {:.0} %", fit.build_fraction * 100.0, fit.fill_factor * 100.0), fit.fill_factor, format!("{} of {}", mm(fit.total_build), mm(fit.available_build)))}
                     {sw_v.map(|(v, c)| tile("switch-voltage", "Switch off-state voltage", notation::format(v, "V", 3), v, format!("flat top, {}", corner_name(Some(c)))))}
                     {sw_i.map(|(i, c)| tile("switch-peak", "Switch peak current", notation::format(i, "A", 3), i, corner_name(Some(c)).to_string()))}
@@ -387,7 +398,7 @@ fn choke_section(c: &Report) -> impl IntoView {
                 {tile("choke-core-loss", "Core loss (ripple)", notation::format(c.losses.core, "W", 3), c.losses.core, String::new())}
                 {tile("choke-cu-loss", "Copper loss", notation::format(c.losses.copper, "W", 3), c.losses.copper, format!("DC {} + AC {}", notation::format(c.losses.copper_dc, "W", 2), notation::format(c.losses.copper_ac_extra, "W", 2)))}
                 {tile("choke-total-loss", "Total loss", notation::format(c.losses.total, "W", 3), c.losses.total, String::new())}
-                {tile("choke-temperature", "Hot spot", format!("{:.1} °C", c.thermal.temperature), c.thermal.temperature, format!("rise {:.1} K", c.thermal.rise))}
+                {tile("choke-temperature", "Core temperature", format!("{:.1} °C", c.thermal.temperature), c.thermal.temperature, format!("rise {:.1} K", c.thermal.rise))}
             </div>
         </section>
     }

@@ -212,7 +212,7 @@ fn body(r: &Report) -> impl IntoView {
             <div>
                 <h2>"Expected temperature and flux"</h2>
                 <table class="sheet-table"><tbody>
-                    <tr><th scope="row">"Hot spot"</th><td data-testid="sheet-temperature">{format!("{:.1} °C ({:.1} K rise)", r.thermal.temperature, r.thermal.rise)}</td></tr>
+                    <tr><th scope="row">"Core temperature (mean surface)"</th><td data-testid="sheet-temperature">{format!("{:.1} °C ({:.1} K rise)", r.thermal.temperature, r.thermal.rise)}</td></tr>
                     <tr><th scope="row">"Losses taken"</th><td>{corner_name(Some(r.loss_corner))}</td></tr>
                     <tr><th scope="row">"Peak flux density"</th><td>{b_pk.unwrap_or_default()}</td></tr>
                     <tr><th scope="row">"Checks"</th><td class="verdict" class:fail=!r.pass>{verdict}</td></tr>

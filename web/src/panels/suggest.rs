@@ -428,9 +428,9 @@ pub fn Suggest(form: Form) -> impl IntoView {
                             <th scope="col" class="num">"#"</th>
                             <th scope="col">"Core"</th>
                             <th scope="col">"Material"</th>
-                            <th scope="col" class="num">"Volume (cm³)"</th>
+                            <th scope="col" class="num" title="Physical volume of the core set (not the effective volume Ve)">"Core set volume (cm³)"</th>
                             <th scope="col" class="num">"Total loss"</th>
-                            <th scope="col" class="num">"Hot spot"</th>
+                            <th scope="col" class="num" title="Mean surface temperature (McLyman); the winding's hottest point runs higher">"Core temp."</th>
                             <th scope="col" class="num">"Np"</th>
                             <th scope="col" title="On the loss–volume Pareto front: no other candidate is both smaller and lower in loss">"Pareto"</th>
                             <th scope="col"><span class="sr">"Action"</span></th>

@@ -218,7 +218,7 @@ fn table(r: &Report) -> impl IntoView {
         .iter()
         .map(|w| {
             let loss = copper.windings.iter().find(|x| x.name == w.winding);
-            let (rdc, fr, p) = loss.map_or((0.0, 1.0, 0.0), |l| (l.rdc, l.fr, l.ac_loss));
+            let (rdc, fr, p) = loss.map_or((0.0, 1.0, 0.0), |l| (l.rdc, l.fr, l.total_loss));
             let s = slug(&w.winding);
             let ci = r.stackup.winding_index(&w.winding).unwrap_or(0);
             view! {

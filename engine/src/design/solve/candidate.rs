@@ -154,9 +154,9 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
             (w.name.clone(), w.turns, w.rms.max(other))
         })
         .collect();
-    // Losses for choosing are taken at the hot-spot limit, kept below the
+    // Losses for choosing are taken at the core temperature limit, kept below the
     // Curie temperature where the loss model ends (the Curie check reports it).
-    let t_sel = spec.hot_spot_max.min(material.curie_c - 5.0);
+    let t_sel = spec.temperature_max.min(material.curie_c - 5.0);
     let rho = copper_resistivity(t_sel)?;
     let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
     let (stackup, fit, wires) = choose_stackup(design, core, &names, delta)?;

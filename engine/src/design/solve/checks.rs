@@ -46,9 +46,9 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
     ));
     let mut t_check = check(
         "temperature",
-        "Hot-spot temperature",
+        "Core temperature (mean surface)",
         t_op,
-        spec.hot_spot_max,
+        spec.temperature_max,
         "°C",
         Some(loss_corner),
         format!(

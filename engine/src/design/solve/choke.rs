@@ -70,7 +70,7 @@ pub fn choke_spec(spec: &Spec, turns: &topology::Turns) -> Result<Option<Spec>> 
         // One output alone bounds the estimate by its own rectifier drop.
         efficiency: spec.efficiency.min(o.voltage / v1),
         ambient: spec.ambient,
-        hot_spot_max: spec.hot_spot_max,
+        temperature_max: spec.temperature_max,
         isolation: Isolation::Functional,
         flyback: Default::default(),
         choke_ripple_ratio: spec.choke_ripple_ratio,
@@ -237,7 +237,7 @@ pub fn area_product(spec: &Spec, material: &Material, ch: &Choices) -> Result<f6
     let di = inductor::ripple(spec, dc.max, l);
     // RMS of DC plus a triangle of peak-to-peak ΔI: √(I² + ΔI²/12).
     let irms = (s.i_dc * s.i_dc + di * di / 12.0).sqrt();
-    let b = material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin);
+    let b = material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin);
     Ok(l * ipk * irms / (b * J_START * ch.window_utilisation))
 }
 

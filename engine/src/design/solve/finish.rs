@@ -45,7 +45,7 @@ pub(super) fn finish(
     // it moves less than 0.5 K (at most three anchors).
     let ceiling = (material.curie_c).min(250.0).max(spec.ambient + 1.0);
     let mut t_k = spec
-        .hot_spot_max
+        .temperature_max
         .min(material.curie_c - 5.0)
         .clamp(-60.0, 250.0);
     let mut anchor = sel.copper.clone();
@@ -148,10 +148,10 @@ pub(super) fn finish(
     }
     if ch
         .b_max
-        .is_some_and(|b| b > material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin))
+        .is_some_and(|b| b > material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin))
     {
         warnings.push(
-            "the Bpk limit you set is above Bsat at the hot-spot limit less the margin".into(),
+            "the Bpk limit you set is above Bsat at the core temperature limit less the margin".into(),
         );
     }
     if !operating.copper.converged {

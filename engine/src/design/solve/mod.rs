@@ -7,7 +7,7 @@
 //! 2. **Primary turns from the flux limit** N = λ/(ΔB·Ae), λ the worst-corner
 //!    volt-seconds (forward: unipolar, ΔB = Bpk; push-pull and bridges:
 //!    bipolar, ΔB = 2·Bpk); flyback Np = Lp·Ipk/(Bpk·Ae), Lp from the ripple
-//!    ratio. The Bpk limit is Bsat at the hot-spot limit less the
+//!    ratio. The Bpk limit is Bsat at the core temperature limit less the
 //!    saturation margin unless the user sets one, and it applies to the flux
 //!    density in the smallest section Amin (Bpk·Ae/Amin where Amin < Ae).
 //! 3. **Least loss** (the default rule): with the window filled, copper loss
@@ -33,7 +33,7 @@
 //! 7. **Thermal equilibrium** at the corner with the larger total loss
 //!    (`thermal`): core loss follows its temperature factor, copper its
 //!    resistivity; the copper model is rebuilt at each outer step.
-//! 8. **Checks**: saturation at the equilibrium temperature, hot-spot
+//! 8. **Checks**: saturation at the equilibrium temperature, core
 //!    temperature, window build, duty, switch voltage, Curie, the loss
 //!    budget (energy balance against `choices.magnetic_loss_share`) and the
 //!    material data range (`loss::range`); each with its margin, the ones
@@ -109,7 +109,7 @@ pub fn evaluate_with(
     check_temperature_limit(spec, material)?;
     let ch = &design.choices;
     let n = sizing::turns_ratio(spec)?;
-    let b_auto = material.bsat_at(spec.hot_spot_max) * (1.0 - ch.saturation_margin);
+    let b_auto = material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin);
     let b_limit = ch.b_max.unwrap_or(b_auto);
     let lp_target = match spec.topology {
         Topology::Flyback => Some(sizing::flyback_lp(spec, n)?),
@@ -261,18 +261,18 @@ pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     Ok(())
 }
 
-/// The hot-spot limit must lie below the material's Curie temperature:
+/// The core temperature limit must lie below the material's Curie temperature:
 /// at the Curie point a ferrite stops being ferrimagnetic (μ → 1, Bsat → 0),
 /// so no design can be judged there (common practice, no source). The
 /// `curie` check then keeps the operating temperature 20 K below it.
 fn check_temperature_limit(spec: &Spec, material: &Material) -> Result<()> {
-    if spec.hot_spot_max >= material.curie_c {
+    if spec.temperature_max >= material.curie_c {
         return Err(Error::input(
-            "spec.hot_spot_max",
+            "spec.temperature_max",
             format!(
                 "{:.0} °C is at or above the Curie temperature of {} ({:.0} °C), where the ferrite stops being magnetic: \
-                 lower the hot-spot limit below {:.0} °C or choose a material with a higher Curie point",
-                spec.hot_spot_max,
+                 lower the core temperature limit below {:.0} °C or choose a material with a higher Curie point",
+                spec.temperature_max,
                 material.name,
                 material.curie_c,
                 material.curie_c - 20.0

@@ -138,7 +138,7 @@ pub struct Report {
     pub fit: FitReport,
     /// Leakage inductance referred to the primary, H (`None` with one winding).
     pub leakage: Option<f64>,
-    /// Losses at both corners at the hot-spot limit (selection), and the
+    /// Losses at both corners at the core temperature limit (selection), and the
     /// corner whose total is larger.
     pub corners: Vec<CornerLosses>,
     pub loss_corner: Corner,
