@@ -33,9 +33,10 @@ test('loss budget and material range: shown with margins, the share typed, a fre
 
   // A share below the magnetic's actual share of Pin − Pout fails the budget.
   const budget = first.power.input - first.power.output;
-  const share = (0.5 * first.losses.total / budget).toFixed(3);
-  await typeInto(page, 'choices.magnetic_loss_share', share);
-  await waitSaved(page, (d, a) => d.choices.magnetic_loss_share === a, Number(share));
+  // The field is in per cent: half the magnetic's actual share.
+  const pct = (50 * first.losses.total / budget).toFixed(2);
+  await typeInto(page, 'choices.magnetic_loss_share', `${pct}%`);
+  await waitSaved(page, (d, a) => Math.abs(d.choices.magnetic_loss_share - a) < 1e-12, Number(pct) / 100);
   await page.waitForFunction(() => document.querySelector('[data-testid="check-loss_budget"]')?.dataset.pass === 'false');
   const tight = await checksMatchCli(page);
   assert.equal(tight.checks.find((k) => k.key === 'loss_budget').pass, false);
@@ -43,7 +44,7 @@ test('loss budget and material range: shown with margins, the share typed, a fre
   await page.locator('[data-testid="panel-results"]').screenshot({ path: join(OUT, 'checks-loss-budget.png') });
 
   // Back to the default share; 5.1 MHz is 17 × the material's top frequency.
-  await typeInto(page, 'choices.magnetic_loss_share', '0.5');
+  await typeInto(page, 'choices.magnetic_loss_share', '50%');
   await typeInto(page, 'frequency', '5.1M');
   await waitSaved(page, (d) => d.spec.frequency === 5.1e6 && (d.choices.magnetic_loss_share ?? 0.5) === 0.5);
   await page.waitForFunction(() => document.querySelector('[data-testid="check-material_range"]')?.dataset.pass === 'false');

@@ -108,12 +108,20 @@ export async function engineFor(page) {
   return { design: JSON.parse(text), report: cli(['evaluate', '-'], text) };
 }
 
-// Waits until the page's saved design satisfies `pred` (run in the page).
-export async function waitSaved(page, pred, arg) {
-  await page.waitForFunction(([src, a]) => {
-    const d = JSON.parse(localStorage.getItem('magwright.design') || '{}');
-    return new Function('d', 'a', 'return (' + src + ')(d, a)')(d, a);
-  }, [pred.toString(), arg]);
+// Waits until the page's saved design satisfies `pred` (run here, in node:
+// the page's CSP forbids evaluating strings). Each round waits for the
+// stored text to change, never for a fixed time.
+export async function waitSaved(page, pred, arg, timeout = 30000) {
+  const end = Date.now() + timeout;
+  for (;;) {
+    const text = await page.evaluate(() => localStorage.getItem('magwright.design') || '{}');
+    if (pred(JSON.parse(text), arg)) return;
+    const left = end - Date.now();
+    if (left <= 0) throw new Error(`waitSaved: the saved design did not satisfy ${pred} within ${timeout} ms`);
+    await page
+      .waitForFunction((t) => (localStorage.getItem('magwright.design') || '{}') !== t, text, { timeout: left })
+      .catch(() => {});
+  }
 }
 
 // Opens the file chooser of the button `testid` with the keyboard (focus,

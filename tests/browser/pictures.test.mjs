@@ -157,11 +157,12 @@ test('pictures: all drawn, sweep minimum = engine, corner selector, MMF data = e
   await page.waitForSelector('[data-testid="waves-figure"][data-corner="vin_min"]');
 
   // An edit: the results follow at once; the sweep follows when typing pauses.
-  const npBefore = await page.getAttribute('[data-testid="np"]', 'data-si');
+  // The core loss moves with the frequency (the turns may not).
+  const lossBefore = await page.getAttribute('[data-testid="core-loss"]', 'data-si');
   await typeField(page, 'frequency', '250k');
   const typed = Date.now();
   await page.waitForFunction(() => document.querySelector('[id="f-frequency"]').value === '250k');
-  await page.waitForFunction((v) => document.querySelector('[data-testid="np"]')?.dataset.si !== v, npBefore);
+  await page.waitForFunction((v) => document.querySelector('[data-testid="core-loss"]')?.dataset.si !== v, lossBefore);
   const results = Date.now() - typed;
   await checkSweepMinimum(page);
   const swept = Date.now() - typed;
