@@ -21,11 +21,11 @@ pub(super) fn choose_stackup(
 ) -> Result<(StackUp, FitReport, Vec<WireSummary>)> {
     let spec = &design.spec;
     let ch = &design.choices;
-    for o in &ch.wires {
+    for (i, o) in ch.wires.iter().enumerate() {
         if !windings.iter().any(|w| w.0 == o.winding) {
             let names: Vec<&str> = windings.iter().map(|w| w.0.as_str()).collect();
             return Err(Error::input(
-                "choices.wires",
+                &format!("choices.wires[{i}].winding"),
                 format!(
                     "no winding \"{}\" in this design (windings: {})",
                     o.winding,

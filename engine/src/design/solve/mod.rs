@@ -426,6 +426,14 @@ mod tests {
         let mut d = Design::demo_forward();
         d.spec.frequency = f64::NAN;
         assert!(evaluate(&d).unwrap_err().field().is_some());
+        // A wire for a winding the design does not have names that entry.
+        let mut d = Design::demo_forward();
+        let wire = crate::design::file::WireChoice::Round { awg: 24, parallel: 1 };
+        d.choices.wires = vec![
+            crate::design::file::WireOverride { winding: "primary".into(), wire: wire.clone() },
+            crate::design::file::WireOverride { winding: "tertiary".into(), wire },
+        ];
+        assert_eq!(evaluate(&d).unwrap_err().field(), Some("choices.wires[1].winding"));
     }
 
     #[test]
