@@ -6,7 +6,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
-import { launch, attach, cli, cliText, shown, close, canvasInk, OUT } from './harness.mjs';
+import { launch, attach, cli, cliText, shown, close, canvasInk, OUT, chooseWithKeyboard } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -106,9 +106,7 @@ test('a version-1 design file opens converted, with a note', async () => {
   delete d.spec.temperature_max;
   d.material = { from: 'custom', material: { ...m, name: 'Old grade', temp_factor: { ct2: 1.2e-4, ct1: 0.024, ct0: 2.5 } } };
   const text = JSON.stringify(d, null, 2);
-  await page.focus('[data-testid="open"]');
-  const [chooser] = await Promise.all([page.waitForEvent('filechooser'), page.keyboard.press('Space')]);
-  await chooser.setFiles({ name: 'old.json', mimeType: 'application/json', buffer: Buffer.from(text) });
+  await chooseWithKeyboard(page, 'open', { name: 'old.json', mimeType: 'application/json', buffer: Buffer.from(text) });
   await page.waitForFunction(() => /Opened old\.json/.test(document.querySelector('[data-testid="file-status"]')?.textContent || ''));
   const status = await page.textContent('[data-testid="file-status"]');
   assert.match(status, /version 1.*converted to version 2/);
