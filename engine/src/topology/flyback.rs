@@ -94,12 +94,7 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         .iter()
         .map(|&n| vor * n as f64 / np)
         .collect();
-    let p_sec: f64 = spec
-        .outputs
-        .iter()
-        .zip(&v_rect)
-        .map(|(o, v)| v * o.current)
-        .sum();
+    let p_sec = super::sizing::secondary_power(spec, &v_rect);
     let s = state(vin, vor, lp, p_sec, spec.frequency);
     if s.d > spec.duty_max * (1.0 + 1e-12) {
         return Err(duty_error(ctx, vin, s.d));

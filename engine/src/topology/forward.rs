@@ -112,12 +112,7 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         .map(|&n| d * vin * n as f64 / np)
         .collect();
     let output_v = output_voltages(ctx, &v_rect, &mut warnings);
-    let p_sec: f64 = spec
-        .outputs
-        .iter()
-        .zip(&v_rect)
-        .map(|(o, v)| v * o.current)
-        .sum();
+    let p_sec = super::sizing::secondary_power(spec, &v_rect);
 
     let mut windings = Vec::with_capacity(2 + spec.outputs.len());
     // Primary voltage: +Vin on, −Vin·Np/Nr reset, 0 after.

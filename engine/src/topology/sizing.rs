@@ -32,6 +32,13 @@ pub fn rectified_power(spec: &Spec) -> f64 {
     spec.outputs.iter().map(|o| rectified(o) * o.current).sum()
 }
 
+/// Power through the secondaries as wound, W: Σ Vk·Ik with Vk the voltage
+/// each secondary delivers to its rectifier (`v_rect`, one per output) and
+/// Ik its output current (the ampere-turns follow from it; power balance).
+pub fn secondary_power(spec: &Spec, v_rect: &[f64]) -> f64 {
+    spec.outputs.iter().zip(v_rect).map(|(o, v)| v * o.current).sum()
+}
+
 /// Flyback reflected voltage and rectified power as wound:
 /// Vor = (Np/Ns1)·(V1 + Vf1) and Psec = Σ Vor·(Nk/Np)·Ik (each output at the
 /// volts per turn of the regulated one), W.

@@ -178,6 +178,13 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
         None => (None, crate::loss::data_range(s, x.design.spec.frequency, 0.0)),
     };
     let what = if r.f_factor >= r.b_factor { "frequency" } else { "flux amplitude" };
+    let fit = format!(
+        "{:.0}–{:.0} kHz, {:.0}–{:.0} mT",
+        s.f_min / 1e3,
+        s.f_max / 1e3,
+        s.b_min * 1e3,
+        s.b_max * 1e3
+    );
     let note = match r.verdict {
         crate::loss::RangeVerdict::Extrapolated if r.factor <= 1.0 => format!(
             "ΔB/2 {:.1} mT below the fit's {:.0} mT at {:.1} kHz: core loss taken as its upper bound (∝ B² below the fit)",
@@ -186,23 +193,15 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
             r.frequency / 1e3
         ),
         crate::loss::RangeVerdict::Inside => format!(
-            "{:.1} kHz, ΔB/2 {:.1} mT inside the fit ({:.0}–{:.0} kHz, {:.0}–{:.0} mT)",
+            "{:.1} kHz, ΔB/2 {:.1} mT inside the fit ({fit})",
             r.frequency / 1e3,
-            r.b_amplitude * 1e3,
-            s.f_min / 1e3,
-            s.f_max / 1e3,
-            s.b_min * 1e3,
-            s.b_max * 1e3
+            r.b_amplitude * 1e3
         ),
         _ => format!(
-            "{what} ×{:.2} outside the fit ({:.1} kHz, ΔB/2 {:.1} mT against {:.0}–{:.0} kHz, {:.0}–{:.0} mT): core loss extrapolated",
+            "{what} ×{:.2} outside the fit ({:.1} kHz, ΔB/2 {:.1} mT against {fit}): core loss extrapolated",
             r.factor,
             r.frequency / 1e3,
-            r.b_amplitude * 1e3,
-            s.f_min / 1e3,
-            s.f_max / 1e3,
-            s.b_min * 1e3,
-            s.b_max * 1e3
+            r.b_amplitude * 1e3
         ),
     };
     check(
