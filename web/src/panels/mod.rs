@@ -10,10 +10,12 @@
 //! * [`results`]: the deciding figures with pass/fail and margins, cautions.
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
 //!   frequency sweep.
-//! * [`windings`]: the stack-up table and editor, the window to scale, the MMF.
+//! * [`windings`]: the stack-up table and editor, the window to scale, the MMF;
+//!   [`conductor_choice`] why each conductor (the search's trials).
 //! * [`suggest`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
 
+pub mod conductor_choice;
 pub mod library;
 pub mod material_curves;
 pub mod pictures;

@@ -15,19 +15,28 @@
 //!    Pcore/Pcu = 2/β (Erickson & Maksimovic 2nd ed. §15.3, the ΔB that
 //!    minimises total loss). From a first design at the flux limit the swing
 //!    is scaled by (2·Pcu/(β·Pcore))^(1/(β+2)); the nearest integer turns at
-//!    or above the flux-limited count are evaluated and the lower loss kept.
+//!    or above the flux-limited count are evaluated and the lower loss kept
+//!    (with the conductors allocated by area; where that moved the turns,
+//!    both counts are compared again with their least-loss conductors).
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
 //!    residual gap of 10 µm per mated pair (common practice, from memory);
 //!    a one-piece core (a ring) has no mating faces and no residual gap.
-//! 5. **Wire**: window area shared between windings in proportion to their
-//!    ampere-turns N·Irms, A_k = α_k·Ku·Wa/N_k (Erickson & Maksimovic 2nd ed.
-//!    §15.1.4, optimal allocation of window area); each area realised as one
-//!    round wire if its diameter is at most 2δ, else parallel wires of ≤ 2δ,
-//!    foil for windings of three turns or fewer, litz of strands ≤ δ beyond
-//!    (common practice, no source). If the stack-up does not fit, Ku is
-//!    lowered by 20 % and the wire chosen again, up to six times.
+//! 5. **Wire**: in every turn-count trial of steps 2–3 the window area is
+//!    shared between windings in proportion to their ampere-turns N·Irms,
+//!    A_k = α_k·Ku·Wa/N_k (Erickson & Maksimovic 2nd ed. §15.1.4, optimal
+//!    allocation of window area); each area realised as one round wire if
+//!    its diameter is at most 2δ, else at most `choices.max_parallel`
+//!    parallel wires of ≤ 2δ, foil for windings of eight turns or fewer,
+//!    litz of strands ≤ δ, whichever builds least (common practice, no
+//!    source). If the stack-up does not fit, Ku is lowered by 20 % and the
+//!    wire chosen again, up to six times. Then, once on the chosen turns,
+//!    the least-loss search (`conductors::search`: Hurley, Gath & Breslin
+//!    2000 and Sullivan 1999 starting points, a quick screen, the harmonic
+//!    model deciding) replaces the automatic conductors and, when
+//!    automatic, the interleaving; the window fit and every check judge
+//!    the searched stack-up.
 //! 6. **Losses** at both line corners: iGSE core loss of the real B(t)
 //!    (`loss`), harmonic Dowell copper loss of the real currents (`winding`).
 //! 7. **Thermal equilibrium** at the corner with the larger total loss
@@ -61,6 +70,7 @@ use candidate::*;
 pub use candidate::{core_sense, currents_of};
 pub use choke::{choke_design, choke_spec};
 use conductors::*;
+pub use conductors::{ConductorKind, ConductorTrial};
 pub use report::*;
 
 /// Residual gap of a mated, ungapped core pair, m (common practice, from
@@ -102,6 +112,28 @@ pub fn evaluate_with(
     core: &Core,
     material: &Material,
     prep: &Prepared,
+) -> Result<Report> {
+    solve(design, core, material, prep, Conductors::LeastLoss)
+}
+
+/// How the automatic conductors of the final turns are chosen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(super) enum Conductors {
+    /// The least-loss search (step 5), once on the chosen turns.
+    LeastLoss,
+    /// The turn-count trials' allocation by area only: a quick comparison
+    /// of several cores (the output choke's), the search then run on the
+    /// one chosen.
+    ByArea,
+}
+
+/// Steps 1–8 (module docs).
+pub(super) fn solve(
+    design: &Design,
+    core: &Core,
+    material: &Material,
+    prep: &Prepared,
+    conductors: Conductors,
 ) -> Result<Report> {
     let spec = &design.spec;
     spec.validate()?;
@@ -153,6 +185,8 @@ pub fn evaluate_with(
             c
         }
     };
+    let first_reason = reason.clone();
+    let mut flux_limited = None;
     let mut best = first;
     if ch.turns == TurnsRule::LeastLoss {
         let (pc, pcu) = (best.selection_core(), best.selection_copper());
@@ -176,12 +210,29 @@ pub fn evaluate_with(
                 }
                 for c in tried {
                     if c.selection_total() < best.selection_total() {
+                        if flux_limited.is_none() {
+                            flux_limited = Some(best.clone());
+                        }
                         best = c;
                         reason = format!(
                             "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
                         );
                     }
                 }
+            }
+        }
+    }
+    // The least-loss conductors are searched once, on the chosen turns.
+    if conductors == Conductors::LeastLoss {
+        best = with_least_loss_conductors(&cx, best)?;
+        // The trials compared turn counts with conductors allocated by
+        // area: where least loss moved the turns, the flux-limited count
+        // is searched too and the one losing less kept.
+        if let Some(f) = flux_limited {
+            let f = with_least_loss_conductors(&cx, f)?;
+            if f.selection_total() < best.selection_total() {
+                best = f;
+                reason = format!("{first_reason}; more turns lose more with the least-loss conductors");
             }
         }
     }
@@ -239,6 +290,15 @@ pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     }
     if let Some(m) = ins.margin {
         crate::error::in_range("choices.insulation.margin", m, 0.0, 20e-3, "m")?;
+    }
+    if ch.max_parallel == 0 || ch.max_parallel > 20 {
+        return Err(Error::input(
+            "choices.max_parallel",
+            "1 to 20 round wires in hand (beyond it the search uses litz or foil)",
+        ));
+    }
+    if let Some(v) = ch.clamp_voltage {
+        crate::error::in_range("choices.clamp_voltage", v, 1.0, 10e3, "V")?;
     }
     crate::error::in_range(
         "choices.magnetic_loss_share",
