@@ -15,9 +15,11 @@
 //!    Pcore/Pcu = 2/β (Erickson & Maksimovic 2nd ed. §15.3, the ΔB that
 //!    minimises total loss). From a first design at the flux limit the swing
 //!    is scaled by (2·Pcu/(β·Pcore))^(1/(β+2)); the nearest integer turns at
-//!    or above the flux-limited count are evaluated and the lower loss kept
-//!    (with the conductors allocated by area; where that moved the turns,
-//!    both counts are compared again with their least-loss conductors).
+//!    or above the flux-limited count are evaluated and the lower loss kept.
+//!    The first design has its least-loss conductors (step 5); the trials
+//!    keep the conductors allocated by area, their copper loss scaled by
+//!    what the search saved on the first, and the trial chosen is searched
+//!    in its turn before it is compared.
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
@@ -185,9 +187,17 @@ pub(super) fn solve(
             c
         }
     };
-    let first_reason = reason.clone();
-    let mut flux_limited = None;
-    let mut best = first;
+    // The least-loss conductors are searched on the flux-limited turns; the
+    // turn-count trials below keep the conductors allocated by area, their
+    // copper loss scaled by what the search saved here (`k`), and the one
+    // they choose is searched in its turn.
+    let area_copper = first.selection_copper();
+    let search = |c: Candidate| match conductors {
+        Conductors::LeastLoss => with_least_loss_conductors(&cx, c),
+        Conductors::ByArea => Ok(c),
+    };
+    let mut best = search(first)?;
+    let k = if area_copper > 0.0 { best.selection_copper() / area_copper } else { 1.0 };
     if ch.turns == TurnsRule::LeastLoss {
         let (pc, pcu) = (best.selection_core(), best.selection_copper());
         let beta = material.steinmetz.beta;
@@ -198,41 +208,31 @@ pub(super) fn solve(
             let target = np0 as f64 * scale;
             if target > np0 as f64 + 0.5 {
                 let lo = (target.floor() as u32).max(np0 + 1);
-                let mut tried = Vec::with_capacity(2);
+                let corner = Some(best.worst_corner().corner);
+                let mut pick: Option<(f64, Candidate)> = None;
                 for np in [lo, lo + 1] {
                     if np > topology::MAX_TURNS {
                         continue;
                     }
-                    let corner = Some(best.worst_corner().corner);
                     if let Ok(c) = build_corners(&cx, np, corner) {
-                        tried.push(c);
-                    }
-                }
-                for c in tried {
-                    if c.selection_total() < best.selection_total() {
-                        if flux_limited.is_none() {
-                            flux_limited = Some(best.clone());
+                        let w = c.worst_corner();
+                        let estimate = w.core.watts + k * w.copper.total;
+                        if pick.as_ref().is_none_or(|p| estimate < p.0) {
+                            pick = Some((estimate, c));
                         }
-                        best = c;
-                        reason = format!(
-                            "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
-                        );
                     }
                 }
-            }
-        }
-    }
-    // The least-loss conductors are searched once, on the chosen turns.
-    if conductors == Conductors::LeastLoss {
-        best = with_least_loss_conductors(&cx, best)?;
-        // The trials compared turn counts with conductors allocated by
-        // area: where least loss moved the turns, the flux-limited count
-        // is searched too and the one losing less kept.
-        if let Some(f) = flux_limited {
-            let f = with_least_loss_conductors(&cx, f)?;
-            if f.selection_total() < best.selection_total() {
-                best = f;
-                reason = format!("{first_reason}; more turns lose more with the least-loss conductors");
+                if let Some((estimate, c)) = pick {
+                    if estimate < best.selection_total() {
+                        let c = search(c)?;
+                        if c.selection_total() < best.selection_total() {
+                            best = c;
+                            reason = format!(
+                                "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
+                            );
+                        }
+                    }
+                }
             }
         }
     }

@@ -118,8 +118,13 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
     let rdc = win.rho * p.turns as f64 * win.mlt / (a1 * par as f64);
     let mut build = 0.0;
     let mut loss = rdc * p.dc * p.dc;
-    let nh = p.own.len();
-    let mut dp: Vec<(f64, f64)> = Vec::new();
+    const H: usize = HARMONICS as usize;
+    let nh = p.own.len().min(H);
+    let mut dp = [(0.0, 0.0); H];
+    let mut dp_done = false;
+    // The tail's factor N^1.5·2/√(N + ½) (below).
+    let nn = nh as f64;
+    let tail = nn * nn.sqrt() * 2.0 / (nn + 0.5).sqrt();
     for sf in &p.sections {
         let sec = Section {
             winding: String::new(),
@@ -151,8 +156,11 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
                 (sk, sqrt_pi_2 * l.strand_diameter / win.delta1 * eta.sqrt())
             }
         };
-        if dp.is_empty() {
-            dp = (1..=nh).map(|n| dpsi(delta1 * (n as f64).sqrt())).collect();
+        if !dp_done {
+            for (n, x) in dp.iter_mut().enumerate().take(nh) {
+                *x = dpsi(delta1 * ((n + 1) as f64).sqrt());
+            }
+            dp_done = true;
         }
         // Identical layers are one block of sub-layers: the closed-form
         // sums hold for any count of sub-layers with the same resistance
@@ -171,8 +179,9 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
             };
             [block(full, tpl), if rest > 0 { block(1, rest) } else { (0.0, 0.0, 0.0) }]
         };
-        let mut f0 = sf.f0.clone();
-        let mut terms = vec![0.0; nh];
+        let mut f0 = [(0.0, 0.0); H];
+        f0[..nh].copy_from_slice(&sf.f0[..nh]);
+        let mut terms = [0.0; H];
         for &(mm, area_sub, step) in blocks.iter().filter(|b| b.0 > 0.0) {
             let s1 = mm * (mm - 1.0) / 2.0;
             let s2 = (mm - 1.0) * mm * (2.0 * mm - 1.0) / 6.0;
@@ -181,7 +190,7 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
             let (ka, kx, kd) = (2.0 * mm, 2.0 * (s1 + s1p), s2 + s2p);
             let (ja, jx, jd) = (mm, 2.0 * s1 + mm, s2 + s1);
             let g = win.rho * win.mlt / area_sub;
-            for (n, x) in f0.iter_mut().enumerate() {
+            for (n, x) in f0.iter_mut().enumerate().take(nh) {
                 let i = p.own[n];
                 let d = (i.0 * step, i.1 * step);
                 let a2 = x.0 * x.0 + x.1 * x.1;
@@ -198,8 +207,7 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
         // Tail: Pn ∝ n^(−1.5) beyond N, Σ_{n>N} ≈ P̄N·N^1.5·2/√(N + ½), P̄N the
         // mean of the last two terms (odd-only spectra alternate with zero).
         if nh >= 2 {
-            let nn = nh as f64;
-            loss += 0.5 * (terms[nh - 1] + terms[nh - 2]) * nn.powf(1.5) * 2.0 / (nn + 0.5).sqrt();
+            loss += 0.5 * (terms[nh - 1] + terms[nh - 2]) * tail;
         }
     }
     (loss.is_finite() && build.is_finite()).then_some((loss, build))
