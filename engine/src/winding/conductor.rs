@@ -246,7 +246,9 @@ impl Conductor {
                         ),
                     ));
                 }
-                crate::error::non_negative(&f("serving_m"), l.serving, "m")?;
+                if !(l.serving.is_finite() && l.serving >= 0.0) {
+                    crate::error::non_negative(&f("serving_m"), l.serving, "m")?;
+                }
             }
             Conductor::Foil(fo) => {
                 at_least_1um("thickness_m", fo.thickness)?;

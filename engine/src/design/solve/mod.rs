@@ -19,7 +19,7 @@
 //!    The first design has its least-loss conductors (step 5); the trials
 //!    keep the conductors allocated by area, their copper loss scaled by
 //!    what the search saved on the first, and the trial chosen is searched
-//!    in its turn before it is compared.
+//!    in its turn (keeping the first's interleaving) before it is compared.
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
@@ -192,11 +192,11 @@ pub(super) fn solve(
     // copper loss scaled by what the search saved here (`k`), and the one
     // they choose is searched in its turn.
     let area_copper = first.selection_copper();
-    let search = |c: Candidate| match conductors {
-        Conductors::LeastLoss => with_least_loss_conductors(&cx, c),
+    let search = |c: Candidate, interleave_as: Option<&str>| match conductors {
+        Conductors::LeastLoss => with_least_loss_conductors(&cx, c, interleave_as),
         Conductors::ByArea => Ok(c),
     };
-    let mut best = search(first)?;
+    let mut best = search(first, None)?;
     let k = if area_copper > 0.0 { best.selection_copper() / area_copper } else { 1.0 };
     if ch.turns == TurnsRule::LeastLoss {
         let (pc, pcu) = (best.selection_core(), best.selection_copper());
@@ -224,7 +224,9 @@ pub(super) fn solve(
                 }
                 if let Some((estimate, c)) = pick {
                     if estimate < best.selection_total() {
-                        let c = search(c)?;
+                        // The interleaving chosen on the first design is kept.
+                        let chosen = best.winding_choice.automatic.then(|| best.winding_choice.interleave.clone());
+                        let c = search(c, chosen.as_deref())?;
                         if c.selection_total() < best.selection_total() {
                             best = c;
                             reason = format!(

@@ -145,6 +145,7 @@ pub(super) fn search_stackup(
     windings: &[(String, u32, f64)],
     delta: f64,
     loss: &LossSetting,
+    interleave_as: Option<&str>,
 ) -> Result<Option<Chosen>> {
     let ch = &design.choices;
     let automatic = |name: &str| !ch.wires.iter().any(|o| o.winding == name);
@@ -161,6 +162,15 @@ pub(super) fn search_stackup(
             vec![Pattern::Sequential, Pattern::SplitPrimary, Pattern::SplitSecondaries]
         }
         Interleave::Auto => vec![Pattern::Sequential],
+    };
+    // An automatic interleaving already chosen by loss on other turns of
+    // the same design is kept (the search then weighs conductors only).
+    let patterns: Vec<Pattern> = match interleave_as {
+        Some(name) if patterns.len() > 1 => {
+            let kept: Vec<Pattern> = patterns.iter().filter(|p| pattern_name(p) == name).cloned().collect();
+            if kept.is_empty() { patterns } else { kept }
+        }
+        _ => patterns,
     };
     let mut needs = Vec::with_capacity(windings.len());
     for (name, turns, _) in windings {

@@ -3,11 +3,11 @@
 //!
 //! 1. **Candidates** per winding, from the published optima
 //!    ([`super::optima`]): foil at Hurley's optimum thickness and four
-//!    neighbours (×0.35 … ×2.8); round wire (triple-insulated where the
+//!    neighbours (×0.5 … ×2); round wire (triple-insulated where the
 //!    isolation asks for it) with 1 to `max_parallel` in hand, each at the
-//!    two gauges either side of Hurley's optimum diameter for its layer
-//!    count and at the thickest gauges that wind the largest section in
-//!    one and in two layers; litz of the table's two coarsest strand gauges not above δ,
+//!    gauge of Hurley's optimum diameter for its layer count and at the
+//!    thickest gauges that wind the largest section in one and in two
+//!    layers; litz of the table's two coarsest strand gauges not above δ,
 //!    each at the count where the low-frequency loss is least (Sullivan's
 //!    trade) and its two neighbours in the table. Buildable only: no foil
 //!    on ring cores or in triple-insulated windings, foil for at most
@@ -223,7 +223,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
     if !s.ring && !need.tiw && need.turns <= FOIL_MAX_TURNS {
         let t0 = optimum_delta(big as f64 * factor, k) * s.delta1;
         let mut last = 0.0;
-        for m in [0.35, 0.5, 0.7, 1.0, 1.4, 2.0, 2.8] {
+        for m in [0.5, 0.7, 1.0, 1.4, 2.0] {
             let t = ((t0 * m).clamp(0.02e-3, 1.0e-3) * 2e5).round() / 2e5;
             if t != last {
                 if let Ok(c) = Conductor::foil(t, s.breadth) {
@@ -260,7 +260,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
         let g = awg_not_above(d);
         // And the thickest wire that winds the largest section in one or
         // two full layers (least proximity effect for its copper).
-        let mut gauges = vec![g, g - 1];
+        let mut gauges = vec![g];
         for layers in [1, 2] {
             let tpl = big.div_ceil(layers).max(1) * par;
             let room = s.breadth / tpl as f64;
