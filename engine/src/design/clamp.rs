@@ -11,9 +11,11 @@
 //!   falls linearly at (Vc − Vr)/Llk, for t = Llk·Ipk/(Vc − Vr), and the
 //!   clamp takes Vc·Ipk·t/2 each turn-off:
 //!   Pclamp = ½·Llk·Ipk²·fsw·Vc/(Vc − Vr). The switch sees Vin + Vc.
-//!   Source: Basso, *Switch-Mode Power Supplies: SPICE Simulations and
-//!   Practical Designs*, McGraw-Hill 2008, the flyback chapter's RCD clamp
-//!   (equation from memory of that text; the derivation above is our own).
+//!   Source: C. Basso, *Switch-Mode Power Supplies: SPICE Simulations and
+//!   Practical Designs*, McGraw-Hill 2008, ch. 7 (flyback converters), the
+//!   design of the RCD clamp (chapter and form from memory of that text,
+//!   not checked against a copy; the derivation above is our own and the
+//!   test integrates the clamp current numerically against it).
 //!   Vr is the flyback's reflected voltage (Np/Ns1)·(V1 + Vf1), the
 //!   forward's reset voltage Vin·Np/Nr, the push-pull's Vin (the other half
 //!   of the primary). Default Vc = 1.5·Vr (common practice, no source): the
