@@ -21,7 +21,7 @@ use crate::winding::fit::layout;
 use crate::winding::stackup::{Direction, Section, Side, Tape};
 
 /// Harmonics summed explicitly by the estimate.
-pub const HARMONICS: u32 = 15;
+pub const HARMONICS: u32 = 11;
 
 type C = (f64, f64);
 

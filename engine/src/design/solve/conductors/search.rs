@@ -52,7 +52,7 @@ pub const SCREEN_BAND: f64 = 1.05;
 /// when its estimate is within this factor of the chosen one's: the
 /// estimate leaves out how a conductor's build moves the other windings
 /// (our choice).
-pub const KIND_BAND: f64 = 1.25;
+pub const KIND_BAND: f64 = 1.15;
 
 /// Kind of conductor.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
