@@ -453,6 +453,35 @@ mod tests {
     }
 
     #[test]
+    fn the_search_leaves_a_fixed_wire_alone() {
+        // A winding the user fixed keeps its conductor exactly (three round
+        // AWG 24 wires in hand, ASTM B258 0.511 mm bare); the other winding is
+        // still chosen by the search, and the stack-up holds both.
+        use crate::design::file::{WireChoice, WireOverride};
+        let mut d = Design::demo_forward();
+        d.choices.wires = vec![WireOverride {
+            winding: "secondary 1".into(),
+            wire: WireChoice::Round { awg: 24, parallel: 3 },
+        }];
+        let r = evaluate(&d).unwrap();
+        let s = r.wires.iter().find(|w| w.winding == "secondary 1").unwrap();
+        assert!(!s.automatic);
+        assert_eq!(s.parallel, 3);
+        assert!(s.conductor.starts_with("round 0.511 mm"), "{}", s.conductor);
+        assert_eq!(s.reason, "fixed by the user");
+        let p = r.wires.iter().find(|w| w.winding == "primary").unwrap();
+        assert!(p.automatic && !p.trials.is_empty() && p.trials[0].chosen, "{}", p.reason);
+        for it in &r.stackup.items {
+            if let crate::winding::stackup::Item::Section(sec) = it {
+                if sec.winding == "secondary 1" {
+                    assert_eq!(sec.parallel, 3);
+                    assert!(!sec.conductor.is_foil());
+                }
+            }
+        }
+    }
+
+    #[test]
     fn flyback_gap_gives_the_inductance() {
         let r = evaluate(&Design::demo_flyback()).unwrap();
         let g = r.gap.as_ref().expect("a flyback is gapped");
