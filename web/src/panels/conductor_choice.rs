@@ -16,7 +16,8 @@ use magwright_engine::notation;
 
 const CSS: &str = r#"
 .choice p.why { margin:.25rem 0 .15rem; font-size:.88em; }
-.choice table.trials { font-size:.85em; margin:0 0 .5rem; }
+.choice table.trials { font-size:.85em; margin:0 0 .5rem; border-spacing:0; }
+.choice table.trials th, .choice table.trials td { padding:.1rem .45rem; }
 .choice table.trials td.cond { text-align:left; white-space:normal; }
 .choice table.trials tr.chosen td, .choice table.trials tr.chosen th { font-weight:600; }
 .choice .muted { color:var(--muted); }
