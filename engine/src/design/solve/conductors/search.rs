@@ -532,7 +532,11 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
             let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
             // The kind's best (the lists are sorted by estimated loss) that
             // fits, if its estimate is within KIND_BAND of the chosen one's.
-            let ceiling = lists[g][chosen[g]].loss * KIND_BAND;
+            // Against the larger of the chosen one's estimate and its loss by
+            // the harmonic model: where the estimate flatters the chosen
+            // conductor, the other kinds still get their turn.
+            let chosen_loss = evaluated[g].iter().find(|e| e.0 == chosen[g]).map_or(0.0, |e| e.1);
+            let ceiling = lists[g][chosen[g]].loss.max(chosen_loss) * KIND_BAND;
             let js: Vec<usize> = (0..lists[g].len())
                 .filter(|&j| Kind::of(&lists[g][j].conductor) == kind && others + lists[g][j].build <= limit)
                 .take(1)
@@ -646,7 +650,7 @@ fn reason(n: &Need, t: &[ConductorTrial], screened: usize) -> String {
             x.conductor,
             x.loss
         ));
-    } else if let Some(x) = lower.first() {
+    } else if let Some(x) = lower.iter().find(|x| x.evaluated) {
         s.push_str(&format!(
             "; {} alone loses less ({:.3} W) but raises the others' loss more",
             x.conductor, x.loss
