@@ -16,7 +16,7 @@ commands:
                                     prefixes (200k, 1M); --csv prints CSV instead of JSON
   flux-sweep FILE|- [POINTS]        loss against peak flux density at the design's frequency
                                     (default 60 points)
-  rank FILE|-                       the optimiser: every library core x material for the
+  optimise FILE|-                   the optimiser: every library core x material for the
                                     design's spec, ranked, with the Pareto front (JSON)
   stackup FILE|-                    the design's winding stack-up in its JSON schema
   demo [forward|flyback|push-pull]  print a demo design file (default forward)

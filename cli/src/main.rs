@@ -4,7 +4,7 @@
 //! magwright evaluate FILE|-                  evaluate a design file (JSON report)
 //! magwright sweep FILE|- [FROM TO POINTS]    loss against switching frequency (default 20k 1M 200)
 //! magwright flux-sweep FILE|- [POINTS]       loss against peak flux density at the design's frequency
-//! magwright rank FILE|-                      rank every library core × material for the design's spec
+//! magwright optimise FILE|-                  the optimiser: every library core × material for the design's spec, ranked
 //! magwright demo [forward|flyback|push-pull|inductor] print a demo design file
 //! magwright stackup FILE|-                   the design's winding stack-up in its JSON schema
 //! magwright cores                            the core library (effective parameters, provenance)
@@ -20,15 +20,24 @@ mod help;
 
 use magwright_engine::design::{self, optimise, sweep, Design};
 use magwright_engine::{core::library as cores, json, material::library as materials, notation};
-use std::io::Read;
+use std::io::{Read, Write};
 use std::process::ExitCode;
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
     match run(&args) {
         Ok(out) => {
-            println!("{out}");
-            ExitCode::SUCCESS
+            // A reader that stops early (`| head`) closes the pipe: that is
+            // not an error of ours, and must not panic as `println!` would.
+            let mut stdout = std::io::stdout().lock();
+            match writeln!(stdout, "{out}").and_then(|()| stdout.flush()) {
+                Ok(()) => ExitCode::SUCCESS,
+                Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+                Err(e) => {
+                    eprintln!("magwright: cannot write the output: {e}");
+                    ExitCode::from(1)
+                }
+            }
         }
         Err(msg) => {
             eprintln!("magwright: {msg}");
@@ -37,7 +46,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials  |  help";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|optimise|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials  |  help";
 
 /// Largest input read, bytes (the engine's limit, 16 MB): more than any
 /// design file (a few kB), little enough that `magwright evaluate /dev/zero`
@@ -48,7 +57,7 @@ const MAX_INPUT: u64 = json::MAX_LEN as u64;
 /// and the flags it knows. Anything else is refused.
 fn arity(cmd: &str) -> Option<(usize, usize, &'static [&'static str])> {
     Some(match cmd {
-        "evaluate" | "rank" | "stackup" => (1, 1, &[]),
+        "evaluate" | "optimise" | "stackup" => (1, 1, &[]),
         "sweep" => (1, 4, &["--csv"]),
         "flux-sweep" => (1, 2, &[]),
         "demo" => (0, 1, &[]),
@@ -116,7 +125,7 @@ fn run(args: &[String]) -> Result<String, String> {
             let n = args.get(2).map_or(Ok(60), |s| count_arg(s, "POINTS"))?;
             Ok(json::to_string_pretty(&sweep::flux(&d, n).map_err(|e| e.to_string())?))
         }
-        "rank" => {
+        "optimise" => {
             let d = file()?;
             let r = optimise::optimise(&d, cores::cores(), materials::materials(), &[]).map_err(|e| e.to_string())?;
             Ok(json::to_string_pretty(&r))
@@ -132,6 +141,8 @@ fn run(args: &[String]) -> Result<String, String> {
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),
         "-h" | "--help" | "help" => Ok(help::help()),
+        // The optimiser's one name is "optimise" (it was "rank").
+        "rank" => Err(format!("the optimiser's command is \"optimise\" (it was \"rank\"); {USAGE}")),
         other => Err(format!("unknown command \"{other}\"; {USAGE}")),
     }
 }

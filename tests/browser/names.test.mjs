@@ -143,7 +143,7 @@ test('labels say what is computed: core temperature, margins in K, tight, Bsat a
   assert.equal((await page.textContent('[data-testid="margin-temperature"]')).trim(), `+${(t.limit - t.value).toFixed(1)} K`);
   assert.match(await page.locator('[data-testid="check-saturation"] th').textContent(), /Bsat at core temp\./);
   // A check under 10 % margin (duty of the demo) is tagged "tight".
-  const tight = want.checks.filter((c) => c.pass && c.binding).map((c) => c.key);
+  const tight = want.checks.filter((c) => c.pass && c.tight).map((c) => c.key);
   assert.ok(tight.length > 0);
   for (const k of tight) assert.match(await page.locator(`[data-testid="check-${k}"] th`).textContent(), /tight/);
   assert.doesNotMatch(await page.innerText('[data-testid="panel-results"]'), /binding|Hot spot/);

@@ -311,7 +311,7 @@ impl LossModel {
                     classes.len() - 1
                 }
             };
-            let k0 = rho * l.mlt / l.copper_area;
+            let k0 = rho * l.turn_length / l.copper_area;
             *rdc.get_mut(l.winding)
                 .ok_or_else(|| Error::input("fit", "the fit is not of this stack-up (unknown winding)"))? +=
                 k0 * l.mmf_per_amp * l.mmf_per_amp;

@@ -34,7 +34,57 @@ use crate::core::Core;
 use crate::error::{non_negative, positive, Error, Result};
 
 /// Schema identifier written in every file; the number is the version.
-pub const SCHEMA: &str = "magwright.stackup/1";
+pub const SCHEMA: &str = "magwright.stackup/2";
+
+/// The first schema, still read: it named its lengths with a unit suffix
+/// (`thickness_m`, `margin_left_m`, ...). Schema 2 names them as every other
+/// file of ours does: SI units, no suffix, the unit stated in the schema's
+/// documentation (docs/stackup.md). Reading converts the keys, nothing else.
+pub const SCHEMA_1: &str = "magwright.stackup/1";
+
+/// Schema-1 keys and their schema-2 names.
+const SUFFIXED: [(&str, &str); 9] = [
+    ("thickness_m", "thickness"),
+    ("width_m", "width"),
+    ("bare_diameter_m", "bare_diameter"),
+    ("overall_diameter_m", "overall_diameter"),
+    ("strand_diameter_m", "strand_diameter"),
+    ("strand_overall_diameter_m", "strand_overall_diameter"),
+    ("serving_m", "serving"),
+    ("margin_left_m", "margin_left"),
+    ("margin_right_m", "margin_right"),
+];
+
+/// Renames schema-1 keys in place, at every depth. An object that holds a
+/// key under both names is refused, naming the path of the old one.
+fn upgrade_schema_1(v: &mut Json, path: &str) -> Result<()> {
+    match v {
+        Json::Obj(kv) => {
+            let names: Vec<String> = kv.iter().map(|(k, _)| k.clone()).collect();
+            for (k, x) in kv.iter_mut() {
+                let here = if path.is_empty() { k.clone() } else { format!("{path}.{k}") };
+                if let Some(&(_, new)) = SUFFIXED.iter().find(|(old, _)| old == k) {
+                    if names.iter().any(|n| n == new) {
+                        return Err(Error::format(
+                            Some(&here),
+                            format!("holds both \"{k}\" and \"{new}\"; keep one"),
+                        ));
+                    }
+                    *k = new.to_string();
+                }
+                upgrade_schema_1(x, &here)?;
+            }
+            Ok(())
+        }
+        Json::Arr(a) => {
+            for (i, x) in a.iter_mut().enumerate() {
+                upgrade_schema_1(x, &format!("{path}[{i}]"))?;
+            }
+            Ok(())
+        }
+        _ => Ok(()),
+    }
+}
 
 /// Winding sense of a section, seen from the bobbin's left flange.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize)]
@@ -228,10 +278,10 @@ impl StackUp {
                         s.conductor.validate(&format!("{}.conductor", p()))?;
                     }
                     if !(s.margin_left.is_finite() && s.margin_left >= 0.0) {
-                        non_negative(&format!("{}.margin_left_m", p()), s.margin_left, "m")?;
+                        non_negative(&format!("{}.margin_left", p()), s.margin_left, "m")?;
                     }
                     if !(s.margin_right.is_finite() && s.margin_right >= 0.0) {
-                        non_negative(&format!("{}.margin_right_m", p()), s.margin_right, "m")?;
+                        non_negative(&format!("{}.margin_right", p()), s.margin_right, "m")?;
                     }
                     if let Some(t) = &s.interlayer {
                         if validate_tape("", t).is_err() {
@@ -245,10 +295,10 @@ impl StackUp {
                     }
                 }
                 Item::Screen(sc) => {
-                    positive(&format!("{}.thickness_m", p()), sc.thickness, "m")?;
+                    positive(&format!("{}.thickness", p()), sc.thickness, "m")?;
                     if sc.thickness > 0.01 {
                         return Err(Error::input(
-                            &format!("{}.thickness_m", p()),
+                            &format!("{}.thickness", p()),
                             "a screen over 10 mm thick is not a screen",
                         ));
                     }
@@ -269,11 +319,11 @@ impl StackUp {
 
 fn validate_tape(p: &str, t: &Tape) -> Result<()> {
     if !(t.thickness.is_finite() && t.thickness > 0.0) {
-        positive(&format!("{p}.thickness_m"), t.thickness, "m")?;
+        positive(&format!("{p}.thickness"), t.thickness, "m")?;
     }
     if t.thickness > 0.005 {
         return Err(Error::input(
-            &format!("{p}.thickness_m"),
+            &format!("{p}.thickness"),
             "a tape over 5 mm thick is not a tape",
         ));
     }
@@ -304,7 +354,7 @@ fn obj(kv: Vec<(&str, Json)>) -> Json {
 fn tape_json(t: &Tape) -> Vec<(&'static str, Json)> {
     vec![
         ("material", s(&t.material)),
-        ("thickness_m", num(t.thickness)),
+        ("thickness", num(t.thickness)),
         ("wraps", int(t.wraps)),
     ]
 }
@@ -320,21 +370,21 @@ fn conductor_json(c: &Conductor) -> Json {
                     "triple_insulated"
                 }),
             ),
-            ("bare_diameter_m", num(w.bare_diameter)),
-            ("overall_diameter_m", num(w.overall_diameter)),
+            ("bare_diameter", num(w.bare_diameter)),
+            ("overall_diameter", num(w.overall_diameter)),
         ]),
         Conductor::Litz(l) => obj(vec![
             ("kind", s("litz")),
             ("strands", int(l.strands)),
-            ("strand_diameter_m", num(l.strand_diameter)),
-            ("strand_overall_diameter_m", num(l.strand_overall_diameter)),
+            ("strand_diameter", num(l.strand_diameter)),
+            ("strand_overall_diameter", num(l.strand_overall_diameter)),
             ("packing", num(l.packing)),
-            ("serving_m", num(l.serving)),
+            ("serving", num(l.serving)),
         ]),
         Conductor::Foil(f) => obj(vec![
             ("kind", s("foil")),
-            ("thickness_m", num(f.thickness)),
-            ("width_m", num(f.width)),
+            ("thickness", num(f.thickness)),
+            ("width", num(f.width)),
         ]),
     }
 }
@@ -370,8 +420,8 @@ pub fn to_json(st: &StackUp) -> String {
                     ),
                     ("start_side", s(side_str(x.start))),
                     ("finish_side", s(side_str(x.finish))),
-                    ("margin_left_m", num(x.margin_left)),
-                    ("margin_right_m", num(x.margin_right)),
+                    ("margin_left", num(x.margin_left)),
+                    ("margin_right", num(x.margin_right)),
                     (
                         "interlayer_tape",
                         x.interlayer.as_ref().map_or(Json::Null, |t| obj(tape_json(t))),
@@ -385,7 +435,7 @@ pub fn to_json(st: &StackUp) -> String {
                 Item::Screen(sc) => obj(vec![
                     ("item", s("screen")),
                     ("material", s(&sc.material)),
-                    ("thickness_m", num(sc.thickness)),
+                    ("thickness", num(sc.thickness)),
                     ("connection", s(&sc.connection)),
                 ]),
             })
@@ -532,12 +582,12 @@ impl<'a> Ctx<'a> {
 }
 
 fn read_tape(c: &Ctx, extra: &[&str]) -> Result<Tape> {
-    let mut keys = vec!["material", "thickness_m", "wraps"];
+    let mut keys = vec!["material", "thickness", "wraps"];
     keys.extend_from_slice(extra);
     c.check_keys(&keys)?;
     Ok(Tape {
         material: c.string("material")?,
-        thickness: c.number("thickness_m")?,
+        thickness: c.number("thickness")?,
         wraps: c.count("wraps", "wraps")?,
     })
 }
@@ -545,10 +595,10 @@ fn read_tape(c: &Ctx, extra: &[&str]) -> Result<Tape> {
 fn read_conductor(c: &Ctx) -> Result<Conductor> {
     let kind = c.string("kind")?;
     let round = |c: &Ctx| -> Result<RoundWire> {
-        c.check_keys(&["kind", "bare_diameter_m", "overall_diameter_m"])?;
+        c.check_keys(&["kind", "bare_diameter", "overall_diameter"])?;
         Ok(RoundWire {
-            bare_diameter: c.number("bare_diameter_m")?,
-            overall_diameter: c.number("overall_diameter_m")?,
+            bare_diameter: c.number("bare_diameter")?,
+            overall_diameter: c.number("overall_diameter")?,
         })
     };
     Ok(match kind.as_str() {
@@ -558,24 +608,24 @@ fn read_conductor(c: &Ctx) -> Result<Conductor> {
             c.check_keys(&[
                 "kind",
                 "strands",
-                "strand_diameter_m",
-                "strand_overall_diameter_m",
+                "strand_diameter",
+                "strand_overall_diameter",
                 "packing",
-                "serving_m",
+                "serving",
             ])?;
             Conductor::Litz(Litz {
                 strands: c.count("strands", "strands")?,
-                strand_diameter: c.number("strand_diameter_m")?,
-                strand_overall_diameter: c.number("strand_overall_diameter_m")?,
+                strand_diameter: c.number("strand_diameter")?,
+                strand_overall_diameter: c.number("strand_overall_diameter")?,
                 packing: c.number("packing")?,
-                serving: c.number("serving_m")?,
+                serving: c.number("serving")?,
             })
         }
         "foil" => {
-            c.check_keys(&["kind", "thickness_m", "width_m"])?;
+            c.check_keys(&["kind", "thickness", "width"])?;
             Conductor::Foil(Foil {
-                thickness: c.number("thickness_m")?,
-                width: c.number("width_m")?,
+                thickness: c.number("thickness")?,
+                width: c.number("width")?,
             })
         }
         other => {
@@ -590,7 +640,7 @@ fn read_conductor(c: &Ctx) -> Result<Conductor> {
 /// Reads a stack-up from JSON and validates it ([`StackUp::validate`]).
 /// Every malformed case is an error naming the field; nothing panics.
 pub fn from_json(text: &str) -> Result<StackUp> {
-    let doc = json::parse(text).map_err(|m| Error::format(None, format!("not valid JSON: {m}")))?;
+    let mut doc = json::parse(text).map_err(|m| Error::format(None, format!("not valid JSON: {m}")))?;
     if !matches!(doc, Json::Obj(_)) {
         return Err(Error::format(
             None,
@@ -601,7 +651,15 @@ pub fn from_json(text: &str) -> Result<StackUp> {
         v: &doc,
         path: String::new(),
     };
-    let schema = root.string("schema")?;
+    let mut schema = root.string("schema")?;
+    if schema == SCHEMA_1 {
+        upgrade_schema_1(&mut doc, "")?;
+        schema = SCHEMA.to_string();
+    }
+    let root = Ctx {
+        v: &doc,
+        path: String::new(),
+    };
     if schema != SCHEMA {
         let msg = match schema.strip_prefix("magwright.stackup/") {
             Some(v) => format!("schema version \"{v}\" is not supported; this version reads \"{SCHEMA}\""),
@@ -635,8 +693,8 @@ pub fn from_json(text: &str) -> Result<StackUp> {
                     "direction",
                     "start_side",
                     "finish_side",
-                    "margin_left_m",
-                    "margin_right_m",
+                    "margin_left",
+                    "margin_right",
                     "interlayer_tape",
                 ])?;
                 let sides = [("left", Side::Left), ("right", Side::Right)];
@@ -657,17 +715,17 @@ pub fn from_json(text: &str) -> Result<StackUp> {
                     )?,
                     start: c.choice("start_side", &sides)?,
                     finish: c.choice("finish_side", &sides)?,
-                    margin_left: c.number("margin_left_m")?,
-                    margin_right: c.number("margin_right_m")?,
+                    margin_left: c.number("margin_left")?,
+                    margin_right: c.number("margin_right")?,
                     interlayer,
                 })
             }
             "tape" => Item::Tape(read_tape(&c, &["item"])?),
             "screen" => {
-                c.check_keys(&["item", "material", "thickness_m", "connection"])?;
+                c.check_keys(&["item", "material", "thickness", "connection"])?;
                 Item::Screen(Screen {
                     material: c.string("material")?,
-                    thickness: c.number("thickness_m")?,
+                    thickness: c.number("thickness")?,
                     connection: c.string("connection")?,
                 })
             }

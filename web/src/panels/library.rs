@@ -515,7 +515,7 @@ fn CoreData(form: Form) -> impl IntoView {
                             " mm"
                         </td>
                     </tr>
-                    {figure("core-mlt", "Turn length on bobbin", c.turn_length_inner, 1e-3, "mm")}
+                    {figure("core-mlt", "Mean turn length on the bobbin", c.turn_length_inner, 1e-3, "mm")}
                     {figure("core-surface", "Outer surface", c.surface_area, 1e-4, "cm²")}
                     {figure("core-mass", "Mass (set)", c.mass, 1e-3, "g")}
                 </table>
@@ -776,10 +776,10 @@ const CUSTOM: [Def; 10] = [
     Def {
         key: "cc-mlt",
         engine: "turn_length_inner",
-        label: "Turn on bobbin",
+        label: "Mean turn length on the bobbin",
         dim: Dim::Length,
         optional: false,
-        help: "Length of one turn laid on the bobbin",
+        help: "Mean turn length (MLT) of a turn laid on the bare bobbin",
     },
     Def {
         key: "cc-surface",

@@ -11,7 +11,7 @@
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
 //!   frequency sweep.
 //! * [`windings`]: the stack-up table and editor, the window to scale, the MMF.
-//! * [`suggest`]: the optimiser over the library, ranked, with its Pareto plot.
+//! * [`optimiser`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
 
 pub mod library;
@@ -19,7 +19,7 @@ pub mod material_curves;
 pub mod pictures;
 pub mod results;
 pub mod sheet;
-pub mod suggest;
+pub mod optimiser;
 pub mod windings;
 
 use leptos::prelude::*;

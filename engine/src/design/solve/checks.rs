@@ -119,7 +119,7 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         .map(|k| k.margin)
         .fold(f64::INFINITY, f64::min);
     for k in &mut checks {
-        k.binding = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
+        k.tight = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
 }
@@ -237,7 +237,7 @@ pub(super) fn check(
         unit: unit.into(),
         margin,
         pass: value <= limit,
-        binding: false,
+        tight: false,
         corner,
         note,
     }

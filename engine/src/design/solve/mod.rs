@@ -110,7 +110,7 @@ pub fn evaluate_with(
     let ch = &design.choices;
     let n = sizing::turns_ratio(spec)?;
     let b_auto = material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin);
-    let b_limit = ch.b_max.unwrap_or(b_auto);
+    let b_limit = ch.bpk_limit.unwrap_or(b_auto);
     let lp_target = match spec.topology {
         Topology::Flyback => Some(sizing::flyback_lp(spec, n)?),
         Topology::Inductor => Some(topology::inductor::target_inductance(spec)?),
@@ -206,8 +206,8 @@ pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
         0.9,
         "",
     )?;
-    if let Some(b) = ch.b_max {
-        crate::error::in_range("choices.b_max", b, 0.001, 2.0, "T")?;
+    if let Some(b) = ch.bpk_limit {
+        crate::error::in_range("choices.bpk_limit", b, 0.001, 2.0, "T")?;
     }
     crate::error::in_range(
         "choices.window_utilisation",
