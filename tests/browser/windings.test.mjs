@@ -113,7 +113,7 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   const got = readFileSync(await dl.path(), 'utf8');
   const want = execFileSync(CLI, ['stackup', '-'], { input: design, encoding: 'utf8' });
   assert.equal(got + '\n', want);
-  assert.match(got, /"magwright\.stackup\/1"/);
+  assert.match(got, /"magwright\.stackup\/2"/);
 
   // The per-layer losses open on demand.
   await page.click('[data-testid="layer-losses"] summary');

@@ -124,16 +124,16 @@ fn temperature_factor(value: &mut Value, notes: &mut Vec<String>) -> Result<()> 
             if let Some(kv) = k.as_f64() {
                 let scaled = kv * scale;
                 *k = number(scaled, "material.material.steinmetz.k")?;
-                k_note = format!("; k scaled by the factor's minimum {scale:.6} to {scaled:.6e}");
+                k_note = format!("; k scaled by the factor's minimum {scale:.4} to {scaled:.4} (stored exactly)");
             }
         }
     }
     notes.push(if c == 0.0 {
-        format!("The material's temperature factor is now flat (curvature 0, recorded at {tm:.6} °C){k_note}.")
+        format!("The material's temperature factor is now flat (curvature 0, recorded at {tm:.1} °C){k_note}.")
     } else {
         format!(
-            "The material's temperature factor (ct2, ct1, ct0) is now given as least loss at {tm:.6} °C with curvature \
-             {c:.6e} /K², the same loss at every temperature{k_note}."
+            "The material's temperature factor (ct2, ct1, ct0) is now given as least loss at {tm:.1} °C with curvature \
+             {c:.3e} /K² (stored exactly), the same loss at every temperature{k_note}."
         )
     });
     Ok(())
