@@ -202,7 +202,7 @@ fn check_row(c: &Check) -> impl IntoView {
             <th scope="row">
                 {short_label(c)}
                 {(!c.pass).then(|| view! { <span class="tag failing">"FAIL"</span> })}
-                {(c.pass && c.tight).then(|| view! { <span class="tag tight" title="Tight: under 10 % margin, or the tightest check: this check limits the design">"tight"</span> })}
+                {(c.pass && c.tight).then(|| view! { <span class="tag tight" title="Tight: under 10 % margin (for a temperature, 10 % of the allowed rise over ambient), or the tightest check: this check limits the design">"tight"</span> })}
                 {show_note.then(|| view! { <span class="note">{inline}</span> })}
             </th>
             <td data-si=format!("{:e}", c.value)>{v}</td>

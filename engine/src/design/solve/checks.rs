@@ -44,12 +44,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
             ch.saturation_margin * 100.0
         ),
     ));
-    let mut t_check = check(
+    let mut t_check = temperature_check(
         "temperature",
         "Core temperature (mean surface)",
         t_op,
         spec.temperature_max,
-        "°C",
+        spec.ambient,
         Some(loss_corner),
         format!(
             "rise {:.1} K over {:.0} °C ambient",
@@ -100,12 +100,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
             "flat top only: add the leakage spike".into(),
         ));
     }
-    checks.push(check(
+    checks.push(temperature_check(
         "curie",
         "Temperature below Curie",
         t_op,
         material.curie_c - 20.0,
-        "°C",
+        spec.ambient,
         None,
         "20 K below the Curie temperature".into(),
     ));
@@ -213,6 +213,26 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
         corner,
         note,
     )
+}
+
+/// A check on a temperature, whose margin is the share of the allowed rise
+/// left, (limit − T)/(limit − ambient): a share of a Celsius value would
+/// depend on where the scale puts its zero, while the rise is what the loss
+/// drives (rise ∝ loss in the surface-dissipation model, so a 10 % margin
+/// is about 10 % more loss). The allowed rise is taken as at least 1 K.
+/// (Common practice, no source.)
+pub(super) fn temperature_check(
+    key: &str,
+    label: &str,
+    value: f64,
+    limit: f64,
+    ambient: f64,
+    corner: Option<Corner>,
+    note: String,
+) -> Check {
+    let mut k = check(key, label, value, limit, "°C", corner, note);
+    k.margin = (limit - value) / (limit - ambient).max(1.0);
+    k
 }
 
 pub(super) fn check(

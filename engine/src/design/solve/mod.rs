@@ -372,6 +372,21 @@ mod tests {
     }
 
     #[test]
+    fn temperature_margins_are_shares_of_the_allowed_rise() {
+        let d = Design::demo_forward();
+        let r = evaluate(&d).unwrap();
+        for key in ["temperature", "curie"] {
+            let k = r.checks.iter().find(|k| k.key == key).unwrap();
+            let want = (k.limit - k.value) / (k.limit - d.spec.ambient);
+            assert!((k.margin - want).abs() < 1e-12, "{key}: {} vs {want}", k.margin);
+            assert!(k.margin > 0.0 && k.margin < 1.0);
+        }
+        // Not the share of the Celsius value.
+        let t = r.checks.iter().find(|k| k.key == "temperature").unwrap();
+        assert!((t.margin - (t.limit - t.value) / t.limit).abs() > 0.05);
+    }
+
+    #[test]
     fn least_loss_is_not_worse_than_fewest_turns() {
         for d in [
             Design::demo_forward(),

@@ -22,11 +22,13 @@ pub struct Check {
     pub value: f64,
     pub limit: f64,
     pub unit: String,
-    /// (limit − value)/limit: positive passes, negative fails by that fraction.
+    /// (limit − value)/limit: positive passes, negative fails by that
+    /// fraction. For a temperature (unit °C) the share of the allowed rise
+    /// left, (limit − T)/(limit − ambient).
     pub margin: f64,
     pub pass: bool,
     /// Tight: failing, the tightest passing check, or passing with under
-    /// 10 % margin (margin in K for temperatures, see `margin`).
+    /// 10 % margin (for a temperature, 10 % of the allowed rise; see `margin`).
     pub tight: bool,
     /// Line corner the value belongs to, where it depends on the line.
     pub corner: Option<Corner>,
