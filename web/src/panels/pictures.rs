@@ -18,11 +18,21 @@
 //!    axis, the least-loss point marked, the failing ranges shaded by
 //!    reason (and listed below the picture).
 //!
+//!    Beside it, the same transformer as wound (turns, conductors and
+//!    stack-up fixed: `design::sweep::as_wound`) and, on request, the best
+//!    library material at each frequency (`design::sweep::envelope`, the
+//!    material named where it changes); the material's fitted range and
+//!    the band the engine's data-range rule still accepts shaded, points
+//!    outside it never shown as passing (`design::sweep::range`). The
+//!    legend's entries are also on the figure as `data-legend`.
+//!
 //! Speed: the sweep is the slow part (it redesigns at every point), so it
 //! does not run on the keystroke. The design it sweeps is copied into its
 //! own signal by a timer [`SWEEP_DELAY_MS`] after the last edit; the
-//! results and the other pictures update at once, the sweep once typing
-//! pauses (its figure is dimmed, and `data-sweep-ready="false"`, meanwhile).
+//! results and the other pictures update at once, the sweep (both curves,
+//! and the envelope when it is asked for) once typing pauses (its figure
+//! is dimmed, and `data-sweep-ready="false"`, meanwhile). The envelope is
+//! one sweep per library material, so it runs only when asked.
 //!
 //! Every number comes from the engine; this module only arranges them.
 
@@ -41,6 +51,9 @@ pub const SWEEP_POINTS: usize = 100;
 
 /// Pause after the last edit before the sweep runs, ms.
 pub const SWEEP_DELAY_MS: u64 = 150;
+
+/// Points of the best-material envelope (each a sweep per library material).
+pub const ENVELOPE_POINTS: usize = 50;
 
 /// Samples of the Bsat curve.
 const BSAT_POINTS: usize = 12;
@@ -223,6 +236,8 @@ const MAX_REASONS: usize = 4;
 fn key_of(p: &sweep::SweepPoint) -> String {
     if p.values.is_none() {
         "no design can be built".into()
+    } else if !p.in_data {
+        "outside the material's data".into()
     } else {
         match p.reason.split("; ").next().filter(|r| !r.is_empty()) {
             Some(first) => format!("fails: {first}"),
@@ -293,7 +308,55 @@ fn fail_runs(s: &sweep::Sweep, by_key: bool) -> Vec<FailRun> {
     runs
 }
 
-fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
+/// The legend's names of the three totals (also in `data-legend`).
+const LEGEND_REDESIGNED: &str = "total, redesigned at each frequency";
+const LEGEND_AS_WOUND: &str = "total, this transformer as wound";
+const LEGEND_ENVELOPE: &str = "total, best library material";
+
+/// The shades of the material's data on the frequency axis: the fitted
+/// range, and either side of it the band the engine's rule still accepts
+/// (extrapolated, warns), clipped to the sweep's span. Empty for a sweep
+/// without a band (the flux sweep).
+fn data_shades(s: &sweep::Sweep) -> Vec<Shade> {
+    let (Some(b), Some(first), Some(last)) = (s.band, s.points.first(), s.points.last()) else {
+        return Vec::new();
+    };
+    let clip = |from: f64, to: f64| (from.max(first.x), to.min(last.x));
+    let fitted = format!(
+        "{} data: {} to {}",
+        s.material,
+        notation::format(b.fitted_min, "Hz", 3),
+        notation::format(b.fitted_max, "Hz", 3)
+    );
+    let margin = format!("extrapolated, within ×{} of the data (warns)", b.band);
+    [
+        (b.fitted_min, b.fitted_max, fitted, plot::TEAL),
+        (b.min, b.fitted_min, margin.clone(), plot::OLIVE),
+        (b.fitted_max, b.max, margin, plot::OLIVE),
+    ]
+    .into_iter()
+    .map(|(from, to, label, color)| {
+        let (from, to) = clip(from, to);
+        Shade { from, to, label, color }
+    })
+    .filter(|sh| sh.to > sh.from)
+    .collect()
+}
+
+/// The legend's entries of a chart, in order (series, then markers and
+/// shades, each name once), joined by " | ": `data-legend`.
+fn legend_of(c: &LineChart) -> String {
+    let mut v: Vec<&str> = Vec::new();
+    let names = c.series.iter().filter(|s| !s.unlisted).map(|s| s.label.as_str());
+    for n in names.chain(c.markers.iter().map(|m| m.label.as_str())).chain(c.shades.iter().map(|s| s.label.as_str())) {
+        if !v.contains(&n) {
+            v.push(n);
+        }
+    }
+    v.join(" | ")
+}
+
+fn sweep_chart(s: &sweep::Sweep, wound: Option<&sweep::Sweep>, env: Option<&sweep::Envelope>, r: &Report) -> LineChart {
     // Feasible points only, with a gap (NaN) where a design fails.
     let line = |f: fn(&sweep::PointValues) -> f64| -> Vec<(f64, f64)> {
         s.points
@@ -309,7 +372,10 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
         .collect();
     let runs = fail_runs(s, true);
     let mut keys: Vec<String> = Vec::new();
-    let shades = runs
+    // The material's data first, under the failing ranges.
+    let shades = data_shades(s)
+        .into_iter()
+        .chain(runs
         .iter()
         .map(|run| {
             let k = match keys.iter().position(|k| k == &run.key) {
@@ -325,7 +391,7 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
                 label: run.key.clone(),
                 color: plot::BANDS[k % plot::BANDS.len()],
             }
-        })
+        }))
         .collect();
     let mut markers = vec![Marker {
         x: r.frequency,
@@ -352,7 +418,7 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
         });
     }
     let mut series = vec![
-        Series::new("total", line(|v| v.total), plot::GREEN).dots(2),
+        Series::new(LEGEND_REDESIGNED, line(|v| v.total), plot::GREEN).dots(2),
         Series::new("core", line(|v| v.core), plot::BLUE).thin().dots(2),
         Series::new("copper DC", line(|v| v.copper_dc), plot::ORANGE)
             .thin()
@@ -367,6 +433,34 @@ fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
     ];
     if !failing.is_empty() {
         series.push(Series::new("total of a failing design", failing, Rgb(150, 156, 166)).scatter(2));
+    }
+    if let Some(w) = wound {
+        let pts = w
+            .points
+            .iter()
+            .map(|p| (p.x, p.values.filter(|_| p.feasible).map_or(f64::NAN, |v| v.total)))
+            .collect();
+        series.push(Series::new(LEGEND_AS_WOUND, pts, plot::BROWN));
+    }
+    if let Some(e) = env {
+        let pts = e
+            .points
+            .iter()
+            .map(|p| (p.x, p.values.filter(|_| p.feasible).map_or(f64::NAN, |v| v.total)))
+            .collect();
+        series.push(Series::new(LEGEND_ENVELOPE, pts, plot::MAGENTA).dots(2));
+        let first = e.points.iter().position(|p| p.feasible);
+        for i in first.into_iter().chain(e.changes.iter().copied()) {
+            if let Some((p, v)) = e.points.get(i).and_then(|p| p.values.map(|v| (p, v))) {
+                markers.push(Marker {
+                    x: p.x,
+                    y: v.total,
+                    side: Side::Left,
+                    label: p.material.clone().unwrap_or_default(),
+                    color: plot::MAGENTA,
+                });
+            }
+        }
     }
     LineChart {
         x: Axis::new("Switching frequency", "Hz").log(),
@@ -403,20 +497,36 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         .ok();
         timer.set_value(handle);
     });
-    // The sweep and how long it took, ms (shown as `data-sweep-ms`).
+    // Both curves and how long they took, ms (shown as `data-sweep-ms`).
     let timed = Memo::new(move |_| {
         swept.with(|d| {
             d.as_ref().and_then(|d| {
                 let (lo, hi) = sweep_range(d.spec.frequency);
                 let t0 = js_sys::Date::now();
                 let s = sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()?;
-                Some((s, js_sys::Date::now() - t0))
+                let w = sweep::as_wound(d, lo, hi, SWEEP_POINTS).ok();
+                Some((s, w, js_sys::Date::now() - t0))
             })
         })
     });
     let sweep = Memo::new(move |_| timed.with(|t| t.as_ref().map(|t| t.0.clone())));
-    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.1));
+    let wound = Memo::new(move |_| timed.with(|t| t.as_ref().and_then(|t| t.1.clone())));
+    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.2));
     let ready = move || swept.with(|s| design.with(|d| s == d));
+    // The best material at each frequency: every library material is a
+    // sweep of its own, so it runs when asked for, not on every keystroke.
+    let env_on = RwSignal::new(false);
+    let envelope = Memo::new(move |_| {
+        if !env_on.get() {
+            return None;
+        }
+        swept.with(|d| {
+            d.as_ref().and_then(|d| {
+                let (lo, hi) = sweep_range(d.spec.frequency);
+                sweep::envelope(d, lo, hi, ENVELOPE_POINTS, false).ok()
+            })
+        })
+    });
 
     let mmf = Memo::new(move |_| {
         let c = corner.get();
@@ -450,14 +560,58 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
             })
         })
     };
-    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
+    // The sweep's chart: drawn, and its legend shown as `data-legend`.
+    let chart = Memo::new(move |_| {
         sweep.with(|s| {
-            outcome.with(|o| match (o, s) {
-                (Ok(r), Some(s)) => plot::line_chart(c, &sweep_chart(s, r)),
-                _ => Ok(()),
+            wound.with(|w| {
+                envelope.with(|e| {
+                    outcome.with(|o| match (o, s) {
+                        (Ok(r), Some(s)) => Some(sweep_chart(s, w.as_ref(), e.as_ref(), r)),
+                        _ => None,
+                    })
+                })
+            })
+        })
+    });
+    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
+        chart.with(|ch| match ch {
+            Some(ch) => plot::line_chart(c, ch),
+            None => Ok(()),
+        })
+    };
+    let legend = move || chart.with(|c| c.as_ref().map(legend_of));
+    let band_of = move |f: fn(&sweep::Band) -> f64| move || sweep.with(|s| s.as_ref().and_then(|s| s.band.as_ref().map(f)));
+    let env_changes = move || {
+        envelope.with(|e| e.as_ref().map(|e| e.changes.iter().map(|&i| e.points[i].x.to_string()).collect::<Vec<_>>().join(" ")))
+    };
+    let save_env_csv = move |_| {
+        if let Some(e) = envelope.get_untracked() {
+            if let Err(e) = crate::browser::download("magwright-best-material.csv", "text/csv", &sweep::envelope_csv(&e)) {
+                leptos::logging::warn!("envelope CSV: {e}");
+            }
+        }
+    };
+    let save_wound_csv = move |_| {
+        if let Some(w) = wound.get_untracked() {
+            if let Err(e) = crate::browser::download("magwright-as-wound.csv", "text/csv", &sweep::to_csv(&w, "frequency_Hz")) {
+                leptos::logging::warn!("as-wound CSV: {e}");
+            }
+        }
+    };
+    let env_materials = move || {
+        envelope.with(|e| {
+            e.as_ref().map(|e| {
+                let mut v: Vec<String> = Vec::new();
+                for m in e.points.iter().filter_map(|p| p.material.clone()) {
+                    if !v.contains(&m) {
+                        v.push(m);
+                    }
+                }
+                v.join(", ")
             })
         })
     };
+    let wound_min = move || wound.with(|w| w.as_ref().and_then(|w| w.minimum.and_then(|i| w.points.get(i)).map(|p| p.x)));
 
     let hidden = move || outcome.with(|o| o.is_err());
     let save_csv = move |_| {
@@ -578,12 +732,23 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         </figure>
         <figure class="plot" class:hidden=hidden class:stale=move || !ready() data-testid="sweep-figure"
             data-sweep-ready=move || if ready() { "true" } else { "false" }
-            data-min-hz=sweep_min data-sweep-ms=sweep_ms data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
+            data-min-hz=sweep_min data-wound-min-hz=wound_min data-sweep-ms=sweep_ms
+            data-band-min-hz=band_of(|b| b.min) data-band-max-hz=band_of(|b| b.max)
+            data-legend=legend data-envelope-changes-hz=env_changes data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
             title=fails_text>
             <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=360 draw=draw_sweep />
             <figcaption>
                 {format!("The design redone at each of {SWEEP_POINTS} frequencies, a decade either side of this one: turns, gap, wire and temperature each time, so the curves step where an integer turn count or a wire size changes. Dots are the designs computed; lines only join passing ones. ")}
+                "The brown line is this transformer as wound (turns, wire and stack-up fixed) at other frequencies: what a bench measurement would show. The teal band is the material's fitted loss data, the olive bands either side the ×1.25 the data-range check still accepts (with a warning); points beyond are never counted as passing. The best material at each frequency redesigns with every library material (magenta, each material named where it takes over). "
                 <button type="button" class="small" data-testid="sweep-csv" on:click=save_csv>"Download as CSV"</button>
+                " "
+                <button type="button" class="small" data-testid="wound-csv" on:click=save_wound_csv>"As wound, as CSV"</button>
+                " "
+                <button type="button" class="small" data-testid="envelope-toggle" aria-pressed=move || if env_on.get() { "true" } else { "false" }
+                    on:click=move |_| env_on.update(|on| *on = !*on)>{move || if env_on.get() { "Hide the best material" } else { "Best material at each frequency" }}</button>
+                " "
+                <button type="button" class="small" data-testid="envelope-csv" class:hidden=move || envelope.with(|e| e.is_none()) on:click=save_env_csv>"Best material, as CSV"</button>
+                <span data-testid="envelope-materials" data-materials=env_materials>{move || env_materials().map(|m| format!(" Best material by frequency: {m}.")).unwrap_or_default()}</span>
                 <ul class="sweep-fails" data-testid="sweep-fails">
                     {move || fails().into_iter().map(|f| view! {
                         <li data-from-hz=f.from data-to-hz=f.to>
@@ -615,6 +780,7 @@ mod tests {
         SweepPoint {
             x,
             feasible: ok,
+            in_data: values,
             values: values.then_some(v),
             reason: reason.into(),
         }
@@ -623,6 +789,10 @@ mod tests {
     #[test]
     fn failing_runs_group_by_reason_with_edges_between_points() {
         let s = Sweep {
+            curve: sweep::Curve::Redesigned,
+            x_axis: sweep::FREQUENCY_AXIS,
+            material: "m".into(),
+            band: None,
             points: vec![
                 pt(1e3, false, "window too small", false),
                 pt(4e3, false, "other words", false),
@@ -647,8 +817,13 @@ mod tests {
         );
         assert_eq!(reasons_of(&cut), vec!["the windings do not fit this core's window"]);
         cut.values = s.points[2].values;
+        cut.in_data = true;
         cut.reason = "Duty; Core temperature (mean surface)".into();
         assert_eq!(key_of(&cut), "fails: Duty");
+        // Outside the material's data is its own band.
+        cut.in_data = false;
+        assert_eq!(key_of(&cut), "outside the material's data");
+        cut.in_data = true;
         assert_eq!(runs[1].key, "fails: Core temperature (mean surface)");
         assert_eq!((runs[1].from, runs[1].to), (32e3, 256e3));
         // Listed: one range per stretch of failing points, reasons each once.
@@ -659,6 +834,46 @@ mod tests {
         assert_eq!(list[1].detail, "Core temperature (mean surface); Duty");
         let bands = fail_runs(&s2, true);
         assert_eq!(bands.len(), 3);
+    }
+
+    #[test]
+    fn data_band_shades_and_legend() {
+        // The fitted range and the rule's margins, clipped to the sweep.
+        let band = sweep::Band { min: 16e3, max: 375e3, fitted_min: 20e3, fitted_max: 300e3, band: 1.25 };
+        let s = Sweep {
+            curve: sweep::Curve::Redesigned,
+            x_axis: sweep::FREQUENCY_AXIS,
+            material: "m".into(),
+            band: Some(band),
+            points: vec![pt(18e3, true, "", true), pt(1e6, false, "x", true)],
+            minimum: None,
+            ratio_at_minimum: None,
+            two_over_beta: 1.0,
+        };
+        let sh = data_shades(&s);
+        assert_eq!(sh.len(), 3);
+        assert_eq!((sh[0].from, sh[0].to), (20e3, 300e3));
+        assert_eq!((sh[1].from, sh[1].to), (18e3, 20e3));
+        assert_eq!((sh[2].from, sh[2].to), (300e3, 375e3));
+        assert_eq!(sh[1].label, sh[2].label);
+        let mut none = s.clone();
+        none.band = None;
+        assert!(data_shades(&none).is_empty());
+        let chart = LineChart {
+            x: Axis::new("f", "Hz"),
+            y: Axis::new("P", "W"),
+            y2: None,
+            series: vec![
+                Series::new(LEGEND_REDESIGNED, vec![], plot::GREEN),
+                Series::new("hidden", vec![], plot::GREEN).unlisted(),
+                Series::new(LEGEND_AS_WOUND, vec![], plot::BROWN),
+            ],
+            markers: vec![],
+            shades: sh,
+        };
+        let l = legend_of(&chart);
+        assert!(l.starts_with("total, redesigned at each frequency | total, this transformer as wound | m data"), "{l}");
+        assert!(!l.contains("hidden") && l.matches("extrapolated").count() == 1, "{l}");
     }
 
     #[test]
