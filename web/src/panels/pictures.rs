@@ -313,6 +313,11 @@ const LEGEND_REDESIGNED: &str = "total, redesigned at each frequency";
 const LEGEND_AS_WOUND: &str = "total, this transformer as wound";
 const LEGEND_ENVELOPE: &str = "total, best library material";
 
+/// Colours of the envelope's materials, in order of first appearance
+/// (apart from the curves' own: green, blue, orange, purple, red, brown).
+const ENVELOPE_COLOURS: [Rgb; 6] =
+    [plot::MAGENTA, plot::TEAL, plot::OLIVE, Rgb(0, 150, 210), Rgb(230, 120, 170), Rgb(60, 60, 60)];
+
 /// The shades of the material's data on the frequency axis: the fitted
 /// range, and either side of it the band the engine's rule still accepts
 /// (extrapolated, warns), clipped to the sweep's span. Empty for a sweep
@@ -443,23 +448,38 @@ fn sweep_chart(s: &sweep::Sweep, wound: Option<&sweep::Sweep>, env: Option<&swee
         series.push(Series::new(LEGEND_AS_WOUND, pts, plot::BROWN));
     }
     if let Some(e) = env {
+        // One thin line through the envelope, then each material's stretch
+        // in its own colour (named in the legend), and a ring where the
+        // winner changes.
         let pts = e
             .points
             .iter()
             .map(|p| (p.x, p.values.filter(|_| p.feasible).map_or(f64::NAN, |v| v.total)))
             .collect();
-        series.push(Series::new(LEGEND_ENVELOPE, pts, plot::MAGENTA).dots(2));
-        let first = e.points.iter().position(|p| p.feasible);
-        for i in first.into_iter().chain(e.changes.iter().copied()) {
-            if let Some((p, v)) = e.points.get(i).and_then(|p| p.values.map(|v| (p, v))) {
-                markers.push(Marker {
-                    x: p.x,
-                    y: v.total,
-                    side: Side::Left,
-                    label: p.material.clone().unwrap_or_default(),
-                    color: plot::MAGENTA,
-                });
+        series.push(Series::new(LEGEND_ENVELOPE, pts, plot::MAGENTA).thin());
+        let mut named: Vec<&str> = Vec::new();
+        for m in e.points.iter().filter_map(|p| p.material.as_deref()) {
+            if !named.contains(&m) {
+                named.push(m);
             }
+        }
+        // Under the materials' dots: a dark ring where the winner changes.
+        let changes: Vec<(f64, f64)> =
+            e.changes.iter().filter_map(|&i| e.points.get(i)).filter_map(|p| p.values.map(|v| (p.x, v.total))).collect();
+        if !changes.is_empty() {
+            series.push(Series::new("best material changes", changes, plot::INK_RGB).scatter(5));
+        }
+        for (k, m) in named.iter().enumerate() {
+            let pts = e
+                .points
+                .iter()
+                .map(|p| match (p.material.as_deref(), p.values) {
+                    (Some(w), Some(v)) if p.feasible && w == *m => (p.x, v.total),
+                    _ => (p.x, f64::NAN),
+                })
+                .collect();
+            let c = ENVELOPE_COLOURS[k % ENVELOPE_COLOURS.len()];
+            series.push(Series::new(&format!("best: {m}"), pts, c).scatter(3));
         }
     }
     LineChart {
@@ -736,7 +756,7 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
             data-band-min-hz=band_of(|b| b.min) data-band-max-hz=band_of(|b| b.max)
             data-legend=legend data-envelope-changes-hz=env_changes data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
             title=fails_text>
-            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=360 draw=draw_sweep />
+            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=500 draw=draw_sweep />
             <figcaption>
                 {format!("The design redone at each of {SWEEP_POINTS} frequencies, a decade either side of this one: turns, gap, wire and temperature each time, so the curves step where an integer turn count or a wire size changes. Dots are the designs computed; lines only join passing ones. ")}
                 "The brown line is this transformer as wound (turns, wire and stack-up fixed) at other frequencies: what a bench measurement would show. The teal band is the material's fitted loss data, the olive bands either side the ×1.25 the data-range check still accepts (with a warning); points beyond are never counted as passing. The best material at each frequency redesigns with every library material (magenta, each material named where it takes over). "
