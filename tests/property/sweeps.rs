@@ -29,8 +29,8 @@ fn as_wound_at_the_design_frequency_is_the_design() {
 }
 
 /// The as-wound build at frequency `f`: every winding's turns and
-/// conductor (name and parallel count) as in the design at its own
-/// frequency. `Ok(false)` where nothing was compared (the design, or its
+/// conductor (name and parallel count), and a flyback's or an inductor's
+/// inductance, as in the design at its own frequency. `Ok(false)` where nothing was compared (the design, or its
 /// as-wound build at `f`, cannot be built).
 fn keeps_the_build(d: &Design, scale: f64) -> Result<bool, String> {
     let Ok(r0) = evaluate(d) else { return Ok(false) };
@@ -49,7 +49,8 @@ fn keeps_the_build(d: &Design, scale: f64) -> Result<bool, String> {
     if key(&r) != key(&r0) {
         return Err(format!("{}: wires {:?} against {:?}", d.name, key(&r), key(&r0)));
     }
-    if let Some(lp0) = (d.spec.topology == magwright_engine::topology::Topology::Flyback).then_some(r0.inductance) {
+    use magwright_engine::topology::Topology;
+    if let Some(lp0) = matches!(d.spec.topology, Topology::Flyback | Topology::Inductor).then_some(r0.inductance) {
         if (r.inductance - lp0).abs() > 1e-9 * lp0 {
             return Err(format!("{}: Lp {} against {lp0}", d.name, r.inductance));
         }
@@ -61,7 +62,7 @@ fn keeps_the_build(d: &Design, scale: f64) -> Result<bool, String> {
 fn as_wound_keeps_the_demos_build() {
     // The property below, where it is known to compare: each demo at 0.6
     // and 1.6 times its frequency is built, and built the same.
-    for d in demos() {
+    for d in demos().into_iter().chain([Design::demo_inductor()]) {
         for scale in [0.6, 1.6] {
             assert_eq!(keeps_the_build(&d, scale), Ok(true), "{} ×{scale}", d.name);
         }

@@ -13,7 +13,8 @@
 //! stack-up builder lays the same sections again; a flyback's Lp is
 //! Vin²·D²/(r·f·Pin) (`topology::sizing::flyback_lp_from_ripple`), so the
 //! ripple ratio r is scaled by f₀/f to keep Lp, and with it the gap, as
-//! wound (the ripple itself then changes with f, as on the bench).
+//! wound (the ripple itself then changes with f, as on the bench). An
+//! inductor (buck or boost) is given its wound inductance outright.
 
 use super::{landmarks, log_space, point, Curve, Sweep, SweepPoint};
 use crate::design::file::{Design, TurnsRule, WireChoice, WireOverride};
@@ -62,11 +63,19 @@ fn fixed_wires(st: &StackUp) -> Result<Vec<WireOverride>> {
 }
 
 /// The design file that builds `report`'s transformer again: its primary
-/// turns and every conductor fixed (the rest of the file as given).
+/// turns and every conductor fixed, an inductor's inductance given (the
+/// rest of the file as given).
 pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
     let mut d = design.clone();
     d.choices.turns = TurnsRule::Primary { turns: report.turns.primary };
     d.choices.wires = fixed_wires(&report.stackup)?;
+    if design.spec.topology == Topology::Inductor {
+        // The inductor as wound keeps its inductance (so its gap), not its
+        // ripple ratio: L is given, the ripple then follows f.
+        let mut o = crate::topology::inductor::options(&d.spec);
+        o.inductance = Some(report.inductance);
+        d.spec.inductor = Some(o);
+    }
     Ok(d)
 }
 
