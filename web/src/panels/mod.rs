@@ -9,7 +9,8 @@
 //! * [`material_curves`]: the material's Pv–B chart (log axes).
 //! * [`results`]: the deciding figures with pass/fail and margins, cautions.
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
-//!   frequency sweep.
+//!   frequency sweep; its chart (both curves, the envelope, the data band)
+//!   in `sweep_chart`.
 //! * [`windings`]: the stack-up table and editor, the window to scale, the MMF.
 //! * [`optimiser`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
@@ -20,6 +21,7 @@ pub mod pictures;
 pub mod results;
 pub mod sheet;
 pub mod optimiser;
+mod sweep_chart;
 pub mod windings;
 
 use leptos::prelude::*;
