@@ -10,13 +10,26 @@ usage: magwright COMMAND [ARGUMENTS]
 
 commands:
   evaluate FILE|-                   evaluate a design file; prints the report (JSON)
-  sweep FILE|- [FROM TO POINTS] [--csv]
+  sweep FILE|- [FROM TO POINTS] [--as-wound] [--envelope] [--every-core] [--csv]
                                     loss against switching frequency, FROM to TO Hz in POINTS
                                     log-spaced steps (default 20k 1M 200); values take SI
-                                    prefixes (200k, 1M); --csv prints CSV instead of JSON
+                                    prefixes (200k, 1M). The design redesigned at each
+                                    frequency (turns, gap, wire, stack-up redone). Points where
+                                    the material's loss data do not hold are marked
+                                    \"in_data\": false, never feasible, never the minimum.
+    --as-wound                      also this transformer as wound (turns, conductors and
+                                    stack-up fixed) at each frequency: what a bench shows
+    --envelope                      also the least loss over every library material at each
+                                    frequency, the material named at each point
+    --every-core                    the envelope over every library core of the design's
+                                    family too (implies --envelope)
+    --csv                           one curve as CSV instead of JSON: the redesigned one, or
+                                    the one --as-wound or --envelope asks for
+                                    JSON: the redesigned sweep alone, or with --as-wound or
+                                    --envelope {{\"redesigned\", \"as_wound\", \"envelope\"}}
   flux-sweep FILE|- [POINTS]        loss against peak flux density at the design's frequency
                                     (default 60 points)
-  rank FILE|-                       the optimiser: every library core x material for the
+  optimise FILE|-                   the optimiser: every library core x material for the
                                     design's spec, ranked, with the Pareto front (JSON)
   stackup FILE|-                    the design's winding stack-up in its JSON schema
   demo [forward|flyback|push-pull]  print a demo design file (default forward)

@@ -2,9 +2,11 @@
 //!
 //! ```text
 //! magwright evaluate FILE|-                  evaluate a design file (JSON report)
-//! magwright sweep FILE|- [FROM TO POINTS]    loss against switching frequency (default 20k 1M 200)
+//! magwright sweep FILE|- [FROM TO POINTS] [--as-wound] [--envelope] [--every-core] [--csv]
+//!                                            loss against switching frequency (default 20k 1M 200):
+//!                                            redesigned at each point; as wound; best material
 //! magwright flux-sweep FILE|- [POINTS]       loss against peak flux density at the design's frequency
-//! magwright rank FILE|-                      rank every library core × material for the design's spec
+//! magwright optimise FILE|-                  the optimiser: every library core × material for the design's spec, ranked
 //! magwright demo [forward|flyback|push-pull|inductor] print a demo design file
 //! magwright stackup FILE|-                   the design's winding stack-up in its JSON schema
 //! magwright cores                            the core library (effective parameters, provenance)
@@ -20,15 +22,24 @@ mod help;
 
 use magwright_engine::design::{self, optimise, sweep, Design};
 use magwright_engine::{core::library as cores, json, material::library as materials, notation};
-use std::io::Read;
+use std::io::{Read, Write};
 use std::process::ExitCode;
 
 fn main() -> ExitCode {
     let args: Vec<String> = std::env::args().skip(1).collect();
     match run(&args) {
         Ok(out) => {
-            println!("{out}");
-            ExitCode::SUCCESS
+            // A reader that stops early (`| head`) closes the pipe: that is
+            // not an error of ours, and must not panic as `println!` would.
+            let mut stdout = std::io::stdout().lock();
+            match writeln!(stdout, "{out}").and_then(|()| stdout.flush()) {
+                Ok(()) => ExitCode::SUCCESS,
+                Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+                Err(e) => {
+                    eprintln!("magwright: cannot write the output: {e}");
+                    ExitCode::from(1)
+                }
+            }
         }
         Err(msg) => {
             eprintln!("magwright: {msg}");
@@ -37,7 +48,7 @@ fn main() -> ExitCode {
     }
 }
 
-const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|rank|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials  |  help";
+const USAGE: &str = "usage: magwright evaluate|sweep|flux-sweep|optimise|stackup FILE|-  |  demo [forward|flyback|push-pull|inductor]  |  cores  |  materials  |  help";
 
 /// Largest input read, bytes (the engine's limit, 16 MB): more than any
 /// design file (a few kB), little enough that `magwright evaluate /dev/zero`
@@ -48,8 +59,8 @@ const MAX_INPUT: u64 = json::MAX_LEN as u64;
 /// and the flags it knows. Anything else is refused.
 fn arity(cmd: &str) -> Option<(usize, usize, &'static [&'static str])> {
     Some(match cmd {
-        "evaluate" | "rank" | "stackup" => (1, 1, &[]),
-        "sweep" => (1, 4, &["--csv"]),
+        "evaluate" | "optimise" | "stackup" => (1, 1, &[]),
+        "sweep" => (1, 4, SWEEP_FLAGS),
         "flux-sweep" => (1, 2, &[]),
         "demo" => (0, 1, &[]),
         "cores" | "materials" | "-h" | "--help" | "help" => (0, 0, &[]),
@@ -102,21 +113,13 @@ fn run(args: &[String]) -> Result<String, String> {
     };
     match cmd {
         "evaluate" => Ok(json::to_string_pretty(&design::evaluate(&file()?).map_err(|e| e.to_string())?)),
-        "sweep" => {
-            let d = file()?;
-            let csv = args.iter().any(|a| a == "--csv");
-            let rest: Vec<&String> = args.iter().skip(2).filter(|a| *a != "--csv").collect();
-            let get = |i: usize, def: f64| rest.get(i).map_or(Ok(def), |s| notation::parse(s, "Hz").map_err(|e| e.to_string()));
-            let points = rest.get(2).map_or(Ok(200), |s| count_arg(s, "POINTS"))?;
-            let s = sweep::frequency(&d, get(0, 20e3)?, get(1, 1e6)?, points).map_err(|e| e.to_string())?;
-            Ok(if csv { sweep::to_csv(&s, "frequency_Hz") } else { json::to_string_pretty(&s) })
-        }
+        "sweep" => sweep_command(&file()?, &args[2..]),
         "flux-sweep" => {
             let d = file()?;
             let n = args.get(2).map_or(Ok(60), |s| count_arg(s, "POINTS"))?;
             Ok(json::to_string_pretty(&sweep::flux(&d, n).map_err(|e| e.to_string())?))
         }
-        "rank" => {
+        "optimise" => {
             let d = file()?;
             let r = optimise::optimise(&d, cores::cores(), materials::materials(), &[]).map_err(|e| e.to_string())?;
             Ok(json::to_string_pretty(&r))
@@ -132,8 +135,59 @@ fn run(args: &[String]) -> Result<String, String> {
         "cores" => Ok(json::to_string_pretty(&cores::cores())),
         "materials" => Ok(json::to_string_pretty(&materials::materials())),
         "-h" | "--help" | "help" => Ok(help::help()),
+        // The optimiser's one name is "optimise" (it was "rank").
+        "rank" => Err(format!("the optimiser's command is \"optimise\" (it was \"rank\"); {USAGE}")),
         other => Err(format!("unknown command \"{other}\"; {USAGE}")),
     }
+}
+
+/// The sweep's flags (each also in `arity` and in the help text).
+const SWEEP_FLAGS: &[&str] = &["--csv", "--as-wound", "--envelope", "--every-core"];
+
+/// `magwright sweep FILE [FROM TO POINTS] [--as-wound] [--envelope]
+/// [--every-core] [--csv]`: the redesigned sweep alone (its JSON as
+/// before), or with `--as-wound` / `--envelope` an object of the curves
+/// asked for; `--csv` writes one curve. The arguments were checked by
+/// [`check_args`] (known flags, no or all three of FROM TO POINTS).
+fn sweep_command(d: &Design, args: &[String]) -> Result<String, String> {
+    let flag = |f: &str| args.iter().any(|a| a == f);
+    let (csv, wound, every) = (flag("--csv"), flag("--as-wound"), flag("--every-core"));
+    let env = flag("--envelope") || every;
+    let rest: Vec<&String> = args.iter().filter(|a| !SWEEP_FLAGS.contains(&a.as_str())).collect();
+    let get = |i: usize, def: f64, what: &str| {
+        rest.get(i).map_or(Ok(def), |s| notation::parse(s, "Hz").map_err(|e| format!("{what}: {e}")))
+    };
+    let (lo, hi) = (get(0, 20e3, "FROM")?, get(1, 1e6, "TO")?);
+    let n = rest.get(2).map_or(Ok(200), |s| count_arg(s, "POINTS"))?;
+    let e = |e: magwright_engine::error::Error| e.to_string();
+    if csv {
+        return match (wound, env) {
+            (true, true) => Err("sweep --csv writes one curve: give --as-wound or --envelope, not both".into()),
+            (true, false) => Ok(sweep::to_csv(&sweep::as_wound(d, lo, hi, n).map_err(e)?, "frequency_Hz")),
+            (false, true) => Ok(sweep::envelope_csv(&sweep::envelope(d, lo, hi, n, every).map_err(e)?)),
+            (false, false) => Ok(sweep::to_csv(&sweep::frequency(d, lo, hi, n).map_err(e)?, "frequency_Hz")),
+        };
+    }
+    let redesigned = sweep::frequency(d, lo, hi, n).map_err(e)?;
+    if !wound && !env {
+        return Ok(json::to_string_pretty(&redesigned));
+    }
+    let study = Study {
+        redesigned,
+        as_wound: if wound { Some(sweep::as_wound(d, lo, hi, n).map_err(e)?) } else { None },
+        envelope: if env { Some(sweep::envelope(d, lo, hi, n, every).map_err(e)?) } else { None },
+    };
+    Ok(json::to_string_pretty(&study))
+}
+
+/// The sweep command's JSON when a curve beyond the redesigned one is asked for.
+#[derive(serde::Serialize)]
+struct Study {
+    redesigned: sweep::Sweep,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    as_wound: Option<sweep::Sweep>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    envelope: Option<sweep::Envelope>,
 }
 
 /// The text of a file (or stdin for "-"), at most [`MAX_INPUT`] bytes.

@@ -60,11 +60,11 @@ fn sweep_flux_sweep_rank_stackup_on_examples() {
     assert_eq!(text.trim().lines().count(), 5);
     let fl = ok_json(&run(&["flux-sweep", f, "6"]));
     assert!(fl["two_over_beta"].as_f64().is_some());
-    let r = ok_json(&run(&["rank", f]));
+    let r = ok_json(&run(&["optimise", f]));
     assert!(r["evaluated"].as_u64().unwrap() > 10);
     for p in examples() {
         let st = ok_json(&run(&["stackup", p.to_str().unwrap()]));
-        assert_eq!(st["schema"], "magwright.stackup/1");
+        assert_eq!(st["schema"], "magwright.stackup/2");
     }
 }
 
@@ -109,10 +109,10 @@ fn bad_input_exits_2_with_a_message() {
     assert!(e.contains("empty"), "{e}");
     bad(&run(&["evaluate", &write("notjson.json", "{ nope")]));
     let example = std::fs::read_to_string(&forward_example()).unwrap();
-    let e = bad(&run(&["evaluate", &write("v3.json", &example.replace("\"version\": 2", "\"version\": 3"))]));
+    let e = bad(&run(&["evaluate", &write("v4.json", &example.replace("\"version\": 3", "\"version\": 4"))]));
     assert!(e.contains("version"), "{e}");
     // A version-1 file opens, converted, with a note on stderr (design::upgrade).
-    let old = run(&["evaluate", &write("v1.json", &example.replace("\"version\": 2", "\"version\": 1"))]);
+    let old = run(&["evaluate", &write("v1.json", &example.replace("\"version\": 3", "\"version\": 1"))]);
     let v = ok_json(&old);
     assert!(v["losses"]["total"].as_f64().is_some_and(|x| x > 0.0));
     assert!(String::from_utf8_lossy(&old.stderr).contains("note:"), "stderr: {}", String::from_utf8_lossy(&old.stderr));
@@ -131,9 +131,40 @@ fn help_lists_every_command_and_option_and_the_standing_caution() {
     assert!(out.status.success());
     let text = String::from_utf8_lossy(&out.stdout);
     for word in [
-        "evaluate", "sweep", "FROM TO POINTS", "--csv", "flux-sweep", "rank", "stackup", "demo", "cores", "materials",
+        "evaluate", "sweep", "FROM TO POINTS", "--csv", "flux-sweep", "optimise", "stackup", "demo", "cores", "materials",
         "IEC 62368-1", "IEC 61558", "does not certify", "McLyman",
     ] {
         assert!(text.contains(word), "help lacks {word}: {text}");
     }
+}
+
+/// A reader that closes the pipe early (`magwright sweep f | head -1`) ends
+/// the run quietly: no panic message, a normal exit. The 1000-point sweep's
+/// JSON is far larger than a pipe's buffer (64 KiB on Linux), so the write
+/// meets the closed pipe.
+#[test]
+fn a_closed_pipe_is_not_a_panic() {
+    use std::io::Read;
+    let f = forward_example();
+    let mut child = bin()
+        .args(["sweep", f.to_str().unwrap(), "20k", "1M", "1000"])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("spawn");
+    let mut first = [0u8; 16];
+    child.stdout.take().expect("stdout").read_exact(&mut first).expect("some output");
+    // The read end is dropped here, before the rest of the library is written.
+    let out = child.wait_with_output().expect("wait");
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(!err.contains("panicked"), "stderr: {err}");
+    assert!(out.status.success(), "exit {:?}, stderr: {err}", out.status);
+}
+
+/// The optimiser has one name: `optimise`; the old `rank` says so.
+#[test]
+fn the_optimiser_is_called_optimise() {
+    let f = forward_example();
+    let err = bad(&run(&["rank", f.to_str().unwrap()]));
+    assert!(err.contains("\"optimise\""), "{err}");
 }

@@ -72,7 +72,7 @@ fn extra_or_malformed_arguments_are_refused() {
     let cases: Vec<Vec<&str>> = vec![
         vec!["evaluate", &f, "extra"],
         vec!["evaluate", &f, "--verbose"],
-        vec!["rank", &f, &f],
+        vec!["optimise", &f, &f],
         vec!["stackup", &f, "x"],
         vec!["cores", "x"],
         vec!["materials", "--all"],

@@ -95,7 +95,7 @@ test('each topology: its example opens to a passing design and its stack-up expo
     const [dl] = await Promise.all([page.waitForEvent('download'), page.click('[data-testid="export-stackup"]')]);
     const exported = readFileSync(await dl.path(), 'utf8');
     assert.equal(exported, cliText(['stackup', join(EXAMPLES, name)]).replace(/\n$/, ''), `${name}: exported stack-up`);
-    assert.equal(JSON.parse(exported).schema, 'magwright.stackup/1');
+    assert.equal(JSON.parse(exported).schema, 'magwright.stackup/2');
     await page.screenshot({ path: join(OUT, `design-${name.replace('.json', '')}.png`), fullPage: true });
   }
   assert.deepEqual(requests, []);

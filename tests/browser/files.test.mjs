@@ -52,7 +52,7 @@ test('save then open gives the same design', async () => {
   const saved = await saveWithKeyboard(page);
   const file = JSON.parse(saved);
   assert.equal(file.schema, 'magwright-design');
-  assert.equal(file.version, 2);
+  assert.equal(file.version, 3);
   assert.equal(file.spec.frequency, 150e3);
   assert.equal(file.spec.outputs[0].voltage, 15);
   assert.equal(file.core.designation, 'ETD 39');

@@ -38,13 +38,13 @@ test('a reload keeps the last good design, not an invalid entry', async () => {
 test('a share link restores the design in a fresh browser', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   await typeInto(page, 'input.max', '72');
-  await typeInto(page, 'choices.b_max', '120m');
+  await typeInto(page, 'choices.bpk_limit', '120m');
   // Choose the next core with the keyboard.
   await page.focus('#f-core');
   await page.keyboard.press('ArrowDown');
   await page.waitForFunction(() => {
     const d = JSON.parse(localStorage.getItem('magwright.design') || '{}');
-    return d?.choices?.b_max === 0.12 && d?.core?.designation === 'ETD 39';
+    return d?.choices?.bpk_limit === 0.12 && d?.core?.designation === 'ETD 39';
   });
   const state = await formState(page);
   await page.focus('[data-testid="copy-link"]');

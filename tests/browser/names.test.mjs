@@ -109,13 +109,13 @@ test('a version-1 design file opens converted, with a note', async () => {
   await chooseWithKeyboard(page, 'open', { name: 'old.json', mimeType: 'application/json', buffer: Buffer.from(text) });
   await page.waitForFunction(() => /Opened old\.json/.test(document.querySelector('[data-testid="file-status"]')?.textContent || ''));
   const status = await page.textContent('[data-testid="file-status"]');
-  assert.match(status, /version 1.*converted to version 2/);
+  assert.match(status, /version 1.*converted to version 3/);
   assert.match(status, /least loss at 100/);
   assert.match(status, /hot_spot_max is now spec\.temperature_max/);
-  // The saved design is version 2 in the new form, with the scale folded into k.
+  // The saved design is version 3 in the new form, with the scale folded into k.
   await page.waitForFunction(() => JSON.parse(localStorage.getItem('magwright.design') || '{}').material?.material?.name === 'Old grade');
   const saved = JSON.parse(await page.evaluate(() => localStorage.getItem('magwright.design')));
-  assert.equal(saved.version, 2);
+  assert.equal(saved.version, 3);
   assert.equal(saved.spec.temperature_max, d.spec.hot_spot_max);
   assert.equal(saved.spec.hot_spot_max, undefined);
   const tf = saved.material.material.temp_factor;
@@ -143,7 +143,7 @@ test('labels say what is computed: core temperature, margins in K, tight, Bsat a
   assert.equal((await page.textContent('[data-testid="margin-temperature"]')).trim(), `+${(t.limit - t.value).toFixed(1)} K`);
   assert.match(await page.locator('[data-testid="check-saturation"] th').textContent(), /Bsat at core temp\./);
   // A check under 10 % margin (duty of the demo) is tagged "tight".
-  const tight = want.checks.filter((c) => c.pass && c.binding).map((c) => c.key);
+  const tight = want.checks.filter((c) => c.pass && c.tight).map((c) => c.key);
   assert.ok(tight.length > 0);
   for (const k of tight) assert.match(await page.locator(`[data-testid="check-${k}"] th`).textContent(), /tight/);
   assert.doesNotMatch(await page.innerText('[data-testid="panel-results"]'), /binding|Hot spot/);

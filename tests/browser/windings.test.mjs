@@ -117,7 +117,7 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   const got = readFileSync(await dl.path(), 'utf8');
   const want = execFileSync(CLI, ['stackup', '-'], { input: design, encoding: 'utf8' });
   assert.equal(got + '\n', want);
-  assert.match(got, /"magwright\.stackup\/1"/);
+  assert.match(got, /"magwright\.stackup\/2"/);
 
   // The per-layer losses open on demand.
   await page.click('[data-testid="layer-losses"] summary');
@@ -192,13 +192,13 @@ test('the offline flyback shows its safety cautions first and its stack-up', asy
   await context.close();
 });
 
-test('results at a glance: verdict, failing checks first and red, binding marked', async () => {
+test('results at a glance: verdict, failing checks first and red, tight marked', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const want = cli(['evaluate', '-'], execFileSync(CLI, ['demo', 'forward'], { encoding: 'utf8' }));
   assert.match(await page.textContent('[data-testid="verdict"]'), /^Passes every check — tightest: Duty/);
   for (const c of want.checks) {
     const row = `[data-testid="check-${c.key}"]`;
-    assert.equal(await page.getAttribute(row, 'data-binding'), String(c.binding), `${c.key} binding`);
+    assert.equal(await page.getAttribute(row, 'data-tight'), String(c.tight), `${c.key} tight`);
     assert.ok(close(Number(await page.getAttribute(`[data-testid="margin-${c.key}"]`, 'data-si')), c.margin, 1e-6));
   }
   assert.ok(close(Number(await page.getAttribute('[data-testid="leakage"]', 'data-si')), want.leakage, 1e-6));

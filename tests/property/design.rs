@@ -236,12 +236,12 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
     )
         .prop_map(
             |(
-                (b_max, saturation_margin, turns),
+                (bpk_limit, saturation_margin, turns),
                 (gap_placement, interleave, window_utilisation),
                 (wires, insulation),
                 (edge_time, switch_voltage_rating),
             )| magwright_engine::design::Choices {
-                b_max,
+                bpk_limit,
                 saturation_margin,
                 turns,
                 gap_placement,

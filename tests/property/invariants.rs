@@ -533,8 +533,8 @@ fn flux_within_its_limit_on_passing_designs() {
             fails.push(format!("{:?}: Bpk {b:.4} T > limit {limit:.4} T", d.spec.topology));
         }
         // Automatic turns also keep the design's own limit.
-        if b > r.b_limit * (1.0 + 1e-9) {
-            fails.push(format!("{:?}: Bpk {b:.4} T > b_limit {:.4} T", d.spec.topology, r.b_limit));
+        if b > r.bpk_limit * (1.0 + 1e-9) {
+            fails.push(format!("{:?}: Bpk {b:.4} T > bpk_limit {:.4} T", d.spec.topology, r.bpk_limit));
         }
     }
     report_all("Bpk within limit (passing)", cases, &fails);

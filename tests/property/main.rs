@@ -10,6 +10,8 @@
 //!   per property.
 //! * [`optimise`]: the optimiser against a brute force over a small library,
 //!   and its Pareto front against the definition.
+//! * [`sweeps`]: the as-wound curve keeps the design's turns and conductors;
+//!   the best-material envelope is never above any material's curve.
 //! * [`fuzz`]: a deterministic mutation loop over the files in
 //!   `tests/fuzz/corpus/` (design files and stack-ups), at `Design::from_json`
 //!   + `evaluate` and `stackup::from_json`/`import`.
@@ -30,6 +32,7 @@ mod finite;
 mod fuzz;
 mod invariants;
 mod optimise;
+mod sweeps;
 mod stackup;
 
 use magwright_engine::error::Error;

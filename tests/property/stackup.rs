@@ -49,15 +49,15 @@ fn conductor() -> BoxedStrategy<String> {
     prop_oneof![
         (num(0.05e-3, 1.5e-3), 1.0..1.3f64).prop_map(|(d, k)| {
             let od = d.parse::<f64>().map_or("1e-3".to_string(), |x| format!("{:e}", x * k));
-            format!(r#"{{"kind":"round","bare_diameter_m":{d},"overall_diameter_m":{od}}}"#)
+            format!(r#"{{"kind":"round","bare_diameter":{d},"overall_diameter":{od}}}"#)
         }),
         (num(0.1e-3, 1e-3),).prop_map(|(d,)| format!(
-            r#"{{"kind":"triple_insulated","bare_diameter_m":{d},"overall_diameter_m":{d}}}"#
+            r#"{{"kind":"triple_insulated","bare_diameter":{d},"overall_diameter":{d}}}"#
         )),
         (count(1, 400), num(0.04e-3, 0.2e-3), num(0.3, 0.9), num(0.0, 0.1e-3)).prop_map(|(n, d, p, s)| format!(
-            r#"{{"kind":"litz","strands":{n},"strand_diameter_m":{d},"strand_overall_diameter_m":{d},"packing":{p},"serving_m":{s}}}"#
+            r#"{{"kind":"litz","strands":{n},"strand_diameter":{d},"strand_overall_diameter":{d},"packing":{p},"serving":{s}}}"#
         )),
-        (num(0.02e-3, 0.5e-3), num(3e-3, 30e-3)).prop_map(|(t, w)| format!(r#"{{"kind":"foil","thickness_m":{t},"width_m":{w}}}"#)),
+        (num(0.02e-3, 0.5e-3), num(3e-3, 30e-3)).prop_map(|(t, w)| format!(r#"{{"kind":"foil","thickness":{t},"width":{w}}}"#)),
     ]
     .boxed()
 }
@@ -68,7 +68,7 @@ fn section(w: BoxedStrategy<usize>) -> BoxedStrategy<String> {
             let name = NAMES.get(w).copied().unwrap_or("ghost");
             let layers = layers.unwrap_or_else(|| "null".into());
             format!(
-                r#"{{"item":"section","winding":"{name}","turns":{turns},"parallel":{par},"conductor":{cond},"layers":{layers},"turns_per_layer":null,"direction":"cw","start_side":"left","finish_side":"right","margin_left_m":{ml},"margin_right_m":{mr},"interlayer_tape":null}}"#
+                r#"{{"item":"section","winding":"{name}","turns":{turns},"parallel":{par},"conductor":{cond},"layers":{layers},"turns_per_layer":null,"direction":"cw","start_side":"left","finish_side":"right","margin_left":{ml},"margin_right":{mr},"interlayer_tape":null}}"#
             )
         })
         .boxed()
@@ -77,10 +77,10 @@ fn section(w: BoxedStrategy<usize>) -> BoxedStrategy<String> {
 fn item() -> BoxedStrategy<String> {
     let section = section((0..5usize).boxed());
     let tape = (num(10e-6, 100e-6), count(0, 5)).prop_map(|(t, n)| {
-        format!(r#"{{"item":"tape","material":"polyester film","thickness_m":{t},"wraps":{n}}}"#)
+        format!(r#"{{"item":"tape","material":"polyester film","thickness":{t},"wraps":{n}}}"#)
     });
     let screen = num(10e-6, 100e-6)
-        .prop_map(|t| format!(r#"{{"item":"screen","material":"copper","thickness_m":{t},"connection":"primary return"}}"#));
+        .prop_map(|t| format!(r#"{{"item":"screen","material":"copper","thickness":{t},"connection":"primary return"}}"#));
     prop_oneof![6 => section, 2 => tape, 1 => screen].boxed()
 }
 
@@ -105,7 +105,7 @@ fn stackup_text() -> impl Strategy<Value = (String, usize)> {
                 .collect();
             (
                 format!(
-                    r#"{{"schema":"magwright.stackup/1","windings":[{}],"items":[{}]}}"#,
+                    r#"{{"schema":"magwright.stackup/2","windings":[{}],"items":[{}]}}"#,
                     windings.join(","),
                     items.join(",")
                 ),

@@ -213,7 +213,7 @@ fn curie_and_rising_bsat_are_refused() {
 // ------------------------------------------------------------ residual gap
 
 /// A ring is one piece: ungapped, L = μ0·μi·N²·Ae/le exactly (IEC 60205
-/// effective parameters), for a library ring and an own core of family "R";
+/// effective parameters), for a library ring and an own core of family "Ring";
 /// mated pairs keep the 10 µm residual gap. Every core's provenance says which.
 #[test]
 fn rings_have_no_residual_gap() {
@@ -233,7 +233,7 @@ fn rings_have_no_residual_gap() {
         let mut own = d.clone();
         own.core = CoreChoice::Effective {
             designation: "my ring".into(),
-            parameters: effective_of(&c, "R"),
+            parameters: effective_of(&c, "Ring"),
         };
         let o = evaluate(&own).unwrap();
         let n = o.turns.primary as f64;
@@ -241,7 +241,7 @@ fn rings_have_no_residual_gap() {
         assert!(rel(o.inductance, want) < 1e-12);
     }
     for c in cores::all() {
-        let ring = c.family == "R";
+        let ring = c.family == "Ring";
         assert_eq!(c.is_one_piece(), ring, "{}", c.designation);
         let note = if ring { "no residual gap" } else { "residual gap is assumed" };
         assert!(c.provenance.contains(note), "{}: {}", c.designation, c.provenance);

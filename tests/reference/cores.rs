@@ -293,8 +293,8 @@ fn every_library_core_is_finite_and_consistent() {
             "{}",
             c.designation
         );
-        assert!(!c.provenance.is_empty() && c.provenance.contains("memory") || c.family == "R");
-        if c.family != "R" {
+        assert!(!c.provenance.is_empty() && c.provenance.contains("memory") || c.family == "Ring");
+        if c.family != "Ring" {
             assert!(c.winding_breadth < c.window_height, "{}", c.designation);
             // Isoperimetric inequality: a turn around a leg of section A is
             // at least 2·√(π·A) long.
@@ -356,7 +356,7 @@ fn bigger_core_bigger_parameters() {
         }
     }
     assert!(pairs > 30, "only {pairs} comparable pairs");
-    for fam in ["ETD", "E", "P", "EFD"] {
+    for fam in ["ETD", "E", "Pot", "EFD"] {
         let list = library::by_family(fam).unwrap();
         for w in list.windows(2) {
             assert!(

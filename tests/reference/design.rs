@@ -190,7 +190,7 @@ fn forward_family(d: Design) {
     let lambda = v1(s) * n / s.frequency;
     // E&M ch. 15: Np = ⌈λ/(ΔB·Ae)⌉ with ΔB = Bpk (unipolar).
     let bl = b_limit(&d, &r);
-    assert!(rel(r.b_limit, bl) < 1e-12);
+    assert!(rel(r.bpk_limit, bl) < 1e-12);
     // The flux limit holds in the smallest section: A = min(Ae, Amin).
     let np = (lambda / (bl * r.core.ae.min(r.core.amin))).ceil() as u32;
     assert_eq!(r.turns.primary, np, "{}", d.name);

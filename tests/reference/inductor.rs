@@ -35,9 +35,9 @@ fn buck_inductor_follows_the_kg_procedure_equations() {
     // E&M §14.1: n = L·Imax/(Bmax·Ac), the fewest whole turns (Ac the
     // smallest section where it is narrower than Ae).
     let ac = r.core.ae.min(r.core.amin);
-    let n = (l * imax / (r.b_limit * ac)).ceil() as u32;
+    let n = (l * imax / (r.bpk_limit * ac)).ceil() as u32;
     assert_eq!(r.turns.primary, n);
-    assert!(l * imax / ((n - 1) as f64 * ac) > r.b_limit, "one turn fewer would exceed Bmax");
+    assert!(l * imax / ((n - 1) as f64 * ac) > r.bpk_limit, "one turn fewer would exceed Bmax");
     // Bpk = L·Imax/(n·Ae) (Faraday, E&M §14.1), worst at Vin max.
     let bpk = r.waveforms.get("b_peak").unwrap();
     assert!(rel(bpk.value, l * imax / (n as f64 * r.core.ae)) < 1e-9);
@@ -57,7 +57,7 @@ fn buck_inductor_follows_the_kg_procedure_equations() {
     // (IEC 60028 copper).
     let w = &r.operating.copper.windings[0];
     let aw = r.wires[0].copper_area;
-    let mlt: f64 = r.fit.layers.iter().map(|x| x.mlt * x.turns as f64).sum::<f64>() / nf;
+    let mlt: f64 = r.fit.layers.iter().map(|x| x.turn_length * x.turns as f64).sum::<f64>() / nf;
     let rho = copper_resistivity(r.thermal.temperature.min(250.0)).unwrap();
     let rdc = rho * nf * mlt / aw;
     assert!(rel(w.rdc, rdc) < 0.02, "Rdc {} vs {rdc}", w.rdc);

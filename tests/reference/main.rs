@@ -7,6 +7,7 @@ mod cores;
 mod design;
 mod inductor;
 mod materials;
+mod sweep;
 mod topologies;
 mod transformer;
 mod windings;

@@ -682,7 +682,7 @@ fn fit_by_hand() {
     assert!((r.fill_factor - fill).abs() < 1e-12, "{} vs {fill}", r.fill_factor);
     // MLT of layer 2 (0-based 1): centre at od + 30 µm + od/2.
     let mlt1 = 50e-3 + 2.0 * PI * (1.5 * od + 30e-6);
-    assert!((r.layers[1].mlt - mlt1).abs() < 1e-12);
+    assert!((r.layers[1].turn_length - mlt1).abs() < 1e-12);
 }
 
 /// A section that does not fit says which item, what it needs and what is
@@ -776,6 +776,29 @@ fn json_round_trip_exact() {
     assert_eq!(v["items"][0]["turns"], 41);
 }
 
+/// A first-schema file (lengths keyed with a unit suffix, `thickness_m`)
+/// reads to the same stack-up as its current form; both names in one object
+/// are refused, naming the old key's path.
+#[test]
+fn schema_1_files_still_read() {
+    let good = to_json(&rich_stackup());
+    let mut old = good.replace("magwright.stackup/2", "magwright.stackup/1");
+    for k in [
+        "strand_overall_diameter", "overall_diameter", "bare_diameter", "strand_diameter", "serving",
+        "thickness", "width", "margin_left", "margin_right",
+    ] {
+        old = old.replace(&format!("\"{k}\":"), &format!("\"{k}_m\":"));
+    }
+    assert!(old.contains("\"thickness_m\":") && old.contains("\"margin_left_m\":"));
+    assert_eq!(from_json(&old).unwrap(), from_json(&good).unwrap());
+    let both = old.replacen("\"margin_left_m\": 0", "\"margin_left_m\": 0, \"margin_left\": 0", 1);
+    assert_ne!(both, old);
+    let e = from_json(&both).unwrap_err();
+    assert_eq!(e.field(), Some("items[0].margin_left_m"), "{e}");
+    // The old keys in a current file are unknown keys.
+    assert!(from_json(&old.replace("magwright.stackup/1", "magwright.stackup/2")).is_err());
+}
+
 /// Every malformed case is an error naming the field, never a panic.
 #[test]
 fn json_malformed_cases_name_the_field() {
@@ -784,9 +807,9 @@ fn json_malformed_cases_name_the_field() {
         assert!(good.contains(from), "{from}");
         from_json(&good.replacen(from, to, 1)).unwrap_err()
     };
-    let e = case("magwright.stackup/1", "magwright.stackup/2");
+    let e = case("magwright.stackup/2", "magwright.stackup/3");
     assert_eq!(e.field(), Some("schema"));
-    assert!(e.message().contains("version \"2\""), "{e}");
+    assert!(e.message().contains("version \"3\""), "{e}");
     let e = case("\"turns\": 41", "\"turns\": \"forty-one\"");
     assert_eq!(e.field(), Some("items[0].turns"));
     assert!(e.message().contains("found a string"), "{e}");
@@ -807,8 +830,8 @@ fn json_malformed_cases_name_the_field() {
     assert_eq!(e.field(), Some("windings[3]"));
     let e = case("\"kind\": \"round\"", "\"kind\": \"square\"");
     assert_eq!(e.field(), Some("items[0].conductor.kind"));
-    let e = case("\"thickness_m\": 2.5e-5", "\"thickness_m\": -2.5e-5");
-    assert_eq!(e.field(), Some("items[1].thickness_m"));
+    let e = case("\"thickness\": 2.5e-5", "\"thickness\": -2.5e-5");
+    assert_eq!(e.field(), Some("items[1].thickness"));
     let e = case("\"wraps\": 3", "\"wraps\": 3, \"colour\": \"yellow\"");
     assert_eq!(e.field(), Some("items[1].colour"));
     let e = case("\"direction\": \"ccw\"", "\"direction\": \"sideways\"");

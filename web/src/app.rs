@@ -16,7 +16,7 @@ use crate::panels::library::Library;
 use crate::panels::pictures::Pictures;
 use crate::panels::results::Results;
 use crate::panels::sheet::BuildSheet;
-use crate::panels::suggest::Suggest;
+use crate::panels::optimiser::OptimiserPanel;
 use crate::panels::windings::Windings;
 use crate::panic;
 use crate::persist;
@@ -245,8 +245,8 @@ pub fn App() -> impl IntoView {
                 </Panel>
             </div>
         </main>
-        <Panel id="suggest" title="Suggest a core" help="Designs this specification on every library core and material and ranks those that pass.">
-            <Suggest form=form />
+        <Panel id="suggest" title="Optimiser" help="Designs this specification on every library core and material and ranks those that pass.">
+            <OptimiserPanel form=form />
         </Panel>
         <BuildSheet outcome=outcome />
     }

@@ -5,7 +5,7 @@
 //! choices made in drop-downs; the [`Design`] is derived from them
 //! (`Form::parse`, called inside a memo), so typing is never fought by
 //! reformatting. Every field's key is the engine's name for it (e.g.
-//! `outputs[1].voltage`, `choices.b_max`), so an engine error lands at the
+//! `outputs[1].voltage`, `choices.bpk_limit`), so an engine error lands at the
 //! field it names.
 
 use crate::field::Field;
@@ -163,7 +163,7 @@ pub mod ix {
     pub const CHOKE: usize = 14;
     pub const FLY_VALUE: usize = 15;
     pub const FLY_RIPPLE: usize = 16;
-    pub const B_MAX: usize = 17;
+    pub const BPK_LIMIT: usize = 17;
     pub const MARGIN: usize = 18;
     pub const TURNS: usize = 19;
     pub const KU: usize = 20;
@@ -205,7 +205,7 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     NumDef {
         prefixed: true,
         optional: true,
-        ..num("choices.b_max", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the core temperature limit less the margin")
+        ..num("choices.bpk_limit", "Bpk limit", "T", Group::Flux, "Highest peak flux density; empty: Bsat at the core temperature limit less the margin")
     },
     pct("choices.saturation_margin", "Bsat margin", Group::Flux, "Share kept below Bsat, e.g. 20 %"),
     NumDef {
@@ -410,7 +410,7 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(s.choke_ripple_ratio),
         Some(fly_value),
         Some(s.flyback.ripple_ratio),
-        ch.b_max,
+        ch.bpk_limit,
         Some(ch.saturation_margin),
         Some(f64::from(fixed)),
         Some(ch.window_utilisation),
@@ -609,7 +609,7 @@ impl Form {
             inductor,
         };
         let choices = Choices {
-            b_max: vals[ix::B_MAX],
+            bpk_limit: vals[ix::BPK_LIMIT],
             saturation_margin: g(ix::MARGIN),
             turns: match rule {
                 RuleKind::LeastLoss => TurnsRule::LeastLoss,

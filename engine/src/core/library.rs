@@ -307,7 +307,7 @@ fn entries() -> Vec<Entry> {
 
 /// Family names in the order of the library.
 const FAMILIES: [&str; 10] = [
-    "R", "E", "EFD", "ETD", "ER", "PQ", "RM", "P", "EP", "E planar",
+    "Ring", "E", "EFD", "ETD", "ER", "PQ", "RM", "Pot", "EP", "Planar E",
 ];
 
 fn build() -> Vec<Core> {
@@ -520,13 +520,14 @@ pub fn table_len() -> usize {
     entries().len()
 }
 
-/// The shape families of the library, in order: "R", "E", "EFD", "ETD",
-/// "ER", "PQ", "RM", "P", "EP", "E planar".
+/// The shape families of the library, in order: "Ring", "E", "EFD", "ETD",
+/// "ER", "PQ", "RM", "Pot", "EP", "Planar E" (the shapes' `family` tags,
+/// [`crate::core::Shape::family`]).
 pub fn families() -> Vec<&'static str> {
     FAMILIES.to_vec()
 }
 
-/// The built-in cores of one family (case and spaces ignored), smallest
+/// The built-in cores of one family (case, spaces and underscores ignored), smallest
 /// first as in the table. Unknown family: an error naming `family`.
 pub fn by_family(family: &str) -> Result<Vec<Core>> {
     if !FAMILIES.iter().any(|f| same_key(f, family)) {
@@ -555,11 +556,11 @@ pub fn find(designation: &str) -> Result<Core> {
 fn same_key(a: &str, b: &str) -> bool {
     let mut x = a
         .chars()
-        .filter(|c| !c.is_whitespace())
+        .filter(|c| !c.is_whitespace() && *c != '_')
         .flat_map(char::to_uppercase);
     let mut y = b
         .chars()
-        .filter(|c| !c.is_whitespace())
+        .filter(|c| !c.is_whitespace() && *c != '_')
         .flat_map(char::to_uppercase);
     loop {
         match (x.next(), y.next()) {
@@ -573,7 +574,7 @@ fn same_key(a: &str, b: &str) -> bool {
 #[cfg(test)]
 fn normalise(s: &str) -> String {
     s.chars()
-        .filter(|c| !c.is_whitespace())
+        .filter(|c| !c.is_whitespace() && *c != '_')
         .flat_map(char::to_uppercase)
         .collect()
 }
@@ -630,7 +631,7 @@ mod tests {
                 "{}",
                 c.designation
             );
-            if c.family == "R" {
+            if c.family == "Ring" {
                 assert!(c.ae < c.amin, "{}", c.designation);
             } else {
                 assert!(c.ae >= c.amin, "{}", c.designation);

@@ -2,7 +2,7 @@
 //!
 //! A [`Core`] is everything the rest of the engine needs to know about a
 //! core set: the IEC 60205 effective parameters (Ae, le, Ve, Amin), the
-//! winding window and bobbin, the turn length as a function of build
+//! winding window and bobbin, the mean turn length as a function of build
 //! height, the outer surface for the thermal model, and the ferrite's
 //! volume and mass.
 //!
@@ -114,7 +114,7 @@ pub struct Effective {
 
 impl Core {
     /// A core from the dimensions of a standard shape: IEC 60205 effective
-    /// parameters, window, bobbin, turn length, surface, volume and mass
+    /// parameters, window, bobbin, mean turn length, surface, volume and mass
     /// (see [`shape`] for the model of each family). Errors name the bad
     /// dimension as `shape.<letter>`.
     pub fn from_shape(designation: &str, shape: Shape) -> Result<Core> {
@@ -258,7 +258,8 @@ impl Core {
     }
 
     /// A one-piece core: a ring (toroid) from its shape, or an own core whose
-    /// family is given as "R", "T", "ring" or "toroid" (case ignored).
+    /// family is given as "Ring" (the library's name), "R", "T" or "toroid"
+    /// (case ignored).
     /// Every other core is a mated pair of halves.
     pub fn is_one_piece(&self) -> bool {
         if matches!(self.shape, Some(Shape::Ring { .. })) {
@@ -292,7 +293,7 @@ impl Core {
         }
     }
 
-    /// Mean length of a turn whose centre sits `h` metres above the bobbin
+    /// Mean turn length of a turn whose centre sits `h` metres above the bobbin
     /// surface: MLT(h) = MLT(0) + 2π·h. Exact for a round centre leg and
     /// for a rectangular leg whose turns have rounded corners (each added
     /// layer adds a quarter circle at four corners). Common practice, no source.

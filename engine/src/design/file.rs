@@ -17,7 +17,7 @@ use serde::{Deserialize, Serialize};
 /// The `schema` field's value.
 pub const SCHEMA: &str = "magwright-design";
 /// The version this engine writes and reads (older ones are converted).
-pub const VERSION: u32 = 2;
+pub const VERSION: u32 = 3;
 
 /// One design: specification, core, material and the designer's choices.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -148,7 +148,7 @@ impl Default for Insulation {
 pub struct Choices {
     /// Highest peak flux density allowed, T (`None`: Bsat at the core temperature
     /// limit less the saturation margin).
-    pub b_max: Option<f64>,
+    pub bpk_limit: Option<f64>,
     /// Fraction kept below Bsat (0.2: stay 20 % below).
     pub saturation_margin: f64,
     pub turns: TurnsRule,
@@ -197,7 +197,7 @@ pub const DEFAULT_MAGNETIC_LOSS_SHARE: f64 = 0.5;
 impl Default for Choices {
     fn default() -> Self {
         Choices {
-            b_max: None,
+            bpk_limit: None,
             saturation_margin: 0.2,
             turns: TurnsRule::LeastLoss,
             gap_placement: GapPlacement::CentreLeg,

@@ -80,7 +80,7 @@ impl Design {
         // With no flux limit of its own, the design takes Bsat at the
         // core temperature limit less the margin; a material with no Bsat there
         // leaves nothing to design with: name the material's value.
-        if self.choices.b_max.is_none() && material.bsat_at(self.spec.temperature_max) <= 0.0 {
+        if self.choices.bpk_limit.is_none() && material.bsat_at(self.spec.temperature_max) <= 0.0 {
             let field = match self.material {
                 MaterialChoice::Custom { .. } => "material.material.bsat_100",
                 MaterialChoice::Library { .. } => "material.name",
@@ -88,7 +88,7 @@ impl Design {
             return Err(Error::input(
                 field,
                 format!(
-                    "Bsat at the core temperature limit ({} °C) comes out at zero; give Bsat at 100 °C above zero, or set choices.b_max",
+                    "Bsat at the core temperature limit ({} °C) comes out at zero; give Bsat at 100 °C above zero, or set choices.bpk_limit",
                     self.spec.temperature_max
                 ),
             ));

@@ -18,6 +18,12 @@
 //!   mean surface temperature of McLyman's surface-dissipation model (see
 //!   [`crate::thermal`]), not on a hot spot; the value is kept.
 //!
+//! Version 2 → 3:
+//!
+//! * `choices.b_max` is `choices.bpk_limit`: the user's limit on the peak
+//!   flux density (`b_max` also named the top of a material's fitted flux
+//!   range); the value is kept.
+//!
 //! Every conversion adds a note, which the CLI prints and the page shows.
 
 use crate::error::{Error, Result};
@@ -33,6 +39,9 @@ pub fn upgrade(value: &mut Value, from: u64) -> Result<Vec<String>> {
     }
     if from == 1 {
         one_to_two(value, &mut notes)?;
+    }
+    if from <= 2 {
+        two_to_three(value, &mut notes)?;
     }
     if let Some(obj) = value.as_object_mut() {
         obj.insert("version".into(), Value::from(super::file::VERSION));
@@ -67,6 +76,25 @@ fn one_to_two(value: &mut Value, notes: &mut Vec<String>) -> Result<()> {
     temperature_factor(value, notes)
 }
 
+fn two_to_three(value: &mut Value, notes: &mut Vec<String>) -> Result<()> {
+    let Some(choices) = value.get_mut("choices").and_then(Value::as_object_mut) else {
+        return Ok(());
+    };
+    if let Some(b) = choices.remove("b_max") {
+        if choices.contains_key("bpk_limit") {
+            return Err(Error::format(
+                Some("choices.b_max"),
+                "an older file holds both b_max and bpk_limit; keep one",
+            ));
+        }
+        if !b.is_null() {
+            notes.push("choices.b_max is now choices.bpk_limit (the limit on the peak flux density), same value.".into());
+        }
+        choices.insert("bpk_limit".into(), b);
+    }
+    Ok(())
+}
+
 fn temperature_factor(value: &mut Value, notes: &mut Vec<String>) -> Result<()> {
     let Some(material) = value.pointer_mut("/material/material").and_then(Value::as_object_mut) else {
         return Ok(());
@@ -96,16 +124,16 @@ fn temperature_factor(value: &mut Value, notes: &mut Vec<String>) -> Result<()> 
             if let Some(kv) = k.as_f64() {
                 let scaled = kv * scale;
                 *k = number(scaled, "material.material.steinmetz.k")?;
-                k_note = format!("; k scaled by the factor's minimum {scale:.6} to {scaled:.6e}");
+                k_note = format!("; k scaled by the factor's minimum {scale:.4} to {scaled:.4} (stored exactly)");
             }
         }
     }
     notes.push(if c == 0.0 {
-        format!("The material's temperature factor is now flat (curvature 0, recorded at {tm:.6} °C){k_note}.")
+        format!("The material's temperature factor is now flat (curvature 0, recorded at {tm:.1} °C){k_note}.")
     } else {
         format!(
-            "The material's temperature factor (ct2, ct1, ct0) is now given as least loss at {tm:.6} °C with curvature \
-             {c:.6e} /K², the same loss at every temperature{k_note}."
+            "The material's temperature factor (ct2, ct1, ct0) is now given as least loss at {tm:.1} °C with curvature \
+             {c:.3e} /K² (stored exactly), the same loss at every temperature{k_note}."
         )
     });
     Ok(())
@@ -235,6 +263,26 @@ mod tests {
         let mut v = old_custom(1e-4, 2e-2, 2.0, 10.0);
         v["spec"]["temperature_max"] = Value::from(90.0);
         assert_eq!(upgrade(&mut v, 1).unwrap_err().field(), Some("spec.hot_spot_max"));
+    }
+
+    #[test]
+    fn version_two_flux_limit_converts() {
+        let mut v = serde_json::to_value(Design::demo_forward()).unwrap();
+        v["version"] = Value::from(2);
+        let b = v["choices"].as_object_mut().unwrap().remove("bpk_limit").unwrap();
+        assert!(b.is_null());
+        v["choices"]["b_max"] = Value::from(0.15);
+        let (d, notes) = Design::from_json_noted(&v.to_string()).unwrap();
+        assert_eq!(d.choices.bpk_limit, Some(0.15));
+        assert!(notes.iter().any(|n| n.contains("bpk_limit")), "{notes:?}");
+        // The old key in a current file is refused, naming its path.
+        v["version"] = Value::from(crate::design::file::VERSION);
+        let e = Design::from_json(&v.to_string()).unwrap_err();
+        assert_eq!(e.field(), Some("choices.b_max"), "{e}");
+        // Both keys in an old file: refused.
+        v["version"] = Value::from(2);
+        v["choices"]["bpk_limit"] = Value::from(0.1);
+        assert_eq!(upgrade(&mut v, 2).unwrap_err().field(), Some("choices.b_max"));
     }
 
     #[test]

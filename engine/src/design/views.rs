@@ -369,7 +369,7 @@ mod tests {
             turns,
             h_bottom,
             height,
-            mlt: 0.05,
+            turn_length: 0.05,
             breadth: 0.01,
             mmf_per_amp: turns as f64,
             copper_area: 1e-6,

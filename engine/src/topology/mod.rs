@@ -62,6 +62,7 @@
 //! half and full bridge: the symmetric, bipolar-flux family), [`inductor`]
 //! (the inductor kind: one DC-biased winding, buck or boost).
 
+pub mod cautions;
 mod flyback;
 mod forward;
 pub mod inductor;

@@ -325,13 +325,13 @@ pub fn primary_turns_for_flux(volt_seconds: f64, delta_b: f64, ae: f64) -> Resul
 }
 
 /// Flyback primary turns keeping the *peak* flux (DC bias included) within
-/// `b_max`: Np = ⌈Lp·Ipk/(Bmax·Ae)⌉ (from B = Lp·i/(Np·Ae)).
-pub fn flyback_primary_turns(lp: f64, i_pk: f64, b_max: f64, ae: f64) -> Result<u32> {
+/// `bpk_limit`: Np = ⌈Lp·Ipk/(Bmax·Ae)⌉ (from B = Lp·i/(Np·Ae)).
+pub fn flyback_primary_turns(lp: f64, i_pk: f64, bpk_limit: f64, ae: f64) -> Result<u32> {
     positive("lp", lp, "H")?;
     positive("i_pk", i_pk, "A")?;
-    positive("b_max", b_max, "T")?;
+    positive("bpk_limit", bpk_limit, "T")?;
     positive("ae", ae, "m²")?;
-    turns_up(lp * i_pk / (b_max * ae), "turns.primary")
+    turns_up(lp * i_pk / (bpk_limit * ae), "turns.primary")
 }
 
 /// Flyback peak primary current at `vin` for ratio `n` and `lp`, A.

@@ -198,17 +198,17 @@ impl Conductor {
         };
         match self {
             Conductor::Round(w) | Conductor::TripleInsulated(w) => {
-                at_least_1um("bare_diameter_m", w.bare_diameter)?;
-                pos("overall_diameter_m", w.overall_diameter)?;
+                at_least_1um("bare_diameter", w.bare_diameter)?;
+                pos("overall_diameter", w.overall_diameter)?;
                 if w.overall_diameter < w.bare_diameter {
                     return Err(Error::input(
-                        &f("overall_diameter_m"),
+                        &f("overall_diameter"),
                         "the overall diameter must not be smaller than the bare diameter",
                     ));
                 }
                 if w.bare_diameter > 0.05 {
                     return Err(Error::input(
-                        &f("bare_diameter_m"),
+                        &f("bare_diameter"),
                         "a round conductor over 50 mm is not a winding wire",
                     ));
                 }
@@ -223,17 +223,17 @@ impl Conductor {
                         "more than 100000 strands is not a litz bundle",
                     ));
                 }
-                at_least_1um("strand_diameter_m", l.strand_diameter)?;
-                pos("strand_overall_diameter_m", l.strand_overall_diameter)?;
+                at_least_1um("strand_diameter", l.strand_diameter)?;
+                pos("strand_overall_diameter", l.strand_overall_diameter)?;
                 if l.strand_overall_diameter < l.strand_diameter {
                     return Err(Error::input(
-                        &f("strand_overall_diameter_m"),
+                        &f("strand_overall_diameter"),
                         "the strand's overall diameter must not be smaller than its bare diameter",
                     ));
                 }
                 if l.strand_diameter > 0.005 {
                     return Err(Error::input(
-                        &f("strand_diameter_m"),
+                        &f("strand_diameter"),
                         "a litz strand over 5 mm is not a strand",
                     ));
                 }
@@ -247,21 +247,21 @@ impl Conductor {
                     ));
                 }
                 if !(l.serving.is_finite() && l.serving >= 0.0) {
-                    crate::error::non_negative(&f("serving_m"), l.serving, "m")?;
+                    crate::error::non_negative(&f("serving"), l.serving, "m")?;
                 }
             }
             Conductor::Foil(fo) => {
-                at_least_1um("thickness_m", fo.thickness)?;
-                at_least_1um("width_m", fo.width)?;
+                at_least_1um("thickness", fo.thickness)?;
+                at_least_1um("width", fo.width)?;
                 if fo.thickness > 0.01 {
                     return Err(Error::input(
-                        &f("thickness_m"),
+                        &f("thickness"),
                         "a foil over 10 mm thick is not a winding foil",
                     ));
                 }
                 if fo.width > 1.0 {
                     return Err(Error::input(
-                        &f("width_m"),
+                        &f("width"),
                         "a foil over 1 m wide is not a winding foil",
                     ));
                 }

@@ -8,7 +8,7 @@
 //!
 //! P = (ρ·l/A)·Δ·[(|F₀|² + |F₁|²)·ψ₁(Δ) − 4·Re(F₀·F₁*)·ψ₂(Δ)]
 //!
-//! with l the turn length, A the copper cross-section of the whole layer,
+//! with l the mean turn length (MLT), A the copper cross-section of the whole layer,
 //! ψ₁ = (sinh 2Δ + sin 2Δ)/(cosh 2Δ − cos 2Δ) and
 //! ψ₂ = (sinh Δ·cos Δ + cosh Δ·sin Δ)/(cosh 2Δ − cos 2Δ).
 //! For in-phase fields, F₀ = (m − 1)·ΔF and F₁ = m·ΔF, this is the per-layer

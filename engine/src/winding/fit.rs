@@ -45,7 +45,7 @@ pub struct LayerFit {
     /// Radial height of the layer (conductor overall height), m.
     pub height: f64,
     /// Mean turn length at the layer's centre, m.
-    pub mlt: f64,
+    pub turn_length: f64,
     /// Usable breadth of the section (bobbin breadth minus margins), m.
     pub breadth: f64,
     /// Ampere-turns this layer adds to the MMF per ampere of its winding:
@@ -298,7 +298,7 @@ pub fn fit(core: &Core, st: &StackUp) -> Result<FitReport> {
                         turns,
                         h_bottom: y,
                         height: lh,
-                        mlt: core.turn_length_at(y + 0.5 * lh),
+                        turn_length: core.turn_length_at(y + 0.5 * lh),
                         breadth,
                         mmf_per_amp: mmf,
                         copper_area: area,

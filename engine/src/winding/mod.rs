@@ -30,6 +30,7 @@ pub mod kelvin;
 pub mod leakage;
 pub mod loss;
 pub mod stackup;
+pub mod stackup_file;
 pub mod wire;
 
 pub use conductor::{Conductor, Grade};

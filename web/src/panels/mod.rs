@@ -9,10 +9,11 @@
 //! * [`material_curves`]: the material's Pv–B chart (log axes).
 //! * [`results`]: the deciding figures with pass/fail and margins, cautions.
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
-//!   frequency sweep.
+//!   frequency sweep; its chart (both curves, the envelope, the data band)
+//!   in `sweep_chart`.
 //! * [`windings`]: the stack-up table and editor, the window to scale, the MMF;
 //!   [`conductor_choice`] why each conductor (the search's trials).
-//! * [`suggest`]: the optimiser over the library, ranked, with its Pareto plot.
+//! * [`optimiser`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
 
 pub mod conductor_choice;
@@ -21,7 +22,8 @@ pub mod material_curves;
 pub mod pictures;
 pub mod results;
 pub mod sheet;
-pub mod suggest;
+pub mod optimiser;
+mod sweep_chart;
 pub mod windings;
 
 use leptos::prelude::*;

@@ -18,17 +18,28 @@
 //!    axis, the least-loss point marked, the failing ranges shaded by
 //!    reason (and listed below the picture).
 //!
+//!    Beside it, the same transformer as wound (turns, conductors and
+//!    stack-up fixed: `design::sweep::as_wound`) and, on request, the best
+//!    library material at each frequency (`design::sweep::envelope`, the
+//!    material named where it changes); the material's fitted range and
+//!    the band the engine's data-range rule still accepts shaded, points
+//!    outside it never shown as passing (`design::sweep::range`). The
+//!    legend's entries are also on the figure as `data-legend`.
+//!
 //! Speed: the sweep is the slow part (it redesigns at every point), so it
 //! does not run on the keystroke. The design it sweeps is copied into its
 //! own signal by a timer [`SWEEP_DELAY_MS`] after the last edit; the
-//! results and the other pictures update at once, the sweep once typing
-//! pauses (its figure is dimmed, and `data-sweep-ready="false"`, meanwhile).
+//! results and the other pictures update at once, the sweep (both curves,
+//! and the envelope when it is asked for) once typing pauses (its figure
+//! is dimmed, and `data-sweep-ready="false"`, meanwhile). The envelope is
+//! one sweep per library material, so it runs only when asked.
 //!
 //! Every number comes from the engine; this module only arranges them.
 
 use crate::form::{Outcome, Report};
 use crate::plot::{self, Axis, LineChart, Marker, Rgb, Series, Shade, Side};
 use crate::ui::PlotCanvas;
+use super::sweep_chart::{fail_runs, legend_of, sweep_chart};
 use leptos::prelude::*;
 use magwright_engine::design::{sweep, views, Design};
 use magwright_engine::notation;
@@ -41,6 +52,9 @@ pub const SWEEP_POINTS: usize = 100;
 
 /// Pause after the last edit before the sweep runs, ms.
 pub const SWEEP_DELAY_MS: u64 = 150;
+
+/// Points of the best-material envelope (each a sweep per library material).
+pub const ENVELOPE_POINTS: usize = 50;
 
 /// Samples of the Bsat curve.
 const BSAT_POINTS: usize = 12;
@@ -202,182 +216,6 @@ fn mmf_chart(r: &Report, m: &views::MmfProfile) -> LineChart {
     }
 }
 
-/// A failing run of sweep points: its frequency range and why.
-#[derive(Debug, Clone, PartialEq)]
-struct FailRun {
-    from: f64,
-    to: f64,
-    /// Legend key: the failed checks, or "no design can be built".
-    key: String,
-    /// The run's reasons, each once.
-    detail: String,
-}
-
-/// Most distinct reasons listed for one failing range.
-const MAX_REASONS: usize = 4;
-
-/// The band a failing point belongs to: "no design can be built", or the
-/// first check it fails (the engine lists saturation, temperature, window,
-/// duty, switch voltage, Curie in that order); the other reasons are in
-/// the list under the picture.
-fn key_of(p: &sweep::SweepPoint) -> String {
-    if p.values.is_none() {
-        "no design can be built".into()
-    } else {
-        match p.reason.split("; ").next().filter(|r| !r.is_empty()) {
-            Some(first) => format!("fails: {first}"),
-            None => "fails a check".into(),
-        }
-    }
-}
-
-/// The reasons of a failing point, each short: a check's label, or an
-/// engine message cut before its details (the part after the first ": ",
-/// which carries numbers that differ from point to point).
-fn reasons_of(p: &sweep::SweepPoint) -> Vec<&str> {
-    if p.values.is_none() {
-        vec![p.reason.split(": ").next().unwrap_or(&p.reason)]
-    } else {
-        p.reason.split("; ").filter(|r| !r.is_empty()).collect()
-    }
-}
-
-/// Consecutive failing points with the same key (`by_key`), or all
-/// consecutive failing points (`!by_key`, the reasons of the run collected,
-/// each once, at most [`MAX_REASONS`]), their edges halfway (geometrically)
-/// to the neighbouring points.
-fn fail_runs(s: &sweep::Sweep, by_key: bool) -> Vec<FailRun> {
-    let pts = &s.points;
-    let edge = |i: usize, j: usize| -> f64 {
-        match (pts.get(i), pts.get(j)) {
-            (Some(a), Some(b)) if a.x > 0.0 && b.x > 0.0 => (a.x * b.x).sqrt(),
-            (Some(a), _) => a.x,
-            (_, Some(b)) => b.x,
-            _ => 0.0,
-        }
-    };
-    let mut runs: Vec<FailRun> = Vec::new();
-    let mut i = 0;
-    while i < pts.len() {
-        if pts[i].feasible {
-            i += 1;
-            continue;
-        }
-        let key = key_of(&pts[i]);
-        let start = i;
-        while i + 1 < pts.len() && !pts[i + 1].feasible && (!by_key || key_of(&pts[i + 1]) == key) {
-            i += 1;
-        }
-        let from = if start == 0 { pts[0].x } else { edge(start - 1, start) };
-        let to = if i + 1 >= pts.len() { pts[i].x } else { edge(i, i + 1) };
-        let mut reasons: Vec<&str> = Vec::new();
-        let mut more = false;
-        for p in pts.get(start..=i).unwrap_or(&[]) {
-            for part in reasons_of(p) {
-                if !reasons.contains(&part) {
-                    if reasons.len() < MAX_REASONS {
-                        reasons.push(part);
-                    } else {
-                        more = true;
-                    }
-                }
-            }
-        }
-        let mut detail = reasons.join("; ");
-        if more {
-            detail.push_str("; and other reasons (see the CSV)");
-        }
-        runs.push(FailRun { from, to, key, detail });
-        i += 1;
-    }
-    runs
-}
-
-fn sweep_chart(s: &sweep::Sweep, r: &Report) -> LineChart {
-    // Feasible points only, with a gap (NaN) where a design fails.
-    let line = |f: fn(&sweep::PointValues) -> f64| -> Vec<(f64, f64)> {
-        s.points
-            .iter()
-            .map(|p| (p.x, p.values.filter(|_| p.feasible).map_or(f64::NAN, |v| f(&v))))
-            .collect()
-    };
-    let failing: Vec<(f64, f64)> = s
-        .points
-        .iter()
-        .filter(|p| !p.feasible)
-        .filter_map(|p| p.values.map(|v| (p.x, v.total)))
-        .collect();
-    let runs = fail_runs(s, true);
-    let mut keys: Vec<String> = Vec::new();
-    let shades = runs
-        .iter()
-        .map(|run| {
-            let k = match keys.iter().position(|k| k == &run.key) {
-                Some(k) => k,
-                None => {
-                    keys.push(run.key.clone());
-                    keys.len() - 1
-                }
-            };
-            Shade {
-                from: run.from,
-                to: run.to,
-                label: run.key.clone(),
-                color: plot::BANDS[k % plot::BANDS.len()],
-            }
-        })
-        .collect();
-    let mut markers = vec![Marker {
-        x: r.frequency,
-        y: r.losses.total,
-        side: Side::Left,
-        label: format!("this design: {}", notation::format(r.losses.total, "W", 3)),
-        color: plot::GREY,
-    }];
-    if let Some((x, v)) = s
-        .minimum
-        .and_then(|i| s.points.get(i))
-        .and_then(|p| p.values.map(|v| (p.x, v)))
-    {
-        markers.push(Marker {
-            x,
-            y: v.total,
-            side: Side::Left,
-            label: format!(
-                "least loss: {} at {}",
-                notation::format(v.total, "W", 3),
-                notation::format(x, "Hz", 3)
-            ),
-            color: plot::GREEN,
-        });
-    }
-    let mut series = vec![
-        Series::new("total", line(|v| v.total), plot::GREEN).dots(2),
-        Series::new("core", line(|v| v.core), plot::BLUE).thin().dots(2),
-        Series::new("copper DC", line(|v| v.copper_dc), plot::ORANGE)
-            .thin()
-            .dots(2),
-        Series::new("copper AC (above DC)", line(|v| v.copper_ac_extra), plot::PURPLE)
-            .thin()
-            .dots(2),
-        Series::new("core temperature", line(|v| v.temperature), plot::RED)
-            .right()
-            .thin()
-            .dots(1),
-    ];
-    if !failing.is_empty() {
-        series.push(Series::new("total of a failing design", failing, Rgb(150, 156, 166)).scatter(2));
-    }
-    LineChart {
-        x: Axis::new("Switching frequency", "Hz").log(),
-        y: Axis::new("Loss", "W").from_zero(),
-        y2: Some(Axis::new("Core temperature", "°C")),
-        series,
-        markers,
-        shades,
-    }
-}
-
 /// The four pictures, a line-corner selector and the sweep's CSV.
 #[component]
 pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl IntoView {
@@ -403,20 +241,36 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         .ok();
         timer.set_value(handle);
     });
-    // The sweep and how long it took, ms (shown as `data-sweep-ms`).
+    // Both curves and how long they took, ms (shown as `data-sweep-ms`).
     let timed = Memo::new(move |_| {
         swept.with(|d| {
             d.as_ref().and_then(|d| {
                 let (lo, hi) = sweep_range(d.spec.frequency);
                 let t0 = js_sys::Date::now();
                 let s = sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()?;
-                Some((s, js_sys::Date::now() - t0))
+                let w = sweep::as_wound(d, lo, hi, SWEEP_POINTS).ok();
+                Some((s, w, js_sys::Date::now() - t0))
             })
         })
     });
     let sweep = Memo::new(move |_| timed.with(|t| t.as_ref().map(|t| t.0.clone())));
-    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.1));
+    let wound = Memo::new(move |_| timed.with(|t| t.as_ref().and_then(|t| t.1.clone())));
+    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.2));
     let ready = move || swept.with(|s| design.with(|d| s == d));
+    // The best material at each frequency: every library material is a
+    // sweep of its own, so it runs when asked for, not on every keystroke.
+    let env_on = RwSignal::new(false);
+    let envelope = Memo::new(move |_| {
+        if !env_on.get() {
+            return None;
+        }
+        swept.with(|d| {
+            d.as_ref().and_then(|d| {
+                let (lo, hi) = sweep_range(d.spec.frequency);
+                sweep::envelope(d, lo, hi, ENVELOPE_POINTS, false).ok()
+            })
+        })
+    });
 
     let mmf = Memo::new(move |_| {
         let c = corner.get();
@@ -450,14 +304,58 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
             })
         })
     };
-    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
+    // The sweep's chart: drawn, and its legend shown as `data-legend`.
+    let chart = Memo::new(move |_| {
         sweep.with(|s| {
-            outcome.with(|o| match (o, s) {
-                (Ok(r), Some(s)) => plot::line_chart(c, &sweep_chart(s, r)),
-                _ => Ok(()),
+            wound.with(|w| {
+                envelope.with(|e| {
+                    outcome.with(|o| match (o, s) {
+                        (Ok(r), Some(s)) => Some(sweep_chart(s, w.as_ref(), e.as_ref(), r)),
+                        _ => None,
+                    })
+                })
+            })
+        })
+    });
+    let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
+        chart.with(|ch| match ch {
+            Some(ch) => plot::line_chart(c, ch),
+            None => Ok(()),
+        })
+    };
+    let legend = move || chart.with(|c| c.as_ref().map(legend_of));
+    let band_of = move |f: fn(&sweep::Band) -> f64| move || sweep.with(|s| s.as_ref().and_then(|s| s.band.as_ref().map(f)));
+    let env_changes = move || {
+        envelope.with(|e| e.as_ref().map(|e| e.changes.iter().map(|&i| e.points[i].x.to_string()).collect::<Vec<_>>().join(" ")))
+    };
+    let save_env_csv = move |_| {
+        if let Some(e) = envelope.get_untracked() {
+            if let Err(e) = crate::browser::download("magwright-best-material.csv", "text/csv", &sweep::envelope_csv(&e)) {
+                leptos::logging::warn!("envelope CSV: {e}");
+            }
+        }
+    };
+    let save_wound_csv = move |_| {
+        if let Some(w) = wound.get_untracked() {
+            if let Err(e) = crate::browser::download("magwright-as-wound.csv", "text/csv", &sweep::to_csv(&w, "frequency_Hz")) {
+                leptos::logging::warn!("as-wound CSV: {e}");
+            }
+        }
+    };
+    let env_materials = move || {
+        envelope.with(|e| {
+            e.as_ref().map(|e| {
+                let mut v: Vec<String> = Vec::new();
+                for m in e.points.iter().filter_map(|p| p.material.clone()) {
+                    if !v.contains(&m) {
+                        v.push(m);
+                    }
+                }
+                v.join(", ")
             })
         })
     };
+    let wound_min = move || wound.with(|w| w.as_ref().and_then(|w| w.minimum.and_then(|i| w.points.get(i)).map(|p| p.x)));
 
     let hidden = move || outcome.with(|o| o.is_err());
     let save_csv = move |_| {
@@ -578,12 +476,23 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         </figure>
         <figure class="plot" class:hidden=hidden class:stale=move || !ready() data-testid="sweep-figure"
             data-sweep-ready=move || if ready() { "true" } else { "false" }
-            data-min-hz=sweep_min data-sweep-ms=sweep_ms data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
+            data-min-hz=sweep_min data-wound-min-hz=wound_min data-sweep-ms=sweep_ms
+            data-band-min-hz=band_of(|b| b.min) data-band-max-hz=band_of(|b| b.max)
+            data-legend=legend data-envelope-changes-hz=env_changes data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
             title=fails_text>
-            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=360 draw=draw_sweep />
+            <PlotCanvas testid="sweep-plot" label="Losses against switching frequency" width=520 height=500 draw=draw_sweep />
             <figcaption>
                 {format!("The design redone at each of {SWEEP_POINTS} frequencies, a decade either side of this one: turns, gap, wire and temperature each time, so the curves step where an integer turn count or a wire size changes. Dots are the designs computed; lines only join passing ones. ")}
+                "The brown line is this transformer as wound (turns, wire and stack-up fixed) at other frequencies: what a bench measurement would show. The teal band is the material's fitted loss data, the olive bands either side the ×1.25 the data-range check still accepts (with a warning); points beyond are never counted as passing. The best material at each frequency redesigns with every library material (magenta, each material named where it takes over). "
                 <button type="button" class="small" data-testid="sweep-csv" on:click=save_csv>"Download as CSV"</button>
+                " "
+                <button type="button" class="small" data-testid="wound-csv" on:click=save_wound_csv>"As wound, as CSV"</button>
+                " "
+                <button type="button" class="small" data-testid="envelope-toggle" aria-pressed=move || if env_on.get() { "true" } else { "false" }
+                    on:click=move |_| env_on.update(|on| *on = !*on)>{move || if env_on.get() { "Hide the best material" } else { "Best material at each frequency" }}</button>
+                " "
+                <button type="button" class="small" data-testid="envelope-csv" class:hidden=move || envelope.with(|e| e.is_none()) on:click=save_env_csv>"Best material, as CSV"</button>
+                <span data-testid="envelope-materials" data-materials=env_materials>{move || env_materials().map(|m| format!(" Best material by frequency: {m}.")).unwrap_or_default()}</span>
                 <ul class="sweep-fails" data-testid="sweep-fails">
                     {move || fails().into_iter().map(|f| view! {
                         <li data-from-hz=f.from data-to-hz=f.to>
@@ -599,67 +508,6 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
 #[cfg(test)]
 mod tests {
     use super::*;
-    use magwright_engine::design::sweep::{PointValues, Sweep, SweepPoint};
-
-    fn pt(x: f64, ok: bool, reason: &str, values: bool) -> SweepPoint {
-        let v = PointValues {
-            core: 1.0,
-            copper_dc: 1.0,
-            copper_ac_extra: 0.1,
-            copper: 1.1,
-            total: 2.1,
-            temperature: 60.0,
-            b_peak: 0.1,
-            primary_turns: 10,
-        };
-        SweepPoint {
-            x,
-            feasible: ok,
-            values: values.then_some(v),
-            reason: reason.into(),
-        }
-    }
-
-    #[test]
-    fn failing_runs_group_by_reason_with_edges_between_points() {
-        let s = Sweep {
-            points: vec![
-                pt(1e3, false, "window too small", false),
-                pt(4e3, false, "other words", false),
-                pt(16e3, true, "", true),
-                pt(64e3, false, "Core temperature (mean surface)", true),
-                pt(256e3, false, "Core temperature (mean surface)", true),
-            ],
-            minimum: Some(2),
-            ratio_at_minimum: None,
-            two_over_beta: 1.0,
-        };
-        let runs = fail_runs(&s, true);
-        assert_eq!(runs.len(), 2);
-        assert_eq!(runs[0].key, "no design can be built");
-        assert_eq!((runs[0].from, runs[0].to), (1e3, 8e3)); // √(4k·16k) = 8k
-        assert_eq!(runs[0].detail, "window too small; other words");
-        let mut cut = pt(
-            1e3,
-            false,
-            "the windings do not fit this core's window: 0.45 mm × 21",
-            false,
-        );
-        assert_eq!(reasons_of(&cut), vec!["the windings do not fit this core's window"]);
-        cut.values = s.points[2].values;
-        cut.reason = "Duty; Core temperature (mean surface)".into();
-        assert_eq!(key_of(&cut), "fails: Duty");
-        assert_eq!(runs[1].key, "fails: Core temperature (mean surface)");
-        assert_eq!((runs[1].from, runs[1].to), (32e3, 256e3));
-        // Listed: one range per stretch of failing points, reasons each once.
-        let mut s2 = s.clone();
-        s2.points[4].reason = "Duty; Core temperature (mean surface)".into();
-        let list = fail_runs(&s2, false);
-        assert_eq!(list.len(), 2);
-        assert_eq!(list[1].detail, "Core temperature (mean surface); Duty");
-        let bands = fail_runs(&s2, true);
-        assert_eq!(bands.len(), 3);
-    }
 
     #[test]
     fn sweep_range_stays_inside_the_engine_limits() {

@@ -1,5 +1,5 @@
 //! Results at a glance: a verdict line, the safety cautions, the checks
-//! that decide the design (failing first, binding ones marked, each with
+//! that decide the design (failing first, tight ones marked, each with
 //! its margin and worst line corner), then the key figures, why the turns
 //! are what they are, the leakage clamp (switch peak and clamp loss, a
 //! converter loss shown apart), the thermal iteration, and the engine's
@@ -30,7 +30,7 @@ const CSS: &str = r#"
 .results table.checks tr.fail th, .results table.checks tr.fail td { color:#a3211a; font-weight:600; }
 .results table.checks tr.fail { background:#fff1f0; }
 .results table.checks .tag { display:inline-block; font-size:.75em; padding:0 .3rem; border-radius:3px; margin-left:.3rem; vertical-align:1px; }
-.results table.checks .tag.binding { background:#e8eefc; color:#1f4a8a; border:1px solid #b8c8ea; }
+.results table.checks .tag.tight { background:#e8eefc; color:#1f4a8a; border:1px solid #b8c8ea; }
 .results table.checks .tag.failing { background:#b3261e; color:#fff; }
 .results table.checks .note { display:block; color:var(--muted); font-size:.82em; font-weight:normal; }
 .results table.checks td.ok { color:#1e6b34; }
@@ -110,14 +110,14 @@ fn mode_tile(r: &Report) -> Option<impl IntoView> {
     ))
 }
 
-/// Failing checks first (worst margin first), then binding, then the rest.
+/// Failing checks first (worst margin first), then tight, then the rest.
 fn ordered(checks: &[Check]) -> Vec<&Check> {
     let mut v: Vec<&Check> = checks.iter().collect();
     v.sort_by(|a, b| {
         let rank = |c: &Check| {
             if !c.pass {
                 0
-            } else if c.binding {
+            } else if c.tight {
                 1
             } else {
                 2
@@ -199,12 +199,12 @@ fn check_row(c: &Check) -> impl IntoView {
     let inline = c.note.clone();
     let show_note = !c.pass && !inline.is_empty();
     view! {
-        <tr class:fail=!c.pass class:binding=c.binding data-testid=format!("check-{}", c.key)
-            data-pass=c.pass.to_string() data-binding=c.binding.to_string() title=note.clone()>
+        <tr class:fail=!c.pass class:tight=c.tight data-testid=format!("check-{}", c.key)
+            data-pass=c.pass.to_string() data-tight=c.tight.to_string() title=note.clone()>
             <th scope="row">
                 {short_label(c)}
                 {(!c.pass).then(|| view! { <span class="tag failing">"FAIL"</span> })}
-                {(c.pass && c.binding).then(|| view! { <span class="tag binding" title="Tight: under 10 % margin, or the tightest check: this check limits the design">"tight"</span> })}
+                {(c.pass && c.tight).then(|| view! { <span class="tag tight" title="Tight: under 10 % margin (for a temperature, 10 % of the allowed rise over ambient), or the tightest check: this check limits the design">"tight"</span> })}
                 {show_note.then(|| view! { <span class="note">{inline}</span> })}
             </th>
             <td data-si=format!("{:e}", c.value)>{v}</td>
@@ -469,7 +469,7 @@ mod tests {
     use magwright_engine::design::Design;
 
     #[test]
-    fn failing_checks_come_first_then_binding() {
+    fn failing_checks_come_first_then_tight() {
         let mut r = magwright_engine::design::evaluate(&Design::demo_forward()).expect("demo evaluates");
         if let Some(c) = r.checks.last_mut() {
             c.pass = false;
@@ -477,8 +477,8 @@ mod tests {
         }
         let o = ordered(&r.checks);
         assert!(!o[0].pass);
-        let first_plain = o.iter().position(|c| c.pass && !c.binding).unwrap_or(o.len());
-        assert!(o[first_plain..].iter().all(|c| c.pass && !c.binding));
+        let first_plain = o.iter().position(|c| c.pass && !c.tight).unwrap_or(o.len());
+        assert!(o[first_plain..].iter().all(|c| c.pass && !c.tight));
         let (head, _) = verdict(&r);
         assert_eq!(head, "Fails 1 check");
     }

@@ -404,20 +404,21 @@ fn check_area(field: &str, area: f64, what: &str) -> Result<()> {
 }
 
 impl Shape {
-    /// Family name as used in designations: "R", "E", "EFD", "ETD", "ER",
-    /// "PQ", "RM", "P", "EP", "E planar".
+    /// The family's one name: the file's `family` tag, written as the
+    /// library and the page show it (the same name with case, spaces and
+    /// underscores ignored: "Ring" is `ring`, "Planar E" is `planar_e`).
     pub fn family(&self) -> &'static str {
         match self {
-            Shape::Ring { .. } => "R",
+            Shape::Ring { .. } => "Ring",
             Shape::E { .. } => "E",
             Shape::Efd { .. } => "EFD",
             Shape::Etd { .. } => "ETD",
             Shape::Er { .. } => "ER",
             Shape::Pq { .. } => "PQ",
             Shape::Rm { .. } => "RM",
-            Shape::Pot { .. } => "P",
+            Shape::Pot { .. } => "Pot",
             Shape::Ep { .. } => "EP",
-            Shape::PlanarE { .. } => "E planar",
+            Shape::PlanarE { .. } => "Planar E",
         }
     }
 
@@ -427,7 +428,7 @@ impl Shape {
     }
 
     /// Validates the dimensions and computes constants, window, bobbin,
-    /// turn length, surface and volume. Errors name the field (`shape.f`).
+    /// mean turn length, surface and volume. Errors name the field (`shape.f`).
     pub fn geometry(&self) -> Result<Geometry> {
         let g = match *self {
             Shape::Ring {

@@ -46,12 +46,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
             ch.saturation_margin * 100.0
         ),
     ));
-    let mut t_check = check(
+    let mut t_check = temperature_check(
         "temperature",
         "Core temperature (mean surface)",
         t_op,
         spec.temperature_max,
-        "°C",
+        spec.ambient,
         Some(loss_corner),
         format!(
             "rise {:.1} K over {:.0} °C ambient",
@@ -93,12 +93,12 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
     if let Some(rating) = ch.switch_voltage_rating {
         checks.push(switch_voltage_check(c, x.clamp, rating));
     }
-    checks.push(check(
+    checks.push(temperature_check(
         "curie",
         "Temperature below Curie",
         t_op,
         material.curie_c - 20.0,
-        "°C",
+        spec.ambient,
         None,
         "20 K below the Curie temperature".into(),
     ));
@@ -112,7 +112,7 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         .map(|k| k.margin)
         .fold(f64::INFINITY, f64::min);
     for k in &mut checks {
-        k.binding = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
+        k.tight = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
 }
@@ -240,6 +240,26 @@ pub(super) fn material_range(x: &CheckInputs) -> Check {
     )
 }
 
+/// A check on a temperature, whose margin is the share of the allowed rise
+/// left, (limit − T)/(limit − ambient): a share of a Celsius value would
+/// depend on where the scale puts its zero, while the rise is what the loss
+/// drives (rise ∝ loss in the surface-dissipation model, so a 10 % margin
+/// is about 10 % more loss). The allowed rise is taken as at least 1 K.
+/// (Common practice, no source.)
+pub(super) fn temperature_check(
+    key: &str,
+    label: &str,
+    value: f64,
+    limit: f64,
+    ambient: f64,
+    corner: Option<Corner>,
+    note: String,
+) -> Check {
+    let mut k = check(key, label, value, limit, "°C", corner, note);
+    k.margin = (limit - value) / (limit - ambient).max(1.0);
+    k
+}
+
 pub(super) fn check(
     key: &str,
     label: &str,
@@ -262,7 +282,7 @@ pub(super) fn check(
         unit: unit.into(),
         margin,
         pass: value <= limit,
-        binding: false,
+        tight: false,
         corner,
         note,
     }

@@ -153,7 +153,7 @@ pub(super) fn attach(
                 None,
                 format!("the output choke could not be designed: {e}"),
             );
-            k.binding = true;
+            k.tight = true;
             r.checks.push(k);
             r.pass = false;
             return Ok(());
@@ -182,7 +182,7 @@ pub(super) fn attach(
     );
     k.margin = m;
     k.pass = choke.pass;
-    k.binding = !choke.pass || m < 0.1;
+    k.tight = !choke.pass || m < 0.1;
     r.checks.push(k);
     r.pass = r.pass && choke.pass;
     if design.spec.outputs.len() > 1 {
@@ -223,7 +223,7 @@ fn under_choke_core(e: Error) -> Error {
 
 /// The library cores in order of area product Wa·Ae, rings left out.
 fn by_area_product() -> Vec<&'static Core> {
-    let mut v: Vec<&Core> = cores::all().iter().filter(|c| c.family != "R").collect();
+    let mut v: Vec<&Core> = cores::all().iter().filter(|c| !c.is_one_piece()).collect();
     v.sort_by(|a, b| (a.ae * a.window_area).total_cmp(&(b.ae * b.window_area)));
     v
 }

@@ -21,7 +21,7 @@ pub(super) fn finish(
     prep: &Prepared,
     c: Candidate,
     n_design: f64,
-    b_limit: f64,
+    bpk_limit: f64,
     reason: String,
 ) -> Result<Report> {
     let spec = &design.spec;
@@ -170,7 +170,7 @@ pub(super) fn finish(
         }
     }
     if ch
-        .b_max
+        .bpk_limit
         .is_some_and(|b| b > material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin))
     {
         warnings.push(
@@ -204,7 +204,7 @@ pub(super) fn finish(
         turns: c.turns,
         turns_ratio: n_actual,
         turns_reason: reason,
-        b_limit,
+        bpk_limit,
         inductance: c.inductance,
         al: c.al,
         gap: c.gap,

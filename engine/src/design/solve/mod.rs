@@ -144,7 +144,7 @@ pub(super) fn solve(
     let ch = &design.choices;
     let n = sizing::turns_ratio(spec)?;
     let b_auto = material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin);
-    let b_limit = ch.b_max.unwrap_or(b_auto);
+    let b_limit = ch.bpk_limit.unwrap_or(b_auto);
     let lp_target = match spec.topology {
         Topology::Flyback => Some(sizing::flyback_lp(spec, n)?),
         Topology::Inductor => Some(topology::inductor::target_inductance(spec)?),
@@ -259,8 +259,8 @@ pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
         0.9,
         "",
     )?;
-    if let Some(b) = ch.b_max {
-        crate::error::in_range("choices.b_max", b, 0.001, 2.0, "T")?;
+    if let Some(b) = ch.bpk_limit {
+        crate::error::in_range("choices.bpk_limit", b, 0.001, 2.0, "T")?;
     }
     crate::error::in_range(
         "choices.window_utilisation",
@@ -431,6 +431,21 @@ mod tests {
                 d.name
             );
         }
+    }
+
+    #[test]
+    fn temperature_margins_are_shares_of_the_allowed_rise() {
+        let d = Design::demo_forward();
+        let r = evaluate(&d).unwrap();
+        for key in ["temperature", "curie"] {
+            let k = r.checks.iter().find(|k| k.key == key).unwrap();
+            let want = (k.limit - k.value) / (k.limit - d.spec.ambient);
+            assert!((k.margin - want).abs() < 1e-12, "{key}: {} vs {want}", k.margin);
+            assert!(k.margin > 0.0 && k.margin < 1.0);
+        }
+        // Not the share of the Celsius value.
+        let t = r.checks.iter().find(|k| k.key == "temperature").unwrap();
+        assert!((t.margin - (t.limit - t.value) / t.limit).abs() > 0.05);
     }
 
     #[test]

@@ -102,7 +102,7 @@ pub fn mode_check(c: &Conduction) -> Option<Check> {
         unit: String::new(),
         margin: if pass { margin.max(0.0) } else { margin.min(-1e-6) },
         pass,
-        binding: false,
+        tight: false,
         corner: Some(Corner::VinMin),
         note,
     })

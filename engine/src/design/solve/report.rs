@@ -22,11 +22,14 @@ pub struct Check {
     pub value: f64,
     pub limit: f64,
     pub unit: String,
-    /// (limit − value)/limit: positive passes, negative fails by that fraction.
+    /// (limit − value)/limit: positive passes, negative fails by that
+    /// fraction. For a temperature (unit °C) the share of the allowed rise
+    /// left, (limit − T)/(limit − ambient).
     pub margin: f64,
     pub pass: bool,
-    /// The tightest passing checks and every failing one.
-    pub binding: bool,
+    /// Tight: failing, the tightest passing check, or passing with under
+    /// 10 % margin (for a temperature, 10 % of the allowed rise; see `margin`).
+    pub tight: bool,
     /// Line corner the value belongs to, where it depends on the line.
     pub corner: Option<Corner>,
     pub note: String,
@@ -143,7 +146,7 @@ pub struct Report {
     /// Why Np is what it is.
     pub turns_reason: String,
     /// The Bpk limit used for the turns, T.
-    pub b_limit: f64,
+    pub bpk_limit: f64,
     /// Primary (flyback) or magnetising inductance, H.
     pub inductance: f64,
     /// AL of the core as wound, H/turn²: the gap's for a flyback, else the

@@ -1,5 +1,5 @@
-// Suggest a core: the optimiser run from the page, checked against the
-// native CLI's `magwright rank` for the same design file (the one the page
+// The optimiser run from the page, checked against the
+// native CLI's `magwright optimise` for the same design file (the one the page
 // keeps in localStorage), with Cancel, "Use" and the Pareto plot.
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
@@ -43,7 +43,7 @@ test('run: progress advances, the ranking matches the CLI, the Pareto plot is dr
   const { context, page, requests, errors } = await openPage(browser);
   const text = await designText(page);
   assert.ok(text, 'the page keeps its design in localStorage');
-  const want = cli(['rank', '-'], text);
+  const want = cli(['optimise', '-'], text);
   assert.ok(want.passed > 15, 'the demo design passes on many library candidates');
 
   // Progress: every evaluated count the page shows is recorded in the page
@@ -115,7 +115,7 @@ test('run: progress advances, the ranking matches the CLI, the Pareto plot is dr
 test('cancel mid-run keeps a partial ranking; the page stays usable while it runs', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = await designText(page);
-  const want = cli(['rank', '-'], text);
+  const want = cli(['optimise', '-'], text);
   const cores = cli(['cores']).map((c) => c.designation);
   const materials = cli(['materials']).map((m) => m.name);
   assert.equal(cores.length * materials.length, want.evaluated);
@@ -125,12 +125,12 @@ test('cancel mid-run keeps a partial ranking; the page stays usable while it run
 
   await page.click('[data-testid="suggest-run"]');
   await page.waitForFunction(() => Number(document.querySelector('[data-testid="suggest-evaluated"]').dataset.si) >= 24);
-  // The page still takes typing while the search runs.
+  // The page still takes typing while the optimiser runs.
   const before = await si(page, 'suggest-evaluated');
   await typeInto(page, 'ambient', '41');
   assert.equal(await page.inputValue('#f-ambient'), '41');
   assert.ok(await page.isEnabled('[data-testid="suggest-cancel"]'), 'still running after typing');
-  assert.ok((await si(page, 'suggest-evaluated')) > before, 'the search went on while typing');
+  assert.ok((await si(page, 'suggest-evaluated')) > before, 'the optimiser went on while typing');
   await page.click('[data-testid="suggest-cancel"]');
   await page.waitForSelector('[data-testid="suggest-partial"]');
   const stopped = await si(page, 'suggest-evaluated');
@@ -172,7 +172,7 @@ test('cancel mid-run keeps a partial ranking; the page stays usable while it run
 test('"Use" loads the candidate into the form and the results show its design', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = await designText(page);
-  const want = cli(['rank', '-'], text);
+  const want = cli(['optimise', '-'], text);
   const start = JSON.parse(text);
   await page.click('[data-testid="suggest-run"]');
   await page.waitForFunction(() => /^Done/.test(document.querySelector('[data-testid="suggest-status"]').textContent));

@@ -1,4 +1,4 @@
-//! Suggest a core: the engine's optimiser run from the page, with progress,
+//! The optimiser: the engine's optimiser run from the page, with progress,
 //! Cancel, the ranked list and the loss-against-volume Pareto plot.
 //!
 //! The search is the engine's own ([`Optimiser::over_library`]): every
@@ -234,7 +234,7 @@ fn cm3(v: f64) -> String {
 
 /// The optimiser panel.
 #[component]
-pub fn Suggest(form: Form) -> impl IntoView {
+pub fn OptimiserPanel(form: Form) -> impl IntoView {
     let run = Run::new();
     let order = RwSignal::new(Order::Loss);
     let show_all = RwSignal::new(false);
@@ -254,7 +254,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
         show_all.set(false);
         let design = untrack(|| form.parse()).map_err(|errs| {
             let fields: Vec<String> = errs.iter().map(|(k, _)| crate::form::label_of(k)).collect();
-            format!("Fix the marked entries first ({}): the search needs a readable specification.", fields.join(", "))
+            format!("Fix the marked entries first ({}): the optimiser needs a readable specification.", fields.join(", "))
         });
         run.start(design);
     };
@@ -275,7 +275,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
         let p = run.progress.get();
         let what = match run.phase.get() {
             Phase::Idle => return "Not run yet.".to_string(),
-            Phase::Running => "Searching",
+            Phase::Running => "Running",
             Phase::Finished => "Done",
             Phase::Cancelled => "Stopped",
             Phase::Failed(_) => return String::new(),
@@ -334,7 +334,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
     // the first run nothing has been tried.
     let missing_note = move || match run.phase.get() {
         Phase::Idle => "Not run yet.",
-        Phase::Running => "None passes yet; searching.",
+        Phase::Running => "None passes yet; the optimiser is running.",
         Phase::Cancelled => "No candidate evaluated so far passes every check.",
         Phase::Finished | Phase::Failed(_) => "No candidate passes every check.",
     };
@@ -400,7 +400,7 @@ pub fn Suggest(form: Form) -> impl IntoView {
             _ => None,
         }}
         <p class="note" data-testid="suggest-stale" class:hidden=move || !stale() || !has_ranking()>
-            "The specification has changed since this search: run again to rank for the current one."
+            "The specification has changed since this run: run again to rank for the current one."
         </p>
         <p class="status" data-testid="suggest-message" role="status" aria-live="polite">
             {move || message.get().unwrap_or_default()}

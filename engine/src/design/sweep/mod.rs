@@ -11,10 +11,44 @@
 //! loss has its minimum near Pcore/Pcu = 2/β (Erickson & Maksimovic 2nd ed.
 //! §15.3). The report gives that ratio at the minimum found.
 
+mod as_wound;
+mod envelope;
+pub mod range;
+
+pub use as_wound::{as_wound, as_wound_design};
+pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint};
+pub use range::{frequency_band, Band};
+
 use super::file::{Design, TurnsRule};
 use super::solve::{evaluate_with, Prepared, Report};
 use crate::error::{in_range, Error, Result};
+use crate::material::Material;
 use serde::Serialize;
+
+/// Which question a sweep answers.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Curve {
+    /// Redesigned at each frequency: turns, gap, wire and stack-up redone.
+    Redesigned,
+    /// This transformer as wound, at other frequencies: turns, conductors,
+    /// stack-up (and a flyback's Lp) fixed, what a bench measurement shows.
+    AsWound,
+    /// Loss against peak flux density at the design's frequency.
+    Flux,
+}
+
+/// What the swept variable is, and its unit (the x axis of a plot).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
+pub struct XAxis {
+    pub quantity: &'static str,
+    pub unit: &'static str,
+}
+
+/// The frequency sweeps' x axis.
+pub const FREQUENCY_AXIS: XAxis = XAxis { quantity: "switching frequency", unit: "Hz" };
+/// The flux sweep's x axis.
+pub const FLUX_AXIS: XAxis = XAxis { quantity: "peak flux density", unit: "T" };
 
 /// Loss figures of one swept design, at its operating temperature.
 #[derive(Debug, Clone, Copy, PartialEq, Serialize)]
@@ -34,8 +68,13 @@ pub struct PointValues {
 pub struct SweepPoint {
     /// The swept variable (Hz for frequency, T for flux density).
     pub x: f64,
-    /// Every check passes.
+    /// Every check passes and the material's loss data hold here.
     pub feasible: bool,
+    /// The material's loss data hold at this point: its `material_range`
+    /// check passes (frequency and ΔB/2 within the band of
+    /// [`crate::loss::range`]); where no design could be built, the
+    /// frequency alone decides ([`range`]).
+    pub in_data: bool,
     /// `None` where no design could be built.
     pub values: Option<PointValues>,
     /// Why the point is infeasible (empty when feasible).
@@ -45,8 +84,16 @@ pub struct SweepPoint {
 /// A sweep and its landmarks.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Sweep {
+    pub curve: Curve,
+    /// The swept variable's name and unit.
+    pub x_axis: XAxis,
+    /// The material's name and the frequency band of its loss data (the
+    /// plot shades it; frequency sweeps only).
+    pub material: String,
+    pub band: Option<Band>,
     pub points: Vec<SweepPoint>,
-    /// Index of the feasible point with the least total loss.
+    /// Index of the feasible point (checks pass, inside the material's
+    /// data) with the least total loss.
     pub minimum: Option<usize>,
     /// Pcore/Pcu at the minimum, and 2/β for comparison (flux sweep).
     pub ratio_at_minimum: Option<f64>,
@@ -66,17 +113,32 @@ fn values_of(r: &Report) -> PointValues {
     }
 }
 
-fn point(x: f64, r: Result<Report>) -> SweepPoint {
+/// One point from a design's report (or the error that stopped it): the
+/// failed checks' labels and, where the material's data do not hold,
+/// why, as the reason.
+/// `frequency_x`: the point's frequency where `x` is one (the frequency
+/// sweeps), so that a point with no design still says whether the data
+/// would hold there.
+fn point(x: f64, r: Result<Report>, material: &Material, frequency_x: Option<f64>) -> SweepPoint {
     match r {
         Ok(r) => {
             let failed: Vec<&str> = r.checks.iter().filter(|c| !c.pass).map(|c| c.label.as_str()).collect();
-            SweepPoint { x, feasible: r.pass, values: Some(values_of(&r)), reason: failed.join("; ") }
+            let in_data = range::report_in_data(&r);
+            SweepPoint { x, feasible: r.pass && in_data, in_data, values: Some(values_of(&r)), reason: failed.join("; ") }
         }
-        Err(e) => SweepPoint { x, feasible: false, values: None, reason: e.message().to_string() },
+        Err(e) => SweepPoint {
+            x,
+            feasible: false,
+            in_data: frequency_x.is_some_and(|f| range::frequency_in_data(material, f)),
+            values: None,
+            reason: e.message().to_string(),
+        },
     }
 }
 
-fn landmarks(points: Vec<SweepPoint>, beta: f64) -> Sweep {
+fn landmarks(curve: Curve, points: Vec<SweepPoint>, material: &Material) -> Sweep {
+    let beta = material.steinmetz.beta;
+    let band = (curve != Curve::Flux).then(|| frequency_band(material));
     let minimum = points
         .iter()
         .enumerate()
@@ -88,7 +150,8 @@ fn landmarks(points: Vec<SweepPoint>, beta: f64) -> Sweep {
         .and_then(|i| points[i].values)
         .filter(|v| v.copper > 0.0)
         .map(|v| v.core / v.copper);
-    Sweep { points, minimum, ratio_at_minimum, two_over_beta: 2.0 / beta }
+    let x_axis = if curve == Curve::Flux { FLUX_AXIS } else { FREQUENCY_AXIS };
+    Sweep { curve, x_axis, material: material.name.clone(), band, points, minimum, ratio_at_minimum, two_over_beta: 2.0 / beta }
 }
 
 /// Log-spaced frequencies from `f_min` to `f_max`, `n` ≥ 2 points.
@@ -118,10 +181,10 @@ pub fn frequency(design: &Design, f_min: f64, f_max: f64, n: usize) -> Result<Sw
         .into_iter()
         .map(|f| {
             d.spec.frequency = f;
-            point(f, evaluate_with(&d, &core, &material, &prep))
+            point(f, evaluate_with(&d, &core, &material, &prep), &material, Some(f))
         })
         .collect();
-    Ok(landmarks(points, material.steinmetz.beta))
+    Ok(landmarks(Curve::Redesigned, points, &material))
 }
 
 /// Loss against peak flux density at the design's frequency: primary turns
@@ -149,24 +212,25 @@ pub fn flux(design: &Design, n: usize) -> Result<Sweep> {
             d.choices.turns = TurnsRule::Primary { turns: np };
             let r = evaluate_with(&d, &core, &material, &prep);
             let b = r.as_ref().ok().and_then(|r| r.waveforms.get("b_peak").map(|w| w.value)).unwrap_or(0.0);
-            point(b, r)
+            point(b, r, &material, None)
         })
         .collect();
     points.sort_by(|a, b| a.x.total_cmp(&b.x));
-    Ok(landmarks(points, material.steinmetz.beta))
+    Ok(landmarks(Curve::Flux, points, &material))
 }
 
 /// The sweep as CSV: one row per point, SI units in the header.
 pub fn to_csv(s: &Sweep, x_name: &str) -> String {
     let mut out = format!(
-        "{x_name},feasible,primary_turns,b_peak_T,core_W,copper_dc_W,copper_ac_extra_W,copper_W,total_W,temperature_C,reason\n"
+        "{x_name},feasible,in_data,primary_turns,b_peak_T,core_W,copper_dc_W,copper_ac_extra_W,copper_W,total_W,temperature_C,reason\n"
     );
     for p in &s.points {
         match p.values {
             Some(v) => out.push_str(&format!(
-                "{},{},{},{},{},{},{},{},{},{},\"{}\"\n",
+                "{},{},{},{},{},{},{},{},{},{},{},\"{}\"\n",
                 p.x,
                 p.feasible,
+                p.in_data,
                 v.primary_turns,
                 v.b_peak,
                 v.core,
@@ -177,7 +241,7 @@ pub fn to_csv(s: &Sweep, x_name: &str) -> String {
                 v.temperature,
                 p.reason.replace('"', "'")
             )),
-            None => out.push_str(&format!("{},false,,,,,,,,,\"{}\"\n", p.x, p.reason.replace('"', "'"))),
+            None => out.push_str(&format!("{},false,false,,,,,,,,,\"{}\"\n", p.x, p.reason.replace('"', "'"))),
         }
     }
     out

@@ -1,0 +1,165 @@
+//! The best material at each frequency: an envelope over the library.
+//!
+//! At each frequency of a redesign sweep ([`super::frequency`]) the design
+//! is redone with every library material (and the design's own, when it is
+//! a custom one), and, as an option, every library core of the design's
+//! core family; the envelope keeps the least total loss among the points
+//! that pass every check inside their material's data, and names the
+//! material (and core) that gives it. Where the winner changes from one
+//! frequency to the next, the index is listed in `changes` (the plot marks
+//! them). Each point is a full design, so the envelope answers "which
+//! material should this converter use at this frequency", not a
+//! comparison of Steinmetz curves at one flux density.
+
+use super::{frequency, log_space, PointValues};
+use crate::core::library as cores;
+use crate::design::file::{CoreChoice, Design, MaterialChoice};
+use crate::error::Result;
+use crate::material::library as materials;
+use serde::Serialize;
+
+/// One frequency of the envelope.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct EnvelopePoint {
+    pub x: f64,
+    /// Some design passes every check inside its material's data here.
+    pub feasible: bool,
+    /// Some material's data hold here (its point's `in_data`), whether or
+    /// not its design passes the other checks.
+    pub in_data: bool,
+    /// The winner's material and core (`None` where nothing is feasible).
+    pub material: Option<String>,
+    pub core: Option<String>,
+    pub values: Option<PointValues>,
+    /// Why nothing is feasible (empty when something is).
+    pub reason: String,
+}
+
+/// The envelope and its landmarks.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Envelope {
+    /// The swept variable's name and unit (switching frequency, Hz).
+    pub x_axis: super::XAxis,
+    pub points: Vec<EnvelopePoint>,
+    /// Indices of the points whose winner (material, core) differs from the
+    /// previous feasible point's.
+    pub changes: Vec<usize>,
+    /// Index of the feasible point with the least total loss.
+    pub minimum: Option<usize>,
+    /// Every material and core tried.
+    pub materials: Vec<String>,
+    pub cores: Vec<String>,
+}
+
+/// The envelope over every library material (and the design's own custom
+/// one), on the design's core or, with `every_core`, on every library core
+/// of its family; `n` log-spaced frequencies from `f_min` to `f_max`.
+pub fn envelope(design: &Design, f_min: f64, f_max: f64, n: usize, every_core: bool) -> Result<Envelope> {
+    design.check_envelope()?;
+    let fs = log_space(f_min, f_max, n)?;
+    let own_core = design.resolve_core()?;
+    let mut mats: Vec<MaterialChoice> =
+        materials::materials().into_iter().map(|m| MaterialChoice::Library { name: m.name }).collect();
+    if let MaterialChoice::Custom { .. } = &design.material {
+        mats.push(design.material.clone());
+    }
+    let core_choices: Vec<CoreChoice> = if every_core {
+        let mut v: Vec<CoreChoice> = cores::all()
+            .iter()
+            .filter(|c| c.family == own_core.family)
+            .map(|c| CoreChoice::Library { designation: c.designation.clone() })
+            .collect();
+        if !matches!(design.core, CoreChoice::Library { .. }) || v.is_empty() {
+            v.push(design.core.clone());
+        }
+        v
+    } else {
+        vec![design.core.clone()]
+    };
+    let mut points: Vec<EnvelopePoint> = fs
+        .iter()
+        .map(|&x| EnvelopePoint {
+            x,
+            feasible: false,
+            in_data: false,
+            material: None,
+            core: None,
+            values: None,
+            reason: "no material passes every check inside its data here".into(),
+        })
+        .collect();
+    let (mut mat_names, mut core_names) = (Vec::new(), Vec::new());
+    for cc in &core_choices {
+        let mut d = design.clone();
+        d.core = cc.clone();
+        let Ok(core) = d.resolve_core() else { continue };
+        core_names.push(core.designation.clone());
+        for mc in &mats {
+            d.material = mc.clone();
+            let Ok(s) = frequency(&d, f_min, f_max, n) else { continue };
+            if !mat_names.contains(&s.material) {
+                mat_names.push(s.material.clone());
+            }
+            for (e, p) in points.iter_mut().zip(&s.points) {
+                e.in_data |= p.in_data;
+                let Some(v) = p.values.filter(|_| p.feasible) else { continue };
+                if e.values.is_none_or(|w| v.total < w.total) {
+                    *e = EnvelopePoint {
+                        x: e.x,
+                        feasible: true,
+                        in_data: true,
+                        material: Some(s.material.clone()),
+                        core: Some(core.designation.clone()),
+                        values: Some(v),
+                        reason: String::new(),
+                    };
+                }
+            }
+        }
+    }
+    let mut changes = Vec::new();
+    let mut last: Option<(&Option<String>, &Option<String>)> = None;
+    for (i, p) in points.iter().enumerate().filter(|(_, p)| p.feasible) {
+        if last.is_some_and(|l| l != (&p.material, &p.core)) {
+            changes.push(i);
+        }
+        last = Some((&p.material, &p.core));
+    }
+    let minimum = points
+        .iter()
+        .enumerate()
+        .filter_map(|(i, p)| p.values.filter(|_| p.feasible).map(|v| (i, v.total)))
+        .min_by(|a, b| a.1.total_cmp(&b.1))
+        .map(|(i, _)| i);
+    Ok(Envelope { x_axis: super::FREQUENCY_AXIS, points, changes, minimum, materials: mat_names, cores: core_names })
+}
+
+/// The envelope as CSV: one row per frequency, SI units in the header.
+pub fn envelope_csv(e: &Envelope) -> String {
+    let mut out = String::from(
+        "frequency_Hz,feasible,in_data,material,core,primary_turns,b_peak_T,core_W,copper_W,total_W,temperature_C,reason\n",
+    );
+    let q = |s: &str| format!("\"{}\"", s.replace('"', "'"));
+    for p in &e.points {
+        let (m, c) = (p.material.as_deref().unwrap_or(""), p.core.as_deref().unwrap_or(""));
+        match p.values {
+            Some(v) => out.push_str(&format!(
+                "{},{},{},{},{},{},{},{},{},{},{},{}\n",
+                p.x,
+                p.feasible,
+                p.in_data,
+                q(m),
+                q(c),
+                v.primary_turns,
+                v.b_peak,
+                v.core,
+                v.copper,
+                v.total,
+                v.temperature,
+                q(&p.reason)
+            )),
+            None => out.push_str(&format!("{},false,{},,,,,,,,,{}\n", p.x, p.in_data, q(&p.reason))),
+        }
+    }
+    out
+}
