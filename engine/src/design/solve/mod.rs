@@ -226,6 +226,9 @@ pub(super) fn solve(
                     if estimate < best.selection_total() {
                         // The interleaving chosen on the first design is kept.
                         let chosen = best.winding_choice.automatic.then(|| best.winding_choice.interleave.clone());
+                        // Both corners, as the design is then judged (the
+                        // trial was built at the first's worst corner only).
+                        let c = build(&cx, c.turns.primary).unwrap_or(c);
                         let c = search(c, chosen.as_deref())?;
                         if c.selection_total() < best.selection_total() {
                             best = c;
