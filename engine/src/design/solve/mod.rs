@@ -228,9 +228,10 @@ pub(super) fn solve(
                         let chosen = best.winding_choice.automatic.then(|| best.winding_choice.interleave.clone());
                         // Both corners, as the design is then judged (the
                         // trial was built at the first's worst corner only).
-                        let c = build(&cx, c.turns.primary).unwrap_or(c);
-                        let c = search(c, chosen.as_deref())?;
-                        if c.selection_total() < best.selection_total() {
+                        // A trial that cannot be built at both corners is
+                        // not taken: it would be judged at one corner only.
+                        let both = build(&cx, c.turns.primary).and_then(|c| search(c, chosen.as_deref()));
+                        if let Some(c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
                             best = c;
                             reason = format!(
                                 "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
