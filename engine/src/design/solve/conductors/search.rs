@@ -434,33 +434,21 @@ fn groups(needs: &[Need]) -> Vec<Vec<usize>> {
     out.into_iter().map(|(_, g)| g).collect()
 }
 
-type Best = (f64, Pattern, Vec<Vec<Option1>>, Vec<usize>, StackUp, FitReport, LossReport);
-
-/// Steps 1–3 (module docs) over the `patterns` left open.
-pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found> {
+/// Step 1 over every interleaving: per group of windings wound alike, the
+/// candidate conductors with their estimated loss and build (sorted by
+/// loss), and the least-loss pick that fits the build `limit_all` less the
+/// pattern's tapes. Patterns with no fitting pick are dropped.
+fn screen_patterns(
+    s: &Setting,
+    needs: &[Need],
+    patterns: &[Pattern],
+    gr: &[Vec<usize>],
+    win: &Window,
+    limit_all: f64,
+) -> Vec<(f64, Pattern, Vec<Vec<Option1>>, Vec<usize>)> {
     let turns: Vec<u32> = needs.iter().map(|n| n.turns).collect();
-    let win = Window {
-        breadth: s.breadth,
-        delta1: s.delta1,
-        rho: s.rho,
-        mlt: s.core.mlt_mid(),
-        interlayer: s.opts.interlayer.clone(),
-    };
-    let gr = groups(needs);
     let names: Vec<&str> = needs.iter().map(|n| n.name).collect();
     let own: Vec<(f64, Vec<(f64, f64)>)> = needs.iter().map(|n| (n.current.mean(), phasors(n.current))).collect();
-    let expand = |pick: &[usize], lists: &[Vec<Option1>]| -> Vec<(Conductor, u32)> {
-        let mut set = vec![(lists[0][pick[0]].conductor.clone(), 1); needs.len()];
-        for (g, members) in gr.iter().enumerate() {
-            for &m in members {
-                set[m] = (lists[g][pick[g]].conductor.clone(), lists[g][pick[g]].parallel);
-            }
-        }
-        set
-    };
-    let limit_all = BUILD_SHARE * s.core.winding_height;
-    let mut best: Option<Best> = None;
-    let mut tried = Vec::with_capacity(patterns.len());
     let mut screened = Vec::with_capacity(patterns.len());
     for pattern in patterns {
         let order = order_of(pattern, &turns);
@@ -479,7 +467,7 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
                         let mut loss = 0.0;
                         let mut build = 0.0;
                         for portion in portions.iter().copied() {
-                            let (a, b) = estimate(portion, &c, p, &win)?;
+                            let (a, b) = estimate(portion, &c, p, win)?;
                             loss += a;
                             build += b;
                         }
@@ -499,6 +487,103 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
         let estimated: f64 = pick.iter().zip(&lists).map(|(&j, l)| l[j].loss).sum();
         screened.push((estimated, pattern.clone(), lists, pick));
     }
+    screened
+}
+
+/// What the report says per winding: every conductor evaluated by the
+/// harmonic model (its loss and build, the chosen one marked), each other
+/// kind's best estimate (marked as not fitting where that is why), and the
+/// reason the winner won.
+fn trial_report(
+    needs: &[Need],
+    gr: &[Vec<usize>],
+    lists: &[Vec<Option1>],
+    chosen: &[usize],
+    evaluated: &[Vec<(usize, f64)>],
+    r: &LossReport,
+    limit: f64,
+) -> (Vec<Vec<ConductorTrial>>, Vec<String>) {
+    let mut trials = vec![Vec::new(); needs.len()];
+    let mut reasons = vec![String::new(); needs.len()];
+    for (g, members) in gr.iter().enumerate() {
+        let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
+        let mut t: Vec<ConductorTrial> = Vec::new();
+        let share = 1.0 / members.len() as f64;
+        for &(j, loss) in &evaluated[g] {
+            let o = &lists[g][j];
+            t.push(ConductorTrial {
+                kind: Kind::of(&o.conductor),
+                conductor: o.conductor.describe(),
+                parallel: o.parallel,
+                loss: loss * share,
+                build: o.build * share,
+                evaluated: true,
+                fits: true,
+                chosen: j == chosen[g],
+            });
+        }
+        // Kinds not evaluated: their best estimate, marked as not fitting
+        // where that is why.
+        for kind in [Kind::Round, Kind::TripleInsulated, Kind::Foil, Kind::Litz] {
+            if t.iter().any(|x| x.kind == kind) {
+                continue;
+            }
+            if let Some(o) = lists[g].iter().find(|o| Kind::of(&o.conductor) == kind) {
+                t.push(ConductorTrial {
+                    kind,
+                    conductor: o.conductor.describe(),
+                    parallel: o.parallel,
+                    loss: o.loss * share,
+                    build: o.build * share,
+                    evaluated: false,
+                    fits: others + o.build <= limit,
+                    chosen: false,
+                });
+            }
+        }
+        t.sort_by(|a, b| b.chosen.cmp(&a.chosen).then(a.loss.total_cmp(&b.loss)));
+        for &m in members {
+            // Each member's own loss for the chosen conductor.
+            let mut tm = t.clone();
+            if let Some(c) = tm.iter_mut().find(|x| x.chosen) {
+                c.loss = winding_loss(r, needs[m].name);
+            }
+            reasons[m] = reason(&needs[m], &tm, lists[g].len());
+            if members.len() > 1 {
+                reasons[m].push_str("; both halves wound alike");
+            }
+            trials[m] = tm;
+        }
+    }
+    (trials, reasons)
+}
+
+type Best = (f64, Pattern, Vec<Vec<Option1>>, Vec<usize>, StackUp, FitReport, LossReport);
+
+/// Steps 1–3 (module docs) over the `patterns` left open.
+pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found> {
+    let turns: Vec<u32> = needs.iter().map(|n| n.turns).collect();
+    let win = Window {
+        breadth: s.breadth,
+        delta1: s.delta1,
+        rho: s.rho,
+        mlt: s.core.mlt_mid(),
+        interlayer: s.opts.interlayer.clone(),
+    };
+    let gr = groups(needs);
+    let expand = |pick: &[usize], lists: &[Vec<Option1>]| -> Vec<(Conductor, u32)> {
+        let mut set = vec![(lists[0][pick[0]].conductor.clone(), 1); needs.len()];
+        for (g, members) in gr.iter().enumerate() {
+            for &m in members {
+                set[m] = (lists[g][pick[g]].conductor.clone(), lists[g][pick[g]].parallel);
+            }
+        }
+        set
+    };
+    let limit_all = BUILD_SHARE * s.core.winding_height;
+    let mut best: Option<Best> = None;
+    let mut tried = Vec::with_capacity(patterns.len());
+    let screened = screen_patterns(s, needs, patterns, &gr, &win, limit_all);
     // The harmonic model decides between the interleavings whose estimate is
     // within SCREEN_BAND of the least.
     let least = screened.iter().map(|x| x.0).fold(f64::INFINITY, f64::min);
@@ -568,58 +653,7 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
             e.1 = l;
         }
     }
-    let mut trials = vec![Vec::new(); needs.len()];
-    let mut reasons = vec![String::new(); needs.len()];
-    for (g, members) in gr.iter().enumerate() {
-        let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
-        let mut t: Vec<ConductorTrial> = Vec::new();
-        let share = 1.0 / members.len() as f64;
-        for &(j, loss) in &evaluated[g] {
-            let o = &lists[g][j];
-            t.push(ConductorTrial {
-                kind: Kind::of(&o.conductor),
-                conductor: o.conductor.describe(),
-                parallel: o.parallel,
-                loss: loss * share,
-                build: o.build * share,
-                evaluated: true,
-                fits: true,
-                chosen: j == chosen[g],
-            });
-        }
-        // Kinds not evaluated: their best estimate, marked as not fitting
-        // where that is why.
-        for kind in [Kind::Round, Kind::TripleInsulated, Kind::Foil, Kind::Litz] {
-            if t.iter().any(|x| x.kind == kind) {
-                continue;
-            }
-            if let Some(o) = lists[g].iter().find(|o| Kind::of(&o.conductor) == kind) {
-                t.push(ConductorTrial {
-                    kind,
-                    conductor: o.conductor.describe(),
-                    parallel: o.parallel,
-                    loss: o.loss * share,
-                    build: o.build * share,
-                    evaluated: false,
-                    fits: others + o.build <= limit,
-                    chosen: false,
-                });
-            }
-        }
-        t.sort_by(|a, b| b.chosen.cmp(&a.chosen).then(a.loss.total_cmp(&b.loss)));
-        for &m in members {
-            // Each member's own loss for the chosen conductor.
-            let mut tm = t.clone();
-            if let Some(c) = tm.iter_mut().find(|x| x.chosen) {
-                c.loss = winding_loss(&r, needs[m].name);
-            }
-            reasons[m] = reason(&needs[m], &tm, lists[g].len());
-            if members.len() > 1 {
-                reasons[m].push_str("; both halves wound alike");
-            }
-            trials[m] = tm;
-        }
-    }
+    let (trials, reasons) = trial_report(needs, &gr, &lists, &chosen, &evaluated, &r, limit);
     Some(Found {
         pattern,
         stackup: st,
