@@ -192,7 +192,9 @@ fn sections_of(order: &[(usize, u32)], n: usize) -> Vec<Vec<(u32, f64)>> {
         .collect()
 }
 
-fn section(c: &Conductor, turns: u32, parallel: u32) -> Section {
+/// A section of `turns` of `c`, `parallel` in hand, no margins or
+/// interlayer tape, layout left to the fit (what the search compares).
+pub(super) fn section(c: &Conductor, turns: u32, parallel: u32) -> Section {
     Section {
         winding: String::new(),
         turns,
