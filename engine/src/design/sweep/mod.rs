@@ -17,7 +17,7 @@ pub mod range;
 mod run;
 
 pub use as_wound::{as_wound, as_wound_design};
-pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint};
+pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint, EnvelopeSweep};
 pub use range::{frequency_band, Band};
 pub use run::FrequencySweep;
 
