@@ -44,7 +44,7 @@ use crate::form::{Outcome, Report};
 use crate::plot::{self, Axis, LineChart, Marker, Rgb, Series, Shade, Side};
 use crate::ui::PlotCanvas;
 use super::sweep_chart::{fail_runs, legend_of, sweep_chart};
-use super::sweep_run::SweepRun;
+use super::sweep_run::{Best, Curves, SweepRun};
 use leptos::prelude::*;
 use magwright_engine::design::{sweep, views, Design};
 use magwright_engine::notation;
@@ -231,29 +231,24 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
 
     // The sweep is run in slices, one per animation frame, started at once
     // by every change of the design (module docs, `sweep_run`).
-    let run = SweepRun::new();
+    let run = SweepRun::<Curves>::new();
     Effect::new(move |_| run.start(design.get()));
     let shown = run.shown;
     let swept = Memo::new(move |_| shown.with(|s| s.as_ref().map(|s| s.design.clone())));
-    let sweep = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.sweep.clone())));
-    let wound = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.wound.clone())));
+    let sweep = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.out.0.clone())));
+    let wound = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.out.1.clone())));
     let sweep_ms = move || shown.with(|s| s.as_ref().map(|s| s.ms));
-    // The sweep shown is for the design shown; else it is being recomputed.
-    let ready = move || swept.with(|s| design.with(|d| s == d));
     // The best material at each frequency: every library material is a
-    // sweep of its own, so it runs when asked for, not on every keystroke.
+    // sweep of its own, so it runs only when asked for, after the curves,
+    // for the design they are for (a run of its own, in slices too).
     let env_on = RwSignal::new(false);
-    let envelope = Memo::new(move |_| {
-        if !env_on.get() {
-            return None;
-        }
-        swept.with(|d| {
-            d.as_ref().and_then(|d| {
-                let (lo, hi) = sweep_range(d.spec.frequency);
-                sweep::envelope(d, lo, hi, ENVELOPE_POINTS, false).ok()
-            })
-        })
-    });
+    let env_run = SweepRun::<Best>::new();
+    Effect::new(move |_| env_run.start(if env_on.get() { swept.get() } else { None }));
+    let env_for = Memo::new(move |_| env_run.shown.with(|s| s.as_ref().map(|s| s.design.clone())));
+    let envelope = Memo::new(move |_| env_run.shown.with(|s| s.as_ref().and_then(|s| s.out.clone())));
+    // The sweep shown is for the design shown (and so is the envelope,
+    // when asked for); else it is being recomputed.
+    let ready = move || swept.with(|s| design.with(|d| s == d)) && (!env_on.get() || env_for.with(|e| swept.with(|s| e == s)));
 
     let mmf = Memo::new(move |_| {
         let c = corner.get();

@@ -18,69 +18,141 @@
 //! it is marked as being recomputed (`ready` false: the figure dimmed and
 //! `data-sweep-ready="false"`) until the run for the design shown ends.
 //!
+//! The best-material envelope, when asked for, is a run of the same kind
+//! (an engine [`EnvelopeSweep`], one sweep per library material) for the
+//! design of the last finished sweep.
+//!
 //! Nothing here computes a loss: the run only schedules the engine's
 //! sweep and keeps its result.
 
-use super::pictures::{sweep_range, SWEEP_POINTS};
+use super::pictures::{sweep_range, ENVELOPE_POINTS, SWEEP_POINTS};
 use leptos::prelude::*;
-use magwright_engine::design::sweep::{Curve, FrequencySweep, Sweep};
+use magwright_engine::design::sweep::{Curve, Envelope, EnvelopeSweep, FrequencySweep, Sweep};
 use magwright_engine::design::Design;
 
 /// Time a frame may spend on the sweep before yielding, ms: well inside a
 /// 16 ms frame, so typing and drawing stay smooth.
 pub const BUDGET_MS: f64 = 6.0;
 
-/// A finished run: the design swept, both curves, and the engine time the
-/// run took (its slices added up, not the frames between them), ms.
+/// Work that can be done a point at a time: a run's job.
+pub trait Sliced: 'static {
+    type Out: Clone + PartialEq + 'static;
+    /// The job for `design` (`None`: nothing to compute, [`Sliced::empty`] shown).
+    fn start(design: &Design) -> Option<Self>
+    where
+        Self: Sized;
+    /// Computes one more point; whether everything is computed.
+    fn step(&mut self) -> bool;
+    fn finish(self) -> Self::Out;
+    /// What is shown for a design that cannot be computed at all.
+    fn empty() -> Self::Out;
+}
+
+/// Both curves of the page's sweep: the redesigned one first.
+pub struct Curves {
+    redesigned: Option<FrequencySweep>,
+    wound: Option<FrequencySweep>,
+}
+
+impl Sliced for Curves {
+    /// The redesigned curve and the as-wound one (`None` where the design
+    /// cannot be swept; without the redesigned curve, neither is shown).
+    type Out = (Option<Sweep>, Option<Sweep>);
+
+    fn start(design: &Design) -> Option<Curves> {
+        let (lo, hi) = sweep_range(design.spec.frequency);
+        Some(Curves {
+            redesigned: FrequencySweep::new(design, lo, hi, SWEEP_POINTS, Curve::Redesigned).ok(),
+            wound: FrequencySweep::new(design, lo, hi, SWEEP_POINTS, Curve::AsWound).ok(),
+        })
+    }
+
+    fn step(&mut self) -> bool {
+        let next = [self.redesigned.as_mut(), self.wound.as_mut()].into_iter().flatten().find(|s| !s.is_finished());
+        match next {
+            Some(s) => {
+                s.step(1);
+                [&self.redesigned, &self.wound].into_iter().flatten().all(FrequencySweep::is_finished)
+            }
+            None => true,
+        }
+    }
+
+    fn finish(self) -> Self::Out {
+        let sweep = self.redesigned.map(FrequencySweep::finish);
+        let wound = sweep.as_ref().and(self.wound).map(FrequencySweep::finish);
+        (sweep, wound)
+    }
+
+    fn empty() -> Self::Out {
+        (None, None)
+    }
+}
+
+/// The best library material at each frequency, over the sweep's range.
+pub struct Best(EnvelopeSweep);
+
+impl Sliced for Best {
+    type Out = Option<Envelope>;
+
+    fn start(design: &Design) -> Option<Best> {
+        let (lo, hi) = sweep_range(design.spec.frequency);
+        EnvelopeSweep::new(design, lo, hi, ENVELOPE_POINTS, false).ok().map(Best)
+    }
+
+    fn step(&mut self) -> bool {
+        self.0.step(1)
+    }
+
+    fn finish(self) -> Self::Out {
+        Some(self.0.finish())
+    }
+
+    fn empty() -> Self::Out {
+        None
+    }
+}
+
+/// A finished run: the design it is for, what was computed, and the engine
+/// time the run took (its slices added up, not the frames between them), ms.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Swept {
+pub struct Done<T> {
     pub design: Design,
-    /// `None` where the design cannot be swept.
-    pub sweep: Option<Sweep>,
-    pub wound: Option<Sweep>,
+    pub out: T,
     pub ms: f64,
 }
 
 /// A run in progress.
-struct Job {
+struct Job<J> {
     design: Design,
-    redesigned: Option<FrequencySweep>,
-    wound: Option<FrequencySweep>,
+    work: Option<J>,
     ms: f64,
 }
 
-impl Job {
-    /// The sweep with points left to compute, redesigned first.
-    fn next(&mut self) -> Option<&mut FrequencySweep> {
-        [self.redesigned.as_mut(), self.wound.as_mut()].into_iter().flatten().find(|s| !s.is_finished())
-    }
-
-    fn finish(self) -> Swept {
-        let sweep = self.redesigned.map(FrequencySweep::finish);
-        // Without the redesigned curve the figure shows nothing.
-        let wound = sweep.as_ref().and(self.wound).map(FrequencySweep::finish);
-        Swept { design: self.design, sweep, wound, ms: self.ms }
-    }
-}
-
-/// The sweep's state: `Copy` handles, so frame callbacks can carry it.
-#[derive(Clone, Copy)]
-pub struct SweepRun {
-    job: StoredValue<Option<Job>, LocalStorage>,
+/// A run's state: `Copy` handles, so frame callbacks can carry it.
+pub struct SweepRun<J: Sliced> {
+    job: StoredValue<Option<Job<J>>, LocalStorage>,
     generation: StoredValue<u64>,
     /// The last finished run (what the figure shows).
-    pub shown: RwSignal<Option<Swept>>,
+    pub shown: RwSignal<Option<Done<J::Out>>, LocalStorage>,
     /// Runs dropped unfinished because the design changed (a count, shown
     /// as `data-sweep-dropped` for the tests).
     pub dropped: RwSignal<u64>,
 }
 
-impl SweepRun {
+impl<J: Sliced> Clone for SweepRun<J> {
+    fn clone(&self) -> Self {
+        *self
+    }
+}
+impl<J: Sliced> Copy for SweepRun<J> {}
+
+impl<J: Sliced> SweepRun<J> {
     pub fn new() -> Self {
         SweepRun {
             job: StoredValue::new_local(None),
             generation: StoredValue::new(0),
-            shown: RwSignal::new(None),
+            shown: RwSignal::new_local(None),
             dropped: RwSignal::new(0),
         }
     }
@@ -102,11 +174,9 @@ impl SweepRun {
             return;
         }
         let t0 = js_sys::Date::now();
-        let (lo, hi) = sweep_range(design.spec.frequency);
-        let redesigned = FrequencySweep::new(&design, lo, hi, SWEEP_POINTS, Curve::Redesigned).ok();
-        let wound = FrequencySweep::new(&design, lo, hi, SWEEP_POINTS, Curve::AsWound).ok();
+        let work = J::start(&design);
         let ms = js_sys::Date::now() - t0;
-        self.job.set_value(Some(Job { design, redesigned, wound, ms }));
+        self.job.set_value(Some(Job { design, work, ms }));
         request_animation_frame(move || self.frame(generation));
     }
 
@@ -117,19 +187,15 @@ impl SweepRun {
             return;
         }
         let t0 = js_sys::Date::now();
-        let mut finished = false;
+        let mut finished = true;
         self.job.update_value(|j| {
-            let Some(j) = j else {
-                finished = true;
-                return;
-            };
-            while let Some(s) = j.next() {
-                s.step(1);
-                if js_sys::Date::now() - t0 > BUDGET_MS {
-                    break;
+            let Some(j) = j else { return };
+            if let Some(w) = j.work.as_mut() {
+                finished = false;
+                while !finished && js_sys::Date::now() - t0 <= BUDGET_MS {
+                    finished = w.step();
                 }
             }
-            finished = j.next().is_none();
             j.ms += js_sys::Date::now() - t0;
         });
         if !finished {
@@ -138,8 +204,9 @@ impl SweepRun {
         }
         let mut job = None;
         self.job.update_value(|j| job = j.take());
-        if let Some(job) = job {
-            self.shown.set(Some(job.finish()));
+        if let Some(j) = job {
+            let out = j.work.map_or_else(J::empty, J::finish);
+            self.shown.set(Some(Done { design: j.design, out, ms: j.ms }));
         }
     }
 }
