@@ -86,8 +86,14 @@ async function wasmSamples(browser, file, scale) {
 
 // Runs in the page before its own scripts (see the header comment).
 function instrument(resultSelector) {
-  const mw = { lastMut: 0, lastDraw: 0, draws: 0, firstResult: null, firstDraw: null, key: null, frame: null, changes: [], sweepDone: null };
+  const mw = { lastMut: 0, lastDraw: 0, draws: 0, firstResult: null, firstDraw: null, key: null, frame: null, changes: [], sweepDone: null, rafs: [] };
   window.__mwBench = mw;
+  // The start of every animation-frame callback (the sweep's slices run in them).
+  const raf = window.requestAnimationFrame.bind(window);
+  window.requestAnimationFrame = (cb) => raf((ts) => {
+    if (mw.rafs.length < 100000) mw.rafs.push(performance.now());
+    return cb(ts);
+  });
   const P = CanvasRenderingContext2D.prototype;
   for (const name of ['clearRect', 'fillRect', 'strokeRect', 'fill', 'stroke', 'fillText', 'strokeText', 'drawImage', 'putImageData']) {
     const orig = P[name];
@@ -137,10 +143,10 @@ async function openInstrumented(browser, url, o) {
   return { context, page, requests, watch, ready: t.ready };
 }
 
-// The page's frequency sweep runs in slices over the frames after the
-// keystroke (web/src/panels/sweep_run.rs) and changes nothing in the DOM
-// until it ends (its figure's data-sweep-ready turns "true"): the
-// changes before that belong to the keystroke itself.
+// The page's frequency sweep runs in slices, in the animation frames after
+// the keystroke (web/src/panels/sweep_run.rs), and changes nothing in the
+// DOM until the frame in which it ends (its figure's data-sweep-ready turns
+// "true"): the changes before that frame belong to the keystroke itself.
 
 const median = (xs) => { const s = [...xs].sort((a, b) => a - b); const m = s.length >> 1; return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2; };
 
@@ -173,7 +179,7 @@ async function pageTimings(browser, o) {
       const el = document.querySelector(s);
       el.focus();
       el.setSelectionRange(0, 1);
-      Object.assign(window.__mwBench, { lastMut: 0, lastDraw: 0, draws: 0, key: null, frame: null, changes: [], sweepDone: null });
+      Object.assign(window.__mwBench, { lastMut: 0, lastDraw: 0, draws: 0, key: null, frame: null, changes: [], sweepDone: null, rafs: [] });
     }, sel);
     await page.keyboard.type(digit); // one real keystroke: keydown, input, keyup
     const settled = page.waitForFunction(() => {
@@ -195,13 +201,16 @@ async function pageTimings(browser, o) {
     if (r.plot && r.draws === 0) throw new Error(`editing ${sel} to "${value}" did not redraw the plot`);
     if (i < 2) continue; // warm-up edits (first compilation tiers) are not counted
     const done = Math.max(r.lastMut, r.lastDraw);
-    // What the keystroke itself renders is everything before the sweep's
-    // run ends; the sweep is drawn for this value by the last change.
-    const end = r.sweepDone ?? Infinity;
+    // What the keystroke itself renders is everything before the frame
+    // callback in which the sweep's run ended (the last one to start before
+    // its figure turned ready; the observer sees that only after the
+    // callback's own drawing); the sweep is drawn for this value by the
+    // last change.
+    const end = r.sweepDone === null ? Infinity : Math.max(r.key, ...r.rafs.filter((t) => t <= r.sweepDone));
     const immediate = Math.max(r.key, ...r.changes.filter((t) => t < end));
     edits.push(immediate - r.key);
     if (r.sweepDone !== null) sweeps.push(done - r.key);
-    if (r.frame >= done) frames.push(r.frame - r.key);
+    if (r.frame >= immediate) frames.push(r.frame - r.key);
   }
   const { errors } = watch;
   await context.close();
