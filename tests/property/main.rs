@@ -26,6 +26,7 @@
 //! Bounded: 256 cases per property (fewer for the sweeps), fixed seeds via
 //! proptest's deterministic runner, no failure files written.
 
+mod conductor_scan;
 mod design;
 mod finite;
 mod fuzz;

@@ -174,8 +174,10 @@ pub mod ix {
     pub const LAYER_WRAPS: usize = 25;
     pub const TAPE: usize = 26;
     pub const FLANGE: usize = 27;
-    pub const LOSS_SHARE: usize = 28;
-    pub const COUNT: usize = 29;
+    pub const MAX_PARALLEL: usize = 28;
+    pub const CLAMP: usize = 29;
+    pub const LOSS_SHARE: usize = 30;
+    pub const COUNT: usize = 31;
 }
 
 /// Every numeric entry except the outputs, in [`ix`] order.
@@ -226,6 +228,14 @@ pub const NUMS: [NumDef; ix::COUNT] = [
     NumDef {
         optional: true,
         ..mm("choices.insulation.margin", "Flange margin", Group::Winding, "Margin tape at each flange, mm; empty: from the isolation class")
+    },
+    NumDef {
+        whole: true,
+        ..num("choices.max_parallel", "Most wires in hand", "", Group::Winding, "Round wires in parallel the automatic conductor may use; beyond it litz or foil")
+    },
+    NumDef {
+        optional: true,
+        ..num("choices.clamp_voltage", "Clamp voltage", "V", Group::Converter, "Voltage across the leakage clamp; empty: 1.5 × the reflected (flyback) or reset voltage")
     },
     pct(
         "choices.magnetic_loss_share",
@@ -411,6 +421,8 @@ fn values(d: &Design) -> [Option<f64>; ix::COUNT] {
         Some(f64::from(ch.insulation.interlayer_wraps)),
         Some(ch.insulation.tape_thickness),
         ch.insulation.margin,
+        Some(f64::from(ch.max_parallel)),
+        ch.clamp_voltage,
         Some(ch.magnetic_loss_share),
     ]
 }
@@ -618,6 +630,8 @@ impl Form {
             },
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],
+            max_parallel: whole(ix::MAX_PARALLEL),
+            clamp_voltage: vals[ix::CLAMP],
             magnetic_loss_share: g(ix::LOSS_SHARE),
             choke_core: self.choke_core.get(),
         };

@@ -169,6 +169,12 @@ pub struct Choices {
     pub edge_time: f64,
     /// The switch's voltage rating to check against, V (`None`: not checked).
     pub switch_voltage_rating: Option<f64>,
+    /// Most round wires in hand the automatic conductor may use; beyond it
+    /// the search uses litz or foil. Default 6 (common practice, no source).
+    pub max_parallel: u32,
+    /// Voltage across the leakage clamp, V (`None`: the default of
+    /// `design::clamp`, 1.5 × the reflected or reset voltage).
+    pub clamp_voltage: Option<f64>,
     /// The magnetic's share of the converter's loss budget Pin − Pout (Pin
     /// = Pout/η from the spec's efficiency): the `loss_budget` check fails
     /// a design whose magnetic loses more. 0.01 to 1; default
@@ -202,6 +208,8 @@ impl Default for Choices {
             insulation: Insulation::default(),
             edge_time: 0.0,
             switch_voltage_rating: None,
+            max_parallel: 6,
+            clamp_voltage: None,
             magnetic_loss_share: DEFAULT_MAGNETIC_LOSS_SHARE,
             choke_core: None,
         }

@@ -8,6 +8,7 @@
 //! * [`material_view`]: a material's Pv–B loss curves for the page's chart.
 //! * [`upgrade`]: older design files converted to the current version.
 
+pub mod clamp;
 pub mod file;
 mod load;
 pub mod material_view;

@@ -19,7 +19,8 @@
 //!   Ipk = √(2·Psec/(Lp·f)), D = Lp·Ipk·f/Vin, and the demagnetising time is
 //!   t2 = Lp·Ipk/Vor. Then the current is zero until the next period
 //!   (ringing of the drain node is not modelled).
-//! * Switch off-state voltage Vin + Vor, leakage spike not modelled.
+//! * Switch off-state voltage Vin + Vor (flat top; the leakage spike and
+//!   its clamp are in `design::clamp`).
 //! * Flux B = Lp·i_m/(Np·Ae), i_m the magnetising current referred to the
 //!   primary.
 //! * Secondaries share the magnetising ampere-turns during the off-time:
@@ -99,11 +100,8 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     if s.d > spec.duty_max * (1.0 + 1e-12) {
         return Err(duty_error(ctx, vin, s.d));
     }
-    let mut warnings = vec![
-        "switch voltage is the flat top Vin + Vor; the leakage-inductance spike on top of it is set by \
-         the clamp and is not modelled"
-            .to_string(),
-    ];
+    // The leakage spike on the flat top Vin + Vor is the clamp's (design::clamp).
+    let mut warnings = Vec::new();
 
     let t_on = s.d * t;
     let t_off = s.d2 * t;

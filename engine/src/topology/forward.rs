@@ -71,10 +71,8 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
             ),
         ));
     }
-    let mut warnings = vec![
-        "switch voltage is the flat-top clamp value; the leakage-inductance spike is not modelled"
-            .to_string(),
-    ];
+    // The leakage spike on the flat top is the clamp's (design::clamp).
+    let mut warnings = Vec::new();
     if spec.duty_max > d_lim + 1e-12 {
         warnings.push(format!(
             "duty_max {} exceeds the reset limit {d_lim:.3}: a transient at full duty would not reset the core",

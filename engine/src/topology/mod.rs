@@ -17,9 +17,10 @@
 //!
 //! * Steady state, ideal switches and rectifiers (the rectifier drop of
 //!   each output is added to its voltage), lossless magnetic with perfect
-//!   coupling: **leakage inductance, its voltage spike on the switch and
-//!   ringing are not modelled**; the switch voltages are the flat-top
-//!   values a clamp or snubber must then hold.
+//!   coupling here: the switch voltages are the flat-top values; the
+//!   leakage spike on top and the clamp that holds it are computed from
+//!   the wound stack-up's leakage in `design::clamp`; ringing is not
+//!   modelled.
 //! * The first output is the regulated one. The others follow the volts
 //!   per turn of their own windings (cross-regulation is ideal); when the
 //!   integer turns put an output more than 3 % off its target, a warning
@@ -160,7 +161,8 @@ pub struct OperatingPoint {
     /// half bridge) per on-time,
     /// V·s: Np = this/(ΔB·Ae).
     pub volt_seconds: f64,
-    /// Off-state voltage of each switch, V (flat top; no leakage spike).
+    /// Off-state voltage of each switch, V (flat top; the leakage spike
+    /// and its clamp are in `design::clamp`).
     pub switch_voltage: f64,
     pub switch_peak_current: f64,
     pub switch_rms_current: f64,

@@ -82,14 +82,7 @@ pub(crate) fn operating_point(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
         ),
         _ => {}
     }
-    warnings.push(format!(
-        "switch voltage is the flat top {}; the leakage-inductance spike is not modelled",
-        if topo == Topology::PushPull {
-            "2·Vin"
-        } else {
-            "Vin"
-        }
-    ));
+    // The leakage spike on the flat top is the clamp's (design::clamp).
     let im = match ctx.lp {
         Some(lm) => vp * t_on / (2.0 * lm),
         None => {

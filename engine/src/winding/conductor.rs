@@ -246,7 +246,9 @@ impl Conductor {
                         ),
                     ));
                 }
-                crate::error::non_negative(&f("serving"), l.serving, "m")?;
+                if !(l.serving.is_finite() && l.serving >= 0.0) {
+                    crate::error::non_negative(&f("serving"), l.serving, "m")?;
+                }
             }
             Conductor::Foil(fo) => {
                 at_least_1um("thickness", fo.thickness)?;
@@ -322,6 +324,29 @@ impl Conductor {
     }
 }
 
+/// Strand gauges (AWG) of the litz constructions the automatic choice may
+/// use, coarsest first. Common practice, no source: the gauges litz is
+/// commonly made of.
+pub const LITZ_STRAND_AWG: [i32; 9] = [30, 32, 33, 36, 38, 40, 42, 44, 46];
+
+/// Strand counts of the litz constructions the automatic choice may use,
+/// fewest first. Common practice, no source: typical counts of stock litz.
+pub const LITZ_STRAND_COUNTS: [u32; 24] = [
+    7, 10, 16, 20, 25, 30, 40, 50, 60, 75, 100, 120, 150, 175, 200, 250, 300, 400, 500, 600, 800,
+    1000, 1200, 1500,
+];
+
+/// Packing factor and serving of the automatic litz constructions
+/// (common practice, no source; see [`Conductor::litz`]).
+pub const LITZ_PACKING: f64 = 0.65;
+pub const LITZ_SERVING: f64 = 0.03e-3;
+
+/// Litz of the table ([`LITZ_STRAND_AWG`] × [`LITZ_STRAND_COUNTS`]), grade 1
+/// strands with the table's packing and serving.
+pub fn table_litz(strands: u32, strand_awg: i32) -> Result<Conductor> {
+    Conductor::litz_awg(strands, strand_awg, Grade::G1, LITZ_PACKING, LITZ_SERVING)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -364,5 +389,21 @@ mod tests {
         assert!(Conductor::litz(10, 0.1e-3, Grade::G1, 0.95, 0.0).is_err());
         assert!(Conductor::triple_insulated(0.5e-3, 0.4e-3).is_err());
         assert!(Conductor::metric(0.0, Grade::G1).is_err());
+    }
+
+    #[test]
+    fn litz_table_is_ordered_and_buildable() {
+        // Common practice, no source: coarsest gauge first, fewest strands first,
+        // every entry a valid conductor.
+        assert!(LITZ_STRAND_AWG.windows(2).all(|w| w[0] < w[1]));
+        assert!(LITZ_STRAND_COUNTS.windows(2).all(|w| w[0] < w[1]));
+        for g in LITZ_STRAND_AWG {
+            for n in LITZ_STRAND_COUNTS {
+                let c = table_litz(n, g).unwrap();
+                // Copper area n·π·d²/4 with d from ASTM B258.
+                let d = awg_diameter(g).unwrap();
+                assert!((c.copper_area() - n as f64 * round_area(d)).abs() < 1e-12 * c.copper_area().max(1e-12));
+            }
+        }
     }
 }

@@ -11,10 +11,12 @@
 //! * [`pictures`]: waveforms, flux against the saturation limit, the
 //!   frequency sweep; its chart (both curves, the envelope, the data band)
 //!   in `sweep_chart`.
-//! * [`windings`]: the stack-up table and editor, the window to scale, the MMF.
+//! * [`windings`]: the stack-up table and editor, the window to scale, the MMF;
+//!   [`conductor_choice`] why each conductor (the search's trials).
 //! * [`optimiser`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
 
+pub mod conductor_choice;
 pub mod library;
 pub mod material_curves;
 pub mod pictures;

@@ -1,7 +1,9 @@
 //! Results at a glance: a verdict line, the safety cautions, the checks
 //! that decide the design (failing first, tight ones marked, each with
 //! its margin and worst line corner), then the key figures, why the turns
-//! are what they are, the thermal iteration, and the engine's warnings.
+//! are what they are, the leakage clamp (switch peak and clamp loss, a
+//! converter loss shown apart), the thermal iteration, and the engine's
+//! warnings.
 //!
 //! Every number is a report field;
 //! nothing is computed here beyond unit changes for display.
@@ -358,6 +360,7 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
                     {tile("fill", "Window build / copper fill", format!("{:.0} % / {:.0} %", fit.build_fraction * 100.0, fit.fill_factor * 100.0), fit.fill_factor, format!("{} of {}", mm(fit.total_build), mm(fit.available_build)))}
                     {sw_v.map(|(v, c)| tile("switch-voltage", "Switch off-state voltage", notation::format(v, "V", 3), v, format!("flat top, {}", corner_name(Some(c)))))}
                     {sw_i.map(|(i, c)| tile("switch-peak", "Switch peak current", notation::format(i, "A", 3), i, corner_name(Some(c)).to_string()))}
+                    {clamp_tiles(&r)}
                 </div>
                 <p class="core-note" data-testid="turns-reason">{format!("Turns: {}.", r.turns_reason)}</p>
                 <p class="thermal-note" data-testid="thermal-note">{thermal_note}</p>
@@ -371,6 +374,40 @@ pub fn Results(outcome: Memo<Outcome>) -> impl IntoView {
         <style>{CSS}</style>
         <div class="results-body">{body}</div>
     }
+}
+
+/// The leakage spike under its clamp and the clamp's loss (a converter
+/// loss, apart from the magnetic's): `report.clamp`.
+fn clamp_tiles(r: &Report) -> Option<impl IntoView> {
+    use magwright_engine::design::clamp::ClampKind;
+    let c = r.clamp.as_ref()?;
+    let at_v = c.corners.iter().find(|p| p.corner == c.voltage_corner)?;
+    let at_p = c.corners.iter().find(|p| p.corner == c.dissipation_corner)?;
+    let v_sub = match c.kind {
+        ClampKind::Dissipative => format!(
+            "Vin + Vc, Vc {}{}, {}",
+            notation::format(at_v.clamp_voltage, "V", 3),
+            if c.default_voltage { " (1.5·Vr)" } else { "" },
+            corner_name(Some(c.voltage_corner))
+        ),
+        ClampKind::Rail => format!("clamped to the rail, {}", corner_name(Some(c.voltage_corner))),
+    };
+    let (p_label, p, p_sub) = match c.kind {
+        ClampKind::Dissipative => (
+            "Clamp dissipation (converter)",
+            c.dissipation,
+            format!("½·Llk·Ipk²·f·Vc/(Vc − Vr), {}", corner_name(Some(c.dissipation_corner))),
+        ),
+        ClampKind::Rail => (
+            "Leakage energy returned",
+            at_p.returned,
+            format!("½·Llk·Ipk² per turn-off, {}", corner_name(Some(c.dissipation_corner))),
+        ),
+    };
+    Some(view! {
+        {tile("clamp-switch-peak", "Switch peak with the leakage clamp", notation::format(c.switch_peak_voltage, "V", 3), c.switch_peak_voltage, v_sub)}
+        {tile("clamp-loss", p_label, notation::format(p, "W", 3), p, p_sub)}
+    })
 }
 
 /// The output choke's design (forward, push-pull, bridges): its own

@@ -3,7 +3,8 @@
 //! * The table of windings: turns, conductor and conductors in hand, RMS
 //!   current, DC resistance, the AC factor Fr and the loss of each, at the
 //!   operating temperature and loss corner (the report's
-//!   `operating.copper`); the loss of every layer on demand.
+//!   `operating.copper`); the loss of every layer on demand; why each
+//!   conductor was chosen ([`super::conductor_choice`]).
 //! * The editor: interleaving, a conductor fixed per winding ("automatic"
 //!   hands it back to the solver), insulation and window use. Every edit
 //!   goes into the form and the design is recomputed at once; when the
@@ -744,6 +745,7 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         outcome.get().ok().map(|r| {
             view! {
                 {table(&r)}
+                {super::conductor_choice::conductor_choice(&r)}
                 <h3>"As wound, bobbin outward"</h3>
                 {order_list(&r)}
                 <p class="core-note">{format!("Core {} in {}; gap {}.", r.core.designation, r.material.name, gap_text(&r))}</p>

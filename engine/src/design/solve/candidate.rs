@@ -26,6 +26,7 @@ pub(super) struct Candidate {
     pub(super) stackup: StackUp,
     pub(super) fit: FitReport,
     pub(super) wires: Vec<WireSummary>,
+    pub(super) winding_choice: WindingChoice,
     pub(super) corners: Vec<CornerLosses>,
 }
 
@@ -140,26 +141,9 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
         }
     };
     let waves = topology::worst_case(spec, &turns, Some(inductance), core.ae)?;
-    let names: Vec<(String, u32, f64)> = waves
-        .at_vin_min
-        .windings
-        .iter()
-        .map(|w| {
-            let other = waves
-                .at_vin_max
-                .windings
-                .iter()
-                .find(|x| x.name == w.name)
-                .map_or(0.0, |x| x.rms);
-            (w.name.clone(), w.turns, w.rms.max(other))
-        })
-        .collect();
-    // Losses for choosing are taken at the core temperature limit, kept below the
-    // Curie temperature where the loss model ends (the Curie check reports it).
-    let t_sel = spec.temperature_max.min(material.curie_c - 5.0);
-    let rho = copper_resistivity(t_sel)?;
-    let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
-    let (stackup, fit, wires) = choose_stackup(design, core, &names, delta)?;
+    let names = winding_names(&waves);
+    let (t_sel, _, delta) = selection_copper(spec, material)?;
+    let (stackup, fit, wires, winding_choice) = choose_stackup(design, core, &names, delta)?;
     let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
     let opts = LossOptions {
         edge_time: ch.edge_time,
@@ -193,8 +177,89 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
         stackup,
         fit,
         wires,
+        winding_choice,
         corners,
     })
+}
+
+/// Each winding's name, turns and larger RMS current of the two corners.
+fn winding_names(waves: &WorstCase) -> Vec<(String, u32, f64)> {
+    waves
+        .at_vin_min
+        .windings
+        .iter()
+        .map(|w| {
+            let other = waves
+                .at_vin_max
+                .windings
+                .iter()
+                .find(|x| x.name == w.name)
+                .map_or(0.0, |x| x.rms);
+            (w.name.clone(), w.turns, w.rms.max(other))
+        })
+        .collect()
+}
+
+/// The selection temperature, copper resistivity there and the skin depth
+/// at the switching frequency. Losses for choosing are taken at the core
+/// temperature limit, kept below the Curie temperature where the loss
+/// model ends (the Curie check reports it).
+fn selection_copper(spec: &topology::Spec, material: &Material) -> Result<(f64, f64, f64)> {
+    let t_sel = spec.temperature_max.min(material.curie_c - 5.0);
+    let rho = copper_resistivity(t_sel)?;
+    let delta = (rho / (std::f64::consts::PI * spec.frequency * MU0)).sqrt();
+    Ok((t_sel, rho, delta))
+}
+
+/// Step 5 once on the chosen turns: the least-loss conductor search
+/// (`conductors::search_stackup`) replaces the trials' allocation by area,
+/// and the copper loss of each corner the candidate holds is evaluated
+/// again with it (the core loss does not depend on the conductors). The
+/// conductors are chosen by their loss at the corner with the larger
+/// primary RMS current. A candidate whose every conductor is fixed, or for
+/// which no automatic set fits, is returned as it is. `interleave_as`: an
+/// automatic interleaving already chosen by loss on other turns, kept.
+pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, interleave_as: Option<&str>) -> Result<Candidate> {
+    let spec = &cx.design.spec;
+    let (t_sel, rho, delta) = selection_copper(spec, cx.material)?;
+    let waves = &c.waves;
+    let sel_op = if waves.at_vin_max.windings.first().map_or(0.0, |w| w.rms)
+        > waves.at_vin_min.windings.first().map_or(0.0, |w| w.rms)
+    {
+        &waves.at_vin_max
+    } else {
+        &waves.at_vin_min
+    };
+    let sel_currents = currents_of(spec.topology, sel_op);
+    let setting = LossSetting {
+        currents: &sel_currents,
+        temperature: t_sel,
+        rho,
+    };
+    let names = winding_names(waves);
+    let Some((stackup, fit, wires, winding_choice)) =
+        search_stackup(cx.design, cx.core, &names, delta, &setting, interleave_as)?
+    else {
+        return Ok(c);
+    };
+    let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
+    let opts = LossOptions {
+        edge_time: cx.design.choices.edge_time,
+        ..LossOptions::default()
+    };
+    for corner in &mut c.corners {
+        let op = match corner.corner {
+            Corner::VinMin => &c.waves.at_vin_min,
+            Corner::VinMax => &c.waves.at_vin_max,
+        };
+        corner.copper = model.evaluate(&currents_of(spec.topology, op), &opts)?;
+        corner.total = corner.copper.total + corner.core.watts;
+    }
+    c.stackup = stackup;
+    c.fit = fit;
+    c.wires = wires;
+    c.winding_choice = winding_choice;
+    Ok(c)
 }
 
 /// The windings' currents in the loss model's dot convention: positive

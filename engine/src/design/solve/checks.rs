@@ -16,6 +16,8 @@ pub(super) struct CheckInputs<'a> {
     pub c: &'a Candidate,
     pub thermal: &'a Equilibrium,
     pub loss_corner: Corner,
+    /// The leakage clamp, where the design has one.
+    pub clamp: Option<&'a crate::design::clamp::Clamp>,
 }
 
 /// Every check of a finished design.
@@ -88,17 +90,8 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         c.waves.get("duty").map(|w| w.corner),
         String::new(),
     ));
-    let v_sw = c.waves.get("switch_voltage").map_or(0.0, |w| w.value);
     if let Some(rating) = ch.switch_voltage_rating {
-        checks.push(check(
-            "switch_voltage",
-            "Switch off-state voltage",
-            v_sw,
-            rating,
-            "V",
-            c.waves.get("switch_voltage").map(|w| w.corner),
-            "flat top only: add the leakage spike".into(),
-        ));
+        checks.push(switch_voltage_check(c, x.clamp, rating));
     }
     checks.push(temperature_check(
         "curie",
@@ -122,6 +115,38 @@ pub(super) fn checks(x: &CheckInputs) -> Vec<Check> {
         k.tight = !k.pass || (k.margin - min_margin).abs() < 1e-12 || k.margin < 0.1;
     }
     checks
+}
+
+/// The switch's peak off-state voltage against its rating: the clamped
+/// peak (`design::clamp`) where the design has a clamp, else the flat top.
+fn switch_voltage_check(c: &Candidate, clamp: Option<&crate::design::clamp::Clamp>, rating: f64) -> Check {
+    match clamp {
+        Some(k) => check(
+            "switch_voltage",
+            "Switch peak voltage with the leakage clamp",
+            k.switch_peak_voltage,
+            rating,
+            "V",
+            Some(k.voltage_corner),
+            match k.kind {
+                crate::design::clamp::ClampKind::Dissipative => format!(
+                    "Vin + Vc, Vc = {:.0} V{}",
+                    k.corners.iter().find(|p| p.corner == k.voltage_corner).map_or(0.0, |p| p.clamp_voltage),
+                    if k.default_voltage { " (1.5 × Vr)" } else { "" }
+                ),
+                crate::design::clamp::ClampKind::Rail => "clamped to the input rail by diodes".into(),
+            },
+        ),
+        None => check(
+            "switch_voltage",
+            "Switch off-state voltage",
+            c.waves.get("switch_voltage").map_or(0.0, |w| w.value),
+            rating,
+            "V",
+            c.waves.get("switch_voltage").map(|w| w.corner),
+            "flat top: one winding, no leakage".into(),
+        ),
+    }
 }
 
 /// The flyback's "mode" check (see [`super::mode`]); none for the others.

@@ -250,24 +250,26 @@ fn automatic(mut d: Design, material: &Material, prep: &Prepared) -> Result<Repo
         .position(|c| c.ae * c.window_area >= ap)
         .unwrap_or(list.len().saturating_sub(CANDIDATES))
         .saturating_sub(1);
-    let mut best: Option<Report> = None;
-    let mut fallback: Option<Report> = None;
+    // The cores are compared with the conductors allocated by area (quick);
+    // the least-loss conductor search then runs once, on the core chosen.
+    let mut best: Option<(Report, &Core)> = None;
+    let mut fallback: Option<(Report, &Core)> = None;
     let mut last_err = None;
     for round in 0..ROUNDS {
         let from = start + round * CANDIDATES;
-        for core in list.iter().skip(from).take(CANDIDATES) {
+        for &core in list.iter().skip(from).take(CANDIDATES) {
             d.core = CoreChoice::Library {
                 designation: core.designation.clone(),
             };
-            match evaluate_with(&d, core, material, prep) {
+            match solve(&d, core, material, prep, Conductors::ByArea) {
                 Ok(r) if r.pass => {
-                    if best.as_ref().is_none_or(|b| r.losses.total < b.losses.total) {
-                        best = Some(r);
+                    if best.as_ref().is_none_or(|b| r.losses.total < b.0.losses.total) {
+                        best = Some((r, core));
                     }
                 }
                 Ok(r) => {
-                    if fallback.as_ref().is_none_or(|b| r.losses.total < b.losses.total) {
-                        fallback = Some(r);
+                    if fallback.as_ref().is_none_or(|b| r.losses.total < b.0.losses.total) {
+                        fallback = Some((r, core));
                     }
                 }
                 Err(e) => last_err = Some(e),
@@ -277,6 +279,17 @@ fn automatic(mut d: Design, material: &Material, prep: &Prepared) -> Result<Repo
             break;
         }
     }
+    let mut searched = |(quick, core): (Report, &Core)| -> Report {
+        d.core = CoreChoice::Library {
+            designation: core.designation.clone(),
+        };
+        match evaluate_with(&d, core, material, prep) {
+            Ok(r) if r.pass || !quick.pass => r,
+            _ => quick,
+        }
+    };
+    let best = best.map(&mut searched);
+    let fallback = if best.is_none() { fallback.map(&mut searched) } else { None };
     match (best, fallback) {
         (Some(r), _) => Ok(r),
         (None, Some(mut r)) => {

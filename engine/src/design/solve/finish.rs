@@ -110,7 +110,30 @@ pub(super) fn finish(
         magnetic_efficiency: output / (output + losses.total),
     };
 
+    let leakage = if c.stackup.windings.len() >= 2 {
+        let reference = c
+            .stackup
+            .windings
+            .first()
+            .map(|w| w.name.clone())
+            .unwrap_or_default();
+        leakage(core, &c.stackup, &reference).ok()
+    } else {
+        None
+    };
+    // The leakage spike and its clamp (a converter loss, kept apart).
+    let clamp = match leakage {
+        Some(l) => Some(crate::design::clamp::clamp(
+            spec.topology,
+            &c.turns,
+            &c.waves,
+            l,
+            ch.clamp_voltage,
+        )?),
+        None => None,
+    };
     let checks = checks::checks(&checks::CheckInputs {
+        clamp: clamp.as_ref(),
         design,
         core,
         material,
@@ -160,17 +183,6 @@ pub(super) fn finish(
                 .into(),
         );
     }
-    let leakage = if c.stackup.windings.len() >= 2 {
-        let reference = c
-            .stackup
-            .windings
-            .first()
-            .map(|w| w.name.clone())
-            .unwrap_or_default();
-        leakage(core, &c.stackup, &reference).ok()
-    } else {
-        None
-    };
     // Filled in by `evaluate` (sweeps and the optimiser do not need it).
     let stackup_json = String::new();
     let n_actual = match c.turns.secondaries.first() {
@@ -200,10 +212,12 @@ pub(super) fn finish(
         conduction,
         waveforms: c.waves,
         wires: c.wires,
+        winding_choice: c.winding_choice,
         stackup: c.stackup,
         stackup_json,
         fit: c.fit,
         leakage,
+        clamp,
         corners: c.corners,
         loss_corner,
         thermal,

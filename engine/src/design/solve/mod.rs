@@ -16,18 +16,29 @@
 //!    minimises total loss). From a first design at the flux limit the swing
 //!    is scaled by (2·Pcu/(β·Pcore))^(1/(β+2)); the nearest integer turns at
 //!    or above the flux-limited count are evaluated and the lower loss kept.
+//!    The first design has its least-loss conductors (step 5); the trials
+//!    keep the conductors allocated by area, their copper loss scaled by
+//!    what the search saved on the first, and the trial chosen is searched
+//!    in its turn (keeping the first's interleaving) before it is compared.
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
 //!    residual gap of 10 µm per mated pair (common practice, from memory);
 //!    a one-piece core (a ring) has no mating faces and no residual gap.
-//! 5. **Wire**: window area shared between windings in proportion to their
-//!    ampere-turns N·Irms, A_k = α_k·Ku·Wa/N_k (Erickson & Maksimovic 2nd ed.
-//!    §15.1.4, optimal allocation of window area); each area realised as one
-//!    round wire if its diameter is at most 2δ, else parallel wires of ≤ 2δ,
-//!    foil for windings of three turns or fewer, litz of strands ≤ δ beyond
-//!    (common practice, no source). If the stack-up does not fit, Ku is
-//!    lowered by 20 % and the wire chosen again, up to six times.
+//! 5. **Wire**: in every turn-count trial of steps 2–3 the window area is
+//!    shared between windings in proportion to their ampere-turns N·Irms,
+//!    A_k = α_k·Ku·Wa/N_k (Erickson & Maksimovic 2nd ed. §15.1.4, optimal
+//!    allocation of window area); each area realised as one round wire if
+//!    its diameter is at most 2δ, else at most `choices.max_parallel`
+//!    parallel wires of ≤ 2δ, foil for windings of eight turns or fewer,
+//!    litz of strands ≤ δ, whichever builds least (common practice, no
+//!    source). If the stack-up does not fit, Ku is lowered by 20 % and the
+//!    wire chosen again, up to six times. Then, once on the chosen turns,
+//!    the least-loss search (`conductors::search`: Hurley, Gath & Breslin
+//!    2000 and Sullivan 1999 starting points, a quick screen, the harmonic
+//!    model deciding) replaces the automatic conductors and, when
+//!    automatic, the interleaving; the window fit and every check judge
+//!    the searched stack-up.
 //! 6. **Losses** at both line corners: iGSE core loss of the real B(t)
 //!    (`loss`), harmonic Dowell copper loss of the real currents (`winding`).
 //! 7. **Thermal equilibrium** at the corner with the larger total loss
@@ -61,6 +72,7 @@ use candidate::*;
 pub use candidate::{core_sense, currents_of};
 pub use choke::{choke_design, choke_spec};
 use conductors::*;
+pub use conductors::{ConductorKind, ConductorTrial};
 pub use report::*;
 
 /// Residual gap of a mated, ungapped core pair, m (common practice, from
@@ -102,6 +114,28 @@ pub fn evaluate_with(
     core: &Core,
     material: &Material,
     prep: &Prepared,
+) -> Result<Report> {
+    solve(design, core, material, prep, Conductors::LeastLoss)
+}
+
+/// How the automatic conductors of the final turns are chosen.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(super) enum Conductors {
+    /// The least-loss search (step 5), once on the chosen turns.
+    LeastLoss,
+    /// The turn-count trials' allocation by area only: a quick comparison
+    /// of several cores (the output choke's), the search then run on the
+    /// one chosen.
+    ByArea,
+}
+
+/// Steps 1–8 (module docs).
+pub(super) fn solve(
+    design: &Design,
+    core: &Core,
+    material: &Material,
+    prep: &Prepared,
+    conductors: Conductors,
 ) -> Result<Report> {
     let spec = &design.spec;
     spec.validate()?;
@@ -153,7 +187,17 @@ pub fn evaluate_with(
             c
         }
     };
-    let mut best = first;
+    // The least-loss conductors are searched on the flux-limited turns; the
+    // turn-count trials below keep the conductors allocated by area, their
+    // copper loss scaled by what the search saved here (`k`), and the one
+    // they choose is searched in its turn.
+    let area_copper = first.selection_copper();
+    let search = |c: Candidate, interleave_as: Option<&str>| match conductors {
+        Conductors::LeastLoss => with_least_loss_conductors(&cx, c, interleave_as),
+        Conductors::ByArea => Ok(c),
+    };
+    let mut best = search(first, None)?;
+    let k = if area_copper > 0.0 { best.selection_copper() / area_copper } else { 1.0 };
     if ch.turns == TurnsRule::LeastLoss {
         let (pc, pcu) = (best.selection_core(), best.selection_copper());
         let beta = material.steinmetz.beta;
@@ -164,22 +208,34 @@ pub fn evaluate_with(
             let target = np0 as f64 * scale;
             if target > np0 as f64 + 0.5 {
                 let lo = (target.floor() as u32).max(np0 + 1);
-                let mut tried = Vec::with_capacity(2);
+                let corner = Some(best.worst_corner().corner);
+                let mut pick: Option<(f64, Candidate)> = None;
                 for np in [lo, lo + 1] {
                     if np > topology::MAX_TURNS {
                         continue;
                     }
-                    let corner = Some(best.worst_corner().corner);
                     if let Ok(c) = build_corners(&cx, np, corner) {
-                        tried.push(c);
+                        let w = c.worst_corner();
+                        let estimate = w.core.watts + k * w.copper.total;
+                        if pick.as_ref().is_none_or(|p| estimate < p.0) {
+                            pick = Some((estimate, c));
+                        }
                     }
                 }
-                for c in tried {
-                    if c.selection_total() < best.selection_total() {
-                        best = c;
-                        reason = format!(
-                            "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
-                        );
+                if let Some((estimate, c)) = pick {
+                    if estimate < best.selection_total() {
+                        // The interleaving chosen on the first design is kept.
+                        let chosen = best.winding_choice.automatic.then(|| best.winding_choice.interleave.clone());
+                        // Both corners, as the design is then judged (the
+                        // trial was built at the first's worst corner only).
+                        let c = build(&cx, c.turns.primary).unwrap_or(c);
+                        let c = search(c, chosen.as_deref())?;
+                        if c.selection_total() < best.selection_total() {
+                            best = c;
+                            reason = format!(
+                                "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
+                            );
+                        }
                     }
                 }
             }
@@ -239,6 +295,15 @@ pub(crate) fn check_choices(ch: &Choices) -> Result<()> {
     }
     if let Some(m) = ins.margin {
         crate::error::in_range("choices.insulation.margin", m, 0.0, 20e-3, "m")?;
+    }
+    if ch.max_parallel == 0 || ch.max_parallel > 20 {
+        return Err(Error::input(
+            "choices.max_parallel",
+            "1 to 20 round wires in hand (beyond it the search uses litz or foil)",
+        ));
+    }
+    if let Some(v) = ch.clamp_voltage {
+        crate::error::in_range("choices.clamp_voltage", v, 1.0, 10e3, "V")?;
     }
     crate::error::in_range(
         "choices.magnetic_loss_share",
@@ -402,6 +467,35 @@ mod tests {
                 a.corners.iter().map(|c| c.total).fold(0.0, f64::max)
                     <= b.corners.iter().map(|c| c.total).fold(0.0, f64::max) * 1.0001
             );
+        }
+    }
+
+    #[test]
+    fn the_search_leaves_a_fixed_wire_alone() {
+        // A winding the user fixed keeps its conductor exactly (three round
+        // AWG 24 wires in hand, ASTM B258 0.511 mm bare); the other winding is
+        // still chosen by the search, and the stack-up holds both.
+        use crate::design::file::{WireChoice, WireOverride};
+        let mut d = Design::demo_forward();
+        d.choices.wires = vec![WireOverride {
+            winding: "secondary 1".into(),
+            wire: WireChoice::Round { awg: 24, parallel: 3 },
+        }];
+        let r = evaluate(&d).unwrap();
+        let s = r.wires.iter().find(|w| w.winding == "secondary 1").unwrap();
+        assert!(!s.automatic);
+        assert_eq!(s.parallel, 3);
+        assert!(s.conductor.starts_with("round 0.511 mm"), "{}", s.conductor);
+        assert_eq!(s.reason, "fixed by the user");
+        let p = r.wires.iter().find(|w| w.winding == "primary").unwrap();
+        assert!(p.automatic && !p.trials.is_empty() && p.trials[0].chosen, "{}", p.reason);
+        for it in &r.stackup.items {
+            if let crate::winding::stackup::Item::Section(sec) = it {
+                if sec.winding == "secondary 1" {
+                    assert_eq!(sec.parallel, 3);
+                    assert!(!sec.conductor.is_foil());
+                }
+            }
         }
     }
 

@@ -49,6 +49,32 @@ pub struct WireSummary {
     pub current_density: f64,
     /// Chosen automatically (false: the user fixed it).
     pub automatic: bool,
+    /// The conductors the least-loss search weighed for this winding, the
+    /// chosen one first (empty when fixed or allocated by area).
+    pub trials: Vec<super::ConductorTrial>,
+    /// Why this conductor.
+    pub reason: String,
+}
+
+/// One interleaving the search evaluated.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct PatternTrial {
+    /// As in `choices.interleave`: "sequential", "split_primary", ...
+    pub interleave: String,
+    /// Copper loss with its least-loss conductors, W (selection temperature
+    /// and corner).
+    pub copper_loss: f64,
+}
+
+/// How the windings were ordered.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct WindingChoice {
+    /// The interleaving used, as in `choices.interleave`.
+    pub interleave: String,
+    /// Chosen by loss (`choices.interleave` = auto).
+    pub automatic: bool,
+    /// The interleavings evaluated (one unless automatic).
+    pub tried: Vec<PatternTrial>,
 }
 
 /// The flyback's conduction mode at one line corner, full load, as wound.
@@ -134,6 +160,8 @@ pub struct Report {
     /// (`None` for the other topologies).
     pub conduction: Option<Conduction>,
     pub wires: Vec<WireSummary>,
+    /// The interleaving and how it was chosen.
+    pub winding_choice: WindingChoice,
     pub stackup: StackUp,
     /// The stack-up in its JSON schema (what the page exports); filled by
     /// [`evaluate`], empty from [`evaluate_with`].
@@ -141,6 +169,9 @@ pub struct Report {
     pub fit: FitReport,
     /// Leakage inductance referred to the primary, H (`None` with one winding).
     pub leakage: Option<f64>,
+    /// The leakage spike and its clamp (`None` with one winding): a
+    /// converter loss, not part of `losses`.
+    pub clamp: Option<crate::design::clamp::Clamp>,
     /// Losses at both corners at the core temperature limit (selection), and the
     /// corner whose total is larger.
     pub corners: Vec<CornerLosses>,

@@ -1,4 +1,21 @@
-//! Step 5: the conductors and the stack-up.
+//! Step 5: the conductors and the stack-up: the least-loss search
+//! ([`search`], starting from the optima of [`optima`], ranked by the
+//! estimate of [`screen`]), the window allocation it falls back on, the
+//! user's fixed conductors and custom orders.
+
+pub mod optima;
+pub mod screen;
+pub mod search;
+
+pub use search::{ConductorTrial, Kind as ConductorKind};
+
+/// What the search needs to evaluate copper loss: the currents at the
+/// selection corner (dot convention), the temperature and ρ there.
+pub(super) struct LossSetting<'a> {
+    pub currents: &'a [crate::winding::loss::WindingCurrent],
+    pub temperature: f64,
+    pub rho: f64,
+}
 
 use super::*;
 use crate::core::Core;
@@ -8,17 +25,22 @@ use crate::topology::Isolation;
 use crate::winding::conductor::{Conductor, Grade};
 use crate::winding::fit::{fit, FitReport};
 use crate::winding::stackup::{
-    default_stackup, DefaultOptions, Item, Pattern, StackUp, Tape, WindingSpec,
+    default_stackup, DefaultOptions, Pattern, StackUp, Tape, WindingSpec,
 };
 use crate::winding::wire::awg_diameter;
 
-/// Step 5: conductors and the stack-up.
-pub(super) fn choose_stackup(
-    design: &Design,
-    core: &Core,
-    windings: &[(String, u32, f64)],
-    delta: f64,
-) -> Result<(StackUp, FitReport, Vec<WireSummary>)> {
+/// A stack-up with its fit, the wire table and how the windings were ordered.
+pub(super) type Chosen = (StackUp, FitReport, Vec<WireSummary>, WindingChoice);
+
+/// What every conductor choice of one design shares: the insulation, the
+/// breadth between the margins and where triple-insulated wire is needed.
+struct Frame {
+    opts: DefaultOptions,
+    breadth: f64,
+    tiw_secondaries: bool,
+}
+
+fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Result<Frame> {
     let spec = &design.spec;
     let ch = &design.choices;
     for (i, o) in ch.wires.iter().enumerate() {
@@ -69,23 +91,179 @@ pub(super) fn choose_stackup(
             ),
         ));
     }
+    Ok(Frame {
+        opts,
+        breadth: core.winding_breadth - 2.0 * margin,
+        tiw_secondaries: spec.isolation == Isolation::Reinforced && hazardous,
+    })
+}
+
+/// Interleaving can be chosen for two or more windings, none of them a
+/// centre-tapped half, with a primary of at least two turns.
+fn can_interleave(windings: &[(String, u32, f64)]) -> bool {
+    let centre_tapped = windings.iter().any(|w| w.0.ends_with(" A"));
+    windings.len() >= 2 && !centre_tapped && windings[0].1 >= 2
+}
+
+/// Step 5 in every turn-count trial: the conductors by window allocation
+/// (quick); an automatic interleaving splits the primary where it can.
+/// The least-loss search ([`search_stackup`]) then runs once, on the
+/// chosen turns.
+pub(super) fn choose_stackup(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+) -> Result<Chosen> {
+    let ch = &design.choices;
+    let fr = frame(design, core, windings)?;
     let pattern = match ch.interleave {
         Interleave::Sequential => Pattern::Sequential,
         Interleave::SplitPrimary => Pattern::SplitPrimary,
         Interleave::SplitSecondaries => Pattern::SplitSecondaries,
         Interleave::Custom => Pattern::Custom(custom_order(&ch.section_order, windings)?),
-        Interleave::Auto => {
-            let centre_tapped = windings.iter().any(|w| w.0.ends_with(" A"));
-            if windings.len() >= 2 && !centre_tapped && windings[0].1 >= 2 {
-                Pattern::SplitPrimary
-            } else {
-                Pattern::Sequential
-            }
-        }
+        Interleave::Auto if can_interleave(windings) => Pattern::SplitPrimary,
+        Interleave::Auto => Pattern::Sequential,
     };
+    let (st, f, wires) = by_area(design, core, windings, delta, &pattern, &fr.opts, fr.breadth, fr.tiw_secondaries)?;
+    let choice = WindingChoice {
+        interleave: pattern_name(&pattern).into(),
+        automatic: false,
+        tried: Vec::new(),
+    };
+    Ok((st, f, wires, choice))
+}
+
+/// Step 5, once on the chosen turns: the least-loss conductors
+/// ([`search`]) for every winding the user left automatic, and the
+/// interleaving by loss when it is automatic. `None` when every conductor
+/// is fixed or no automatic set fits the window (the trials' allocation by
+/// area then stands).
+pub(super) fn search_stackup(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+    loss: &LossSetting,
+    interleave_as: Option<&str>,
+) -> Result<Option<Chosen>> {
+    let ch = &design.choices;
+    let automatic = |name: &str| !ch.wires.iter().any(|o| o.winding == name);
+    if !windings.iter().any(|w| automatic(&w.0)) {
+        return Ok(None);
+    }
+    let fr = frame(design, core, windings)?;
+    let patterns: Vec<Pattern> = match ch.interleave {
+        Interleave::Sequential => vec![Pattern::Sequential],
+        Interleave::SplitPrimary => vec![Pattern::SplitPrimary],
+        Interleave::SplitSecondaries => vec![Pattern::SplitSecondaries],
+        Interleave::Custom => vec![Pattern::Custom(custom_order(&ch.section_order, windings)?)],
+        Interleave::Auto if can_interleave(windings) => {
+            vec![Pattern::Sequential, Pattern::SplitPrimary, Pattern::SplitSecondaries]
+        }
+        Interleave::Auto => vec![Pattern::Sequential],
+    };
+    // An automatic interleaving already chosen by loss on other turns of
+    // the same design is kept (the search then weighs conductors only).
+    let patterns: Vec<Pattern> = match interleave_as {
+        Some(name) if patterns.len() > 1 => {
+            let kept: Vec<Pattern> = patterns.iter().filter(|p| pattern_name(p) == name).cloned().collect();
+            if kept.is_empty() { patterns } else { kept }
+        }
+        _ => patterns,
+    };
+    let mut needs = Vec::with_capacity(windings.len());
+    for (name, turns, _) in windings {
+        let Some(current) = loss.currents.iter().find(|c| &c.name == name).map(|c| &c.current) else {
+            return Ok(None);
+        };
+        let fixed = match ch.wires.iter().find(|o| &o.winding == name) {
+            Some(o) => Some(fixed_conductor(&o.wire, fr.breadth)?),
+            None => None,
+        };
+        needs.push(search::Need {
+            name,
+            turns: *turns,
+            current,
+            tiw: fr.tiw_secondaries && name.starts_with("secondary"),
+            fixed,
+        });
+    }
+    let ring = core.family.eq_ignore_ascii_case("R")
+        || matches!(core.shape, Some(crate::core::Shape::Ring { .. }));
+    let setting = search::Setting {
+        core,
+        opts: &fr.opts,
+        breadth: fr.breadth,
+        delta1: delta,
+        rho: loss.rho,
+        temperature: loss.temperature,
+        edge_time: ch.edge_time,
+        ring,
+        max_parallel: ch.max_parallel,
+        currents: loss.currents,
+    };
+    let Some(found) = search::search(&setting, &needs, &patterns) else {
+        return Ok(None);
+    };
+    let wires = windings
+        .iter()
+        .zip(&found.conductors)
+        .zip(found.trials.into_iter().zip(found.reasons))
+        .map(|(((name, turns, rms), (c, p)), (trials, reason))| {
+            let copper = c.copper_area() * *p as f64;
+            WireSummary {
+                winding: name.clone(),
+                turns: *turns,
+                conductor: c.describe(),
+                parallel: *p,
+                copper_area: copper,
+                rms_current: *rms,
+                current_density: rms / copper,
+                automatic: automatic(name),
+                trials,
+                reason,
+            }
+        })
+        .collect();
+    let choice = WindingChoice {
+        interleave: pattern_name(&found.pattern).into(),
+        automatic: ch.interleave == Interleave::Auto,
+        tried: found
+            .patterns
+            .iter()
+            .map(|(p, w)| PatternTrial { interleave: pattern_name(p).into(), copper_loss: *w })
+            .collect(),
+    };
+    Ok(Some((found.stackup, found.fit, wires, choice)))
+}
+
+/// The name of a pattern as in `choices.interleave`.
+pub(super) fn pattern_name(p: &Pattern) -> &'static str {
+    match p {
+        Pattern::Sequential => "sequential",
+        Pattern::SplitPrimary => "split_primary",
+        Pattern::SplitSecondaries => "split_secondaries",
+        Pattern::Custom(_) => "custom",
+    }
+}
+
+/// The conductors by window allocation (step 5 of the solver's module
+/// docs): every turn-count trial's, and the design's when every conductor
+/// is fixed or no least-loss set fits.
+#[allow(clippy::too_many_arguments)]
+fn by_area(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+    pattern: &Pattern,
+    opts: &DefaultOptions,
+    breadth: f64,
+    tiw_secondaries: bool,
+) -> Result<(StackUp, FitReport, Vec<WireSummary>)> {
+    let ch = &design.choices;
     let at_sum: f64 = windings.iter().map(|w| w.1 as f64 * w.2).sum();
-    let breadth = core.winding_breadth - 2.0 * margin;
-    let tiw_secondaries = spec.isolation == Isolation::Reinforced && hazardous;
     let mut ku = ch.window_utilisation;
     let mut last_err = None;
     for _ in 0..7 {
@@ -104,7 +282,7 @@ pub(super) fn choose_stackup(
                     };
                     let area = (share * ku * core.window_area / *turns as f64).max(1e-9);
                     let tiw = tiw_secondaries && name.starts_with("secondary");
-                    auto_conductor(area, *turns, delta, breadth, tiw, share < 0.05)?
+                    auto_conductor(area, *turns, delta, breadth, tiw, share < 0.05, ch.max_parallel)?
                 }
             };
             let copper = conductor.copper_area() * parallel as f64;
@@ -117,6 +295,12 @@ pub(super) fn choose_stackup(
                 rms_current: *rms,
                 current_density: rms / copper,
                 automatic: fixed.is_none(),
+                trials: Vec::new(),
+                reason: if fixed.is_some() {
+                    "fixed by the user".into()
+                } else {
+                    "window shared by ampere-turns (no least-loss set fits)".into()
+                },
             });
             specs.push(WindingSpec {
                 name: name.clone(),
@@ -125,19 +309,8 @@ pub(super) fn choose_stackup(
                 parallel,
             });
         }
-        let built = default_stackup(core, &specs, &pattern, &opts).and_then(|mut st| {
-            // Foil turns need a film between them.
-            for it in &mut st.items {
-                if let Item::Section(sec) = it {
-                    if sec.conductor.is_foil() && sec.interlayer.is_none() {
-                        sec.interlayer = Some(Tape {
-                            material: "polyester film".into(),
-                            thickness: FOIL_FILM,
-                            wraps: 1,
-                        });
-                    }
-                }
-            }
+        let built = default_stackup(core, &specs, pattern, opts).and_then(|mut st| {
+            search::foil_films(&mut st);
             fit(core, &st).map(|f| (st, f))
         });
         match built {
@@ -253,6 +426,7 @@ pub(super) fn auto_conductor(
     breadth: f64,
     tiw: bool,
     minor: bool,
+    max_parallel: u32,
 ) -> Result<(Conductor, u32)> {
     let d_need = (4.0 * area / std::f64::consts::PI).sqrt();
     let d_max = (2.0 * delta).max(0.1e-3);
@@ -283,7 +457,7 @@ pub(super) fn auto_conductor(
     };
     let mut options: Vec<(Conductor, u32)> = Vec::with_capacity(3);
     let a_strand = std::f64::consts::PI * d_max * d_max / 4.0;
-    let par = (area / a_strand).ceil().clamp(1.0, 40.0) as u32;
+    let par = (area / a_strand).ceil().clamp(1.0, max_parallel.max(1) as f64) as u32;
     let d_par = (4.0 * area / (std::f64::consts::PI * par as f64))
         .sqrt()
         .min(d_max);
