@@ -7,7 +7,7 @@
 import { test, before, after } from 'node:test';
 import assert from 'node:assert/strict';
 import { join } from 'node:path';
-import { launch, openPage, cli, canvasInk, close, OUT } from './harness.mjs';
+import { launch, openPage, cli, canvasInk, close, waitSaved, frames, OUT } from './harness.mjs';
 
 let browser;
 before(async () => { browser = await launch(); });
@@ -87,6 +87,80 @@ test('sweep: both curves and the best-material envelope, named in the legend, = 
   await page.keyboard.press('Space');
   await page.waitForSelector(`${toggle}[aria-pressed="false"]`);
   await page.waitForFunction((sel) => !document.querySelector(sel).dataset.legend.includes('best library material'), FIG);
+
+  assert.deepEqual(requests, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+// The sweep is live: typed key by key with no pause, every valid prefix of
+// the frequency is a design of its own (1234 Hz, 12345 Hz, then 123456 Hz),
+// each starting a sweep run that the next key drops. Whenever the figure
+// says its sweep is current (data-sweep-ready="true"), that sweep is for
+// the design shown (data-swept-hz = data-design-hz); at the end it is the
+// final design's, point by point the CLI's sweep of the saved design file.
+test('sweep: live on every keystroke, never an earlier design\'s sweep shown as current, = CLI', async (t) => {
+  const { context, page, requests, errors } = await openPage(browser);
+  await page.waitForSelector(`${FIG}[data-sweep-ready="true"][data-sweep-totals]`, { timeout: 20000 });
+  // The figure's state at every animation frame (what can be painted),
+  // recorded in the page while the keys go in.
+  await page.evaluate((sel) => {
+    const fig = document.querySelector(sel);
+    const log = [];
+    window.__sweepLog = log;
+    const note = () => {
+      const e = { ready: fig.dataset.sweepReady, swept: fig.dataset.sweptHz, design: fig.dataset.designHz };
+      const last = log[log.length - 1];
+      if (!last || last.ready !== e.ready || last.swept !== e.swept || last.design !== e.design) log.push(e);
+      if (!window.__sweepLogStop) requestAnimationFrame(note);
+    };
+    note();
+  }, FIG);
+  const FINAL = '123456';
+  await page.click('[id="f-frequency"]', { clickCount: 3 });
+  await page.keyboard.press('Control+A');
+  await page.keyboard.press('Backspace');
+  await page.keyboard.type(FINAL); // key by key, no delay between keys
+  await page.waitForFunction((v) => document.querySelector('[id="f-frequency"]').value === v, FINAL);
+  await page.waitForSelector(`${FIG}[data-design-hz="${FINAL}"]`);
+  await page.waitForSelector(`${FIG}[data-sweep-ready="true"][data-swept-hz="${FINAL}"]`, { timeout: 30000 });
+  await waitSaved(page, (d, f) => d.spec?.frequency === f, Number(FINAL));
+
+  await frames(page, 2); // the final state recorded too
+  const log = await page.evaluate(() => { window.__sweepLogStop = true; return window.__sweepLog; });
+  const current = log.filter((e) => e.ready === 'true');
+  for (const e of current) assert.equal(e.swept, e.design, `a sweep shown as current for another design: ${JSON.stringify(e)}`);
+  assert.ok(log.some((e) => e.ready === 'false'), 'the figure was marked as being recomputed while typing');
+  const designs = [...new Set(log.map((e) => e.design))];
+  assert.ok(designs.includes('12345'), `the intermediate designs were shown: ${designs}`);
+  assert.equal(await attr(page, 'data-design-hz'), FINAL);
+
+  // The sweep shown is the CLI's for the saved design file.
+  const design = await pageDesign(page);
+  assert.equal(JSON.parse(design).spec.frequency, Number(FINAL));
+  const from = Number(await attr(page, 'data-from-hz'));
+  const to = Number(await attr(page, 'data-to-hz'));
+  assert.ok(close(from, Number(FINAL) / 10) && close(to, Number(FINAL) * 10), `range ${from}–${to}`);
+  const s = cli(['sweep', '-', String(from), String(to), String(POINTS), '--as-wound'], design);
+  let exact = 0;
+  for (const [name, curve] of [['data-sweep-totals', s.redesigned], ['data-wound-totals', s.as_wound]]) {
+    const shownTotals = (await attr(page, name)).split(' ');
+    assert.equal(shownTotals.length, POINTS, name);
+    curve.points.forEach((p, i) => {
+      const got = shownTotals[i];
+      if (!p.values) return assert.equal(got, '-', `${name} point ${i} (${p.x} Hz): the CLI built no design`);
+      assert.ok(close(Number(got), p.values.total), `${name} point ${i} (${p.x} Hz): page ${got} W, CLI ${p.values.total} W`);
+      if (Number(got) === p.values.total) exact += 1;
+    });
+  }
+  const min = await attr(page, 'data-min-hz');
+  if (s.redesigned.minimum === null) assert.equal(min, null);
+  else assert.ok(close(Number(min), s.redesigned.points[s.redesigned.minimum].x), 'redesigned minimum');
+  t.diagnostic(`${log.length} figure states over the frames, ${current.length} current; runs dropped ${await attr(page, 'data-sweep-dropped')}; `
+    + `${exact} of ${2 * POINTS} totals bit-equal to the CLI's; the final run ${await attr(page, 'data-sweep-ms')} ms of engine time`);
+  const { ink } = await canvasInk(page, 'sweep-plot');
+  assert.ok(ink > 0.02, `sweep plot looks blank (ink ${ink})`);
+  await page.locator(FIG).screenshot({ path: join(OUT, 'sweep-live.png') });
 
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);

@@ -4,7 +4,7 @@
 //! it was taken over, names the material it takes, and marks each change.
 
 use magwright_engine::design::file::{Design, MaterialChoice};
-use magwright_engine::design::{evaluate, sweep};
+use magwright_engine::design::{evaluate, solve, sweep};
 use magwright_engine::material::library as materials;
 use proptest::prelude::*;
 
@@ -145,4 +145,89 @@ fn every_core_envelope_is_no_higher_than_the_design_core_one() {
             assert!(a.values.unwrap().total <= v.total, "{} Hz", a.x);
         }
     }
+}
+
+/// Redesigned points compared with `solve::evaluate_with` by the property below.
+static BUILT: std::sync::atomic::AtomicUsize = std::sync::atomic::AtomicUsize::new(0);
+
+/// Serialised, for exact comparison.
+fn json<T: serde::Serialize>(v: &T) -> String {
+    serde_json::to_string(v).unwrap()
+}
+
+proptest! {
+    #![proptest_config(crate::config(40))]
+    /// A frequency sweep computed in slices of any sizes is the sweep
+    /// computed at once, to the bit (serialised), both curves; and each
+    /// redesigned point is the design solved on its own at that frequency
+    /// (`solve::evaluate_with`, the one-design solver `evaluate` calls; the
+    /// sweep leaves out the forward choke `evaluate` attaches), to the bit.
+    #[test]
+    fn sliced_sweeps_are_the_whole_sweep(
+        k in 0..4usize,
+        core in 0..magwright_engine::core::library::all().len(),
+        load in 0.3..2.0f64,
+        f0 in 5e3..300e3f64,
+        span in 1.5..30.0f64,
+        n in 2..10usize,
+        slices in proptest::collection::vec(1..4usize, 1..6),
+    ) {
+        // Random designs near the demos (each topology), on any library
+        // core: most can be built at some of the frequencies.
+        let mut d = demos().into_iter().chain([Design::demo_inductor()]).nth(k).unwrap();
+        d.core = magwright_engine::design::file::CoreChoice::Library {
+            designation: magwright_engine::core::library::all()[core].designation.clone(),
+        };
+        for o in &mut d.spec.outputs {
+            o.current *= load;
+        }
+        for curve in [sweep::Curve::Redesigned, sweep::Curve::AsWound] {
+            let whole = match curve {
+                sweep::Curve::Redesigned => sweep::frequency(&d, f0, f0 * span, n),
+                _ => sweep::as_wound(&d, f0, f0 * span, n),
+            };
+            let run = sweep::FrequencySweep::new(&d, f0, f0 * span, n, curve);
+            let (whole, mut run) = match (whole, run) {
+                (Ok(w), Ok(r)) => (w, r),
+                (Err(a), Err(b)) => {
+                    prop_assert_eq!((a.field(), a.message()), (b.field(), b.message()));
+                    continue;
+                }
+                (a, b) => return Err(TestCaseError::fail(format!("{curve:?}: {:?} against {:?}", a.err(), b.err()))),
+            };
+            let mut k = 0;
+            while !run.step(slices[k % slices.len()]) {
+                k += 1;
+            }
+            prop_assert_eq!(json(&run.finish()), json(&whole), "{:?} in slices {:?}", curve, slices);
+            if curve == sweep::Curve::Redesigned {
+                let (core, material) = (d.resolve_core().unwrap(), d.resolve_material().unwrap());
+                let prep = solve::Prepared::new(&material).unwrap();
+                for p in &whole.points {
+                    let mut one = d.clone();
+                    one.spec.frequency = p.x;
+                    match (solve::evaluate_with(&one, &core, &material, &prep), p.values) {
+                        (Ok(r), Some(v)) => {
+                            prop_assert_eq!(v.total.to_bits(), r.losses.total.to_bits(), "{} Hz", p.x);
+                            BUILT.fetch_add(1, std::sync::atomic::Ordering::Relaxed);
+                            prop_assert_eq!(v.primary_turns, r.turns.primary);
+                            prop_assert_eq!(p.feasible, r.pass && p.in_data);
+                        }
+                        (Err(e), None) => prop_assert_eq!(e.message(), p.reason.as_str()),
+                        (r, v) => return Err(TestCaseError::fail(format!("{} Hz: {:?} against {v:?}", p.x, r.err()))),
+                    }
+                }
+            }
+        }
+    }
+}
+
+#[test]
+fn sliced_sweeps_compare_built_points() {
+    // The property compares something: run it here and count the built
+    // points it checked against `solve::evaluate_with` (only ever counted up, so a
+    // parallel run of the property can only add to it).
+    sliced_sweeps_are_the_whole_sweep();
+    let n = BUILT.load(std::sync::atomic::Ordering::Relaxed);
+    assert!(n >= 40, "only {n} built points compared");
 }

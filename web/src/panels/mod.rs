@@ -22,6 +22,7 @@ pub mod material_curves;
 pub mod pictures;
 pub mod results;
 pub mod sheet;
+pub mod sweep_run;
 pub mod optimiser;
 mod sweep_chart;
 pub mod windings;

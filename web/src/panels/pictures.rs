@@ -26,13 +26,17 @@
 //!    outside it never shown as passing (`design::sweep::range`). The
 //!    legend's entries are also on the figure as `data-legend`.
 //!
-//! Speed: the sweep is the slow part (it redesigns at every point), so it
-//! does not run on the keystroke. The design it sweeps is copied into its
-//! own signal by a timer [`SWEEP_DELAY_MS`] after the last edit; the
-//! results and the other pictures update at once, the sweep (both curves,
-//! and the envelope when it is asked for) once typing pauses (its figure
-//! is dimmed, and `data-sweep-ready="false"`, meanwhile). The envelope is
-//! one sweep per library material, so it runs only when asked.
+//! Speed: the sweep is the slow part (it redesigns at every point, 200
+//! designs for both curves), more than one frame's worth, so it is run in
+//! slices, one per animation frame ([`super::sweep_run`]): every edit
+//! starts a new run at once and drops the one in progress; the results and
+//! the other pictures update on the keystroke, the sweep (both curves) when
+//! its run ends, a few frames later. Until then the figure shows the last
+//! sweep dimmed, with `data-sweep-ready="false"`: the sweep drawn is always
+//! the one for the design shown, or marked as being recomputed
+//! (`data-swept-hz` is the frequency of the design it is for). The
+//! envelope is one sweep per library material, so it runs only when asked,
+//! for the design of the last finished run.
 //!
 //! Every number comes from the engine; this module only arranges them.
 
@@ -40,18 +44,15 @@ use crate::form::{Outcome, Report};
 use crate::plot::{self, Axis, LineChart, Marker, Rgb, Series, Shade, Side};
 use crate::ui::PlotCanvas;
 use super::sweep_chart::{fail_runs, legend_of, sweep_chart};
+use super::sweep_run::{Best, Curves, SweepRun};
 use leptos::prelude::*;
 use magwright_engine::design::{sweep, views, Design};
 use magwright_engine::notation;
 use magwright_engine::topology::Corner;
 use magwright_engine::waveform::Pwl;
-use std::time::Duration;
 
 /// Points of the page's frequency sweep (the engine asks at least 2).
 pub const SWEEP_POINTS: usize = 100;
-
-/// Pause after the last edit before the sweep runs, ms.
-pub const SWEEP_DELAY_MS: u64 = 150;
 
 /// Points of the best-material envelope (each a sweep per library material).
 pub const ENVELOPE_POINTS: usize = 50;
@@ -216,61 +217,38 @@ fn mmf_chart(r: &Report, m: &views::MmfProfile) -> LineChart {
     }
 }
 
+/// A sweep's total loss at each point, W, space-separated ("-" where no
+/// design could be built): what the tests compare with the CLI's sweep.
+fn totals(s: &sweep::Sweep) -> String {
+    let v: Vec<String> = s.points.iter().map(|p| p.values.map_or("-".into(), |v| v.total.to_string())).collect();
+    v.join(" ")
+}
+
 /// The four pictures, a line-corner selector and the sweep's CSV.
 #[component]
 pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl IntoView {
     let corner = RwSignal::new(Corner::VinMin);
 
-    // The sweep runs on its own copy of the design, set by a timer after
-    // the last edit (module docs), so a keystroke never waits for it.
-    let swept = RwSignal::new(None::<Design>);
-    let timer = StoredValue::new(None::<leptos::prelude::TimeoutHandle>);
-    Effect::new(move |_| {
-        let d = design.get();
-        if let Some(h) = timer.get_value() {
-            h.clear();
-        }
-        let handle = set_timeout_with_handle(
-            move || {
-                if swept.with_untracked(|s| s != &d) {
-                    swept.set(d.clone());
-                }
-            },
-            Duration::from_millis(SWEEP_DELAY_MS),
-        )
-        .ok();
-        timer.set_value(handle);
-    });
-    // Both curves and how long they took, ms (shown as `data-sweep-ms`).
-    let timed = Memo::new(move |_| {
-        swept.with(|d| {
-            d.as_ref().and_then(|d| {
-                let (lo, hi) = sweep_range(d.spec.frequency);
-                let t0 = js_sys::Date::now();
-                let s = sweep::frequency(d, lo, hi, SWEEP_POINTS).ok()?;
-                let w = sweep::as_wound(d, lo, hi, SWEEP_POINTS).ok();
-                Some((s, w, js_sys::Date::now() - t0))
-            })
-        })
-    });
-    let sweep = Memo::new(move |_| timed.with(|t| t.as_ref().map(|t| t.0.clone())));
-    let wound = Memo::new(move |_| timed.with(|t| t.as_ref().and_then(|t| t.1.clone())));
-    let sweep_ms = move || timed.with(|t| t.as_ref().map(|t| t.2));
-    let ready = move || swept.with(|s| design.with(|d| s == d));
+    // The sweep is run in slices, one per animation frame, started at once
+    // by every change of the design (module docs, `sweep_run`).
+    let run = SweepRun::<Curves>::new();
+    Effect::new(move |_| run.start(design.get()));
+    let shown = run.shown;
+    let swept = Memo::new(move |_| shown.with(|s| s.as_ref().map(|s| s.design.clone())));
+    let sweep = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.out.0.clone())));
+    let wound = Memo::new(move |_| shown.with(|s| s.as_ref().and_then(|s| s.out.1.clone())));
+    let sweep_ms = move || shown.with(|s| s.as_ref().map(|s| s.ms));
     // The best material at each frequency: every library material is a
-    // sweep of its own, so it runs when asked for, not on every keystroke.
+    // sweep of its own, so it runs only when asked for, after the curves,
+    // for the design they are for (a run of its own, in slices too).
     let env_on = RwSignal::new(false);
-    let envelope = Memo::new(move |_| {
-        if !env_on.get() {
-            return None;
-        }
-        swept.with(|d| {
-            d.as_ref().and_then(|d| {
-                let (lo, hi) = sweep_range(d.spec.frequency);
-                sweep::envelope(d, lo, hi, ENVELOPE_POINTS, false).ok()
-            })
-        })
-    });
+    let env_run = SweepRun::<Best>::new();
+    Effect::new(move |_| env_run.start(if env_on.get() { swept.get() } else { None }));
+    let env_for = Memo::new(move |_| env_run.shown.with(|s| s.as_ref().map(|s| s.design.clone())));
+    let envelope = Memo::new(move |_| env_run.shown.with(|s| s.as_ref().and_then(|s| s.out.clone())));
+    // The sweep shown is for the design shown (and so is the envelope,
+    // when asked for); else it is being recomputed.
+    let ready = move || swept.with(|s| design.with(|d| s == d)) && (!env_on.get() || env_for.with(|e| swept.with(|s| e == s)));
 
     let mmf = Memo::new(move |_| {
         let c = corner.get();
@@ -477,6 +455,11 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         <figure class="plot" class:hidden=hidden class:stale=move || !ready() data-testid="sweep-figure"
             data-sweep-ready=move || if ready() { "true" } else { "false" }
             data-min-hz=sweep_min data-wound-min-hz=wound_min data-sweep-ms=sweep_ms
+            data-swept-hz=move || swept.with(|d| d.as_ref().map(|d| d.spec.frequency))
+            data-design-hz=move || design.with(|d| d.as_ref().map(|d| d.spec.frequency))
+            data-sweep-totals=move || sweep.with(|s| s.as_ref().map(totals))
+            data-wound-totals=move || wound.with(|s| s.as_ref().map(totals))
+            data-sweep-dropped=move || run.dropped.get()
             data-band-min-hz=band_of(|b| b.min) data-band-max-hz=band_of(|b| b.max)
             data-legend=legend data-envelope-changes-hz=env_changes data-from-hz=sweep_lo data-to-hz=sweep_hi data-points=SWEEP_POINTS
             title=fails_text>

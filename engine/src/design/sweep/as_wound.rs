@@ -16,9 +16,9 @@
 //! wound (the ripple itself then changes with f, as on the bench). An
 //! inductor (buck or boost) is given its wound inductance outright.
 
-use super::{landmarks, log_space, point, Curve, Sweep, SweepPoint};
+use super::{Curve, Sweep};
 use crate::design::file::{Design, TurnsRule, WireChoice, WireOverride};
-use crate::design::solve::{evaluate_with, Prepared, Report};
+use crate::design::solve::Report;
 use crate::error::{Error, Result};
 use crate::topology::Topology;
 use crate::winding::stackup::StackUp;
@@ -80,41 +80,11 @@ pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
 }
 
 /// Loss and temperature of the design as wound at `n` log-spaced
-/// frequencies from `f_min` to `f_max` (see the module docs). An error only
-/// where the design itself cannot be built at its own frequency.
+/// frequencies from `f_min` to `f_max` (see the module docs): a
+/// [`super::FrequencySweep`] of the as-wound curve, run to the end. An
+/// error only where the design itself cannot be built at its own frequency.
 pub fn as_wound(design: &Design, f_min: f64, f_max: f64, n: usize) -> Result<Sweep> {
-    design.check_envelope()?;
-    let fs = log_space(f_min, f_max, n)?;
-    let core = design.resolve_core()?;
-    let material = design.resolve_material()?;
-    let prep = Prepared::new(&material)?;
-    let wound = evaluate_with(design, &core, &material, &prep)?;
-    let fixed = as_wound_design(design, &wound)?;
-    let (f0, r0) = (design.spec.frequency, design.spec.flyback.ripple_ratio);
-    let mut d = fixed.clone();
-    let points = fs
-        .into_iter()
-        .map(|f| {
-            d.spec.frequency = f;
-            if design.spec.topology == Topology::Flyback {
-                let r = r0 * f0 / f;
-                if !(0.01..=20.0).contains(&r) {
-                    return SweepPoint {
-                        x: f,
-                        feasible: false,
-                        in_data: super::range::frequency_in_data(&material, f),
-                        values: None,
-                        reason: format!(
-                            "the wound Lp means a ripple ratio of {r:.3} here, outside the 0.01 to 20 the flyback model takes"
-                        ),
-                    };
-                }
-                d.spec.flyback.ripple_ratio = r;
-            }
-            point(f, evaluate_with(&d, &core, &material, &prep), &material, Some(f))
-        })
-        .collect();
-    Ok(landmarks(Curve::AsWound, points, &material))
+    Ok(super::FrequencySweep::new(design, f_min, f_max, n, Curve::AsWound)?.finish())
 }
 
 #[cfg(test)]

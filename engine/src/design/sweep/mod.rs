@@ -14,10 +14,12 @@
 mod as_wound;
 mod envelope;
 pub mod range;
+mod run;
 
 pub use as_wound::{as_wound, as_wound_design};
-pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint};
+pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint, EnvelopeSweep};
 pub use range::{frequency_band, Band};
+pub use run::FrequencySweep;
 
 use super::file::{Design, TurnsRule};
 use super::solve::{evaluate_with, Prepared, Report};
@@ -169,22 +171,10 @@ pub fn log_space(f_min: f64, f_max: f64, n: usize) -> Result<Vec<f64>> {
 }
 
 /// Total, core, DC and AC copper loss and temperature against switching
-/// frequency, `n` log-spaced points from `f_min` to `f_max`.
+/// frequency, `n` log-spaced points from `f_min` to `f_max`: a
+/// [`FrequencySweep`] of the redesigned curve, run to the end.
 pub fn frequency(design: &Design, f_min: f64, f_max: f64, n: usize) -> Result<Sweep> {
-    design.check_envelope()?;
-    let fs = log_space(f_min, f_max, n)?;
-    let core = design.resolve_core()?;
-    let material = design.resolve_material()?;
-    let prep = Prepared::new(&material)?;
-    let mut d = design.clone();
-    let points = fs
-        .into_iter()
-        .map(|f| {
-            d.spec.frequency = f;
-            point(f, evaluate_with(&d, &core, &material, &prep), &material, Some(f))
-        })
-        .collect();
-    Ok(landmarks(Curve::Redesigned, points, &material))
+    Ok(FrequencySweep::new(design, f_min, f_max, n, Curve::Redesigned)?.finish())
 }
 
 /// Loss against peak flux density at the design's frequency: primary turns
