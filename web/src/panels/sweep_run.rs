@@ -177,7 +177,9 @@ impl<J: Sliced> SweepRun<J> {
         let work = J::start(&design);
         let ms = js_sys::Date::now() - t0;
         self.job.set_value(Some(Job { design, work, ms }));
-        request_animation_frame(move || self.frame(generation));
+        // The first slice waits one frame: the keystroke's own results and
+        // pictures are painted first, undelayed by the sweep's budget.
+        request_animation_frame(move || request_animation_frame(move || self.frame(generation)));
     }
 
     /// One slice of the run, then the next frame (unless finished or
