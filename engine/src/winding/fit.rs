@@ -100,6 +100,27 @@ fn mm(x: f64) -> String {
     format!("{:.2} mm", x * 1e3)
 }
 
+/// [`layout`] of a section the fit lays out itself (no turns per layer or
+/// layer count given, no margins): `turns` of `c`, `parallel` in hand, in
+/// `breadth`; `None` where [`layout`] would refuse it. What the conductor
+/// search calls for each candidate, without building a section or the
+/// refusal's message.
+pub fn free_layout(c: &Conductor, turns: u32, parallel: u32, breadth: f64) -> Option<(u32, u32)> {
+    if !(breadth.is_finite() && breadth > 0.0) || turns == 0 || parallel == 0 {
+        return None;
+    }
+    if c.is_foil() {
+        return (c.outer_width() <= breadth * (1.0 + 1e-12)).then(|| (1, turns.saturating_mul(parallel)));
+    }
+    let pitch = c.outer_width() * parallel as f64;
+    let max = (breadth / pitch * (1.0 + 1e-12)).floor().min(u32::MAX as f64) as u32;
+    if max == 0 {
+        return None;
+    }
+    let tpl = turns.min(max);
+    Some((tpl, turns.div_ceil(tpl)))
+}
+
 /// Turns per layer and layers of one section in a usable `breadth`; errors
 /// carry `field`.
 pub fn layout(sec: &Section, breadth: f64, field: &str) -> Result<(u32, u32)> {
@@ -339,5 +360,57 @@ pub(crate) fn conductor_of<'a>(st: &'a StackUp, layer: &LayerFit) -> Option<(&'a
     match st.items.get(layer.item) {
         Some(Item::Section(s)) => Some((&s.conductor, s.parallel.max(1))),
         _ => None,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::winding::conductor::{table_litz, Grade};
+    use crate::winding::stackup::{Direction, Side};
+
+    /// [`free_layout`] is [`layout`] of the section the fit lays out itself,
+    /// refusals included, over round, triple-insulated, litz and foil
+    /// conductors, 1 to 4 in hand, 1 to 90 turns and breadths from below
+    /// one turn's width to 40 mm.
+    #[test]
+    fn free_layout_is_layout_of_a_free_section() {
+        let conductors = [
+            Conductor::awg(20, Grade::G2).unwrap(),
+            Conductor::awg(34, Grade::G1).unwrap(),
+            Conductor::triple_insulated(0.5e-3, 0.7e-3).unwrap(),
+            table_litz(60, 38).unwrap(),
+            Conductor::foil(0.1e-3, 12e-3).unwrap(),
+        ];
+        let mut checked = 0;
+        for c in &conductors {
+            for parallel in 1..=4 {
+                for turns in [1, 2, 3, 7, 13, 40, 90] {
+                    for breadth in [0.0, 0.3e-3, 0.72e-3, 1.5e-3, 5e-3, 12e-3, 12.5e-3, 40e-3] {
+                        let sec = Section {
+                            winding: "w".into(),
+                            turns,
+                            conductor: c.clone(),
+                            parallel,
+                            layers: None,
+                            turns_per_layer: None,
+                            direction: Direction::Clockwise,
+                            start: Side::Left,
+                            finish: Side::Left,
+                            margin_left: 0.0,
+                            margin_right: 0.0,
+                            interlayer: None,
+                        };
+                        assert_eq!(
+                            free_layout(c, turns, parallel, breadth),
+                            layout(&sec, breadth, "w").ok(),
+                            "{c:?} × {parallel}, {turns} turns, {breadth} m"
+                        );
+                        checked += 1;
+                    }
+                }
+            }
+        }
+        assert_eq!(checked, 5 * 4 * 7 * 8);
     }
 }

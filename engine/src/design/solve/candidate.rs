@@ -11,7 +11,7 @@ use crate::material::Material;
 use crate::topology::{self, sizing, Corner, Topology, Turns, WorstCase};
 use crate::winding::dowell::MU0;
 use crate::winding::fit::FitReport;
-use crate::winding::loss::{LossModel, LossOptions, WindingCurrent};
+use crate::winding::loss::{LossModel, LossOptions, LossReport, WindingCurrent};
 use crate::winding::stackup::StackUp;
 use crate::winding::wire::copper_resistivity;
 
@@ -28,6 +28,11 @@ pub(super) struct Candidate {
     pub(super) wires: Vec<WireSummary>,
     pub(super) winding_choice: WindingChoice,
     pub(super) corners: Vec<CornerLosses>,
+    /// The corners' copper loss is not evaluated yet (each `copper` is a
+    /// placeholder of zero loss): set by [`build_for_search`], whose
+    /// allocation by area the search usually replaces; [`ensure_copper`]
+    /// evaluates it where it stands.
+    pub(super) copper_pending: bool,
 }
 
 impl Candidate {
@@ -87,6 +92,44 @@ pub(super) fn build(cx: &Ctx, np: u32) -> Result<Candidate> {
 
 /// [`build`] evaluating the losses at one corner only (`Some`) or both.
 pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<Candidate> {
+    build_with(cx, np, only, true)
+}
+
+/// [`build`] without the copper loss of the allocation by area, for a
+/// candidate that goes straight to the least-loss search (which replaces
+/// the allocation and evaluates its own): the same candidate as [`build`]
+/// once [`ensure_copper`] has run, which the search does where it keeps
+/// the allocation.
+pub(super) fn build_for_search(cx: &Ctx, np: u32) -> Result<Candidate> {
+    build_with(cx, np, None, false)
+}
+
+/// Evaluates the copper loss [`build_for_search`] left out, at each corner
+/// the candidate holds, exactly as [`build`] would have.
+pub(super) fn ensure_copper(cx: &Ctx, c: &mut Candidate) -> Result<()> {
+    if !c.copper_pending {
+        return Ok(());
+    }
+    let spec = &cx.design.spec;
+    let (t_sel, _, _) = selection_copper(spec, cx.material)?;
+    let model = LossModel::from_fit(&c.stackup, &c.fit, t_sel)?;
+    let opts = LossOptions {
+        edge_time: cx.design.choices.edge_time,
+        ..LossOptions::default()
+    };
+    for corner in &mut c.corners {
+        let op = match corner.corner {
+            Corner::VinMin => &c.waves.at_vin_min,
+            Corner::VinMax => &c.waves.at_vin_max,
+        };
+        corner.copper = model.evaluate(&currents_of(spec.topology, op), &opts)?;
+        corner.total = corner.copper.total + corner.core.watts;
+    }
+    c.copper_pending = false;
+    Ok(())
+}
+
+fn build_with(cx: &Ctx, np: u32, only: Option<Corner>, copper: bool) -> Result<Candidate> {
     let (design, core, material, prep, n, lp) =
         (cx.design, cx.core, cx.material, cx.prep, cx.n, cx.lp);
     let spec = &design.spec;
@@ -144,7 +187,7 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
     let names = winding_names(&waves);
     let (t_sel, _, delta) = selection_copper(spec, material)?;
     let (stackup, fit, wires, winding_choice) = choose_stackup(design, core, &names, delta)?;
-    let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
+    let model = if copper { Some(LossModel::from_fit(&stackup, &fit, t_sel)?) } else { None };
     let opts = LossOptions {
         edge_time: ch.edge_time,
         ..LossOptions::default()
@@ -157,8 +200,17 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
         if only.is_some_and(|c| c != corner) {
             continue;
         }
-        let currents = currents_of(spec.topology, op);
-        let copper = model.evaluate(&currents, &opts)?;
+        let copper = match &model {
+            Some(m) => m.evaluate(&currents_of(spec.topology, op), &opts)?,
+            None => LossReport {
+                windings: Vec::new(),
+                total: 0.0,
+                harmonics: 0,
+                tail_share: 0.0,
+                converged: true,
+                temperature: t_sel,
+            },
+        };
         let core_loss = loss::core_loss_with(&prep.igse, material, &op.flux, t_sel, core.ve)?;
         let total = copper.total + core_loss.watts;
         corners.push(CornerLosses {
@@ -179,6 +231,7 @@ pub(super) fn build_corners(cx: &Ctx, np: u32, only: Option<Corner>) -> Result<C
         wires,
         winding_choice,
         corners,
+        copper_pending: !copper,
     })
 }
 
@@ -240,6 +293,7 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, interleave_
     let Some((stackup, fit, wires, winding_choice)) =
         search_stackup(cx.design, cx.core, &names, delta, &setting, interleave_as)?
     else {
+        ensure_copper(cx, &mut c)?;
         return Ok(c);
     };
     let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
@@ -259,6 +313,7 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, interleave_
     c.fit = fit;
     c.wires = wires;
     c.winding_choice = winding_choice;
+    c.copper_pending = false;
     Ok(c)
 }
 
@@ -298,6 +353,57 @@ pub fn core_sense(topo: Topology, name: &str) -> f64 {
                 (true, false) => -1.0,
                 (true, true) => 1.0,
             }
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    //! The shortcut of [`build_for_search`] (copper evaluated only where the
+    //! search keeps the allocation by area) against the straightforward
+    //! [`build`]: the same candidate, to the bit, once [`ensure_copper`] has
+    //! run, and the same search result.
+    use super::*;
+    use crate::design::file::{WireChoice, WireOverride};
+
+    fn designs() -> Vec<Design> {
+        let mut fixed = Design::demo_forward();
+        fixed.choices.wires = vec![
+            WireOverride { winding: "primary".into(), wire: WireChoice::Round { awg: 22, parallel: 2 } },
+            WireOverride { winding: "secondary 1".into(), wire: WireChoice::Round { awg: 24, parallel: 3 } },
+            WireOverride { winding: "reset".into(), wire: WireChoice::Round { awg: 30, parallel: 1 } },
+        ];
+        let mut hot = Design::demo_push_pull();
+        hot.spec.frequency *= 2.0;
+        hot.choices.edge_time = 50e-9;
+        vec![Design::demo_forward(), Design::demo_flyback(), Design::demo_push_pull(), fixed, hot]
+    }
+
+    #[test]
+    fn deferred_copper_is_the_straightforward_build() {
+        for d in designs() {
+            let core = d.resolve_core().unwrap();
+            let material = d.resolve_material().unwrap();
+            let prep = Prepared::new(&material).unwrap();
+            let n = sizing::turns_ratio(&d.spec).unwrap();
+            let lp = match d.spec.topology {
+                Topology::Flyback => Some(sizing::flyback_lp(&d.spec, n).unwrap()),
+                _ => None,
+            };
+            let cx = Ctx { design: &d, core: &core, material: &material, prep: &prep, n, lp };
+            let mut compared = 0;
+            for np in 4..40 {
+                let Ok(straight) = build(&cx, np) else { continue };
+                let mut deferred = build_for_search(&cx, np).unwrap();
+                assert!(deferred.copper_pending);
+                ensure_copper(&cx, &mut deferred).unwrap();
+                assert_eq!(format!("{straight:?}"), format!("{deferred:?}"), "{} at {np} turns", d.name);
+                let a = with_least_loss_conductors(&cx, straight, None).unwrap();
+                let b = with_least_loss_conductors(&cx, build_for_search(&cx, np).unwrap(), None).unwrap();
+                assert_eq!(format!("{a:?}"), format!("{b:?}"), "{} at {np} turns, searched", d.name);
+                compared += 1;
+            }
+            assert!(compared >= 5, "{}: only {compared} turn counts built", d.name);
         }
     }
 }

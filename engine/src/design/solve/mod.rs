@@ -230,7 +230,13 @@ pub(super) fn solve(
                         // trial was built at the first's worst corner only).
                         // A trial that cannot be built at both corners is
                         // not taken: it would be judged at one corner only.
-                        let both = build(&cx, c.turns.primary).and_then(|c| search(c, chosen.as_deref()));
+                        // (The search replaces the allocation by area, so
+                        // its copper is evaluated only where the search keeps it.)
+                        let rebuilt = match conductors {
+                            Conductors::LeastLoss => build_for_search(&cx, c.turns.primary),
+                            Conductors::ByArea => build(&cx, c.turns.primary),
+                        };
+                        let both = rebuilt.and_then(|c| search(c, chosen.as_deref()));
                         if let Some(c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
                             best = c;
                             reason = format!(

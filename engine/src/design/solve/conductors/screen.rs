@@ -17,7 +17,7 @@ use super::FOIL_FILM;
 use crate::waveform::Pwl;
 use crate::winding::conductor::Conductor;
 use crate::winding::dowell::dpsi;
-use crate::winding::fit::layout;
+use crate::winding::fit::free_layout;
 use crate::winding::stackup::Tape;
 
 /// Harmonics summed explicitly by the estimate.
@@ -96,13 +96,40 @@ pub struct Window {
     pub interlayer: Option<Tape>,
 }
 
+/// The Dowell functions Δψ₁, Δψ₂ at harmonics 1..=HARMONICS for each Δ at
+/// the fundamental met so far: candidates that share a wire and a layer
+/// width share them, across windings and interleavings. A value found
+/// here is the one [`dpsi`] returns for it (the same call, made once).
+#[derive(Debug, Default)]
+pub struct DowellMemo {
+    seen: Vec<(u64, [C; HARMONICS as usize])>,
+}
+
+impl DowellMemo {
+    fn get(&mut self, delta1: f64) -> &[C; HARMONICS as usize] {
+        let key = delta1.to_bits();
+        let i = match self.seen.iter().position(|e| e.0 == key) {
+            Some(i) => i,
+            None => {
+                let mut dp = [(0.0, 0.0); HARMONICS as usize];
+                for (n, x) in dp.iter_mut().enumerate() {
+                    *x = dpsi(delta1 * ((n + 1) as f64).sqrt());
+                }
+                self.seen.push((key, dp));
+                self.seen.len() - 1
+            }
+        };
+        &self.seen[i].1
+    }
+}
+
 /// Estimated loss (W) and radial build of the winding's sections (m), or
 /// `None` if the conductor cannot be laid out across the breadth.
 ///
 /// A layer of m sub-layers (m = 1; litz √k strand layers) whose MMF rises
 /// linearly from F₀ by D per sub-layer has Σ(|Fₖ|² + |Fₖ₊₁|²) and
 /// ΣRe(FₖFₖ₊₁*) in closed form (sums of k and k²), as in `winding::loss`.
-pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Option<(f64, f64)> {
+pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window, memo: &mut DowellMemo) -> Option<(f64, f64)> {
     let par = parallel.max(1);
     let a1 = c.copper_area();
     if !(a1 > 0.0) || p.turns == 0 {
@@ -126,8 +153,7 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
     let nn = nh as f64;
     let tail = nn * nn.sqrt() * 2.0 / (nn + 0.5).sqrt();
     for sf in &p.sections {
-        let sec = super::search::section(c, sf.turns, par);
-        let (tpl, nl) = layout(&sec, win.breadth, "screen").ok()?;
+        let (tpl, nl) = free_layout(c, sf.turns, par, win.breadth)?;
         build += nl as f64 * h + nl.saturating_sub(1) as f64 * film;
         // Sub-layers per layer and Δ at the fundamental (Dowell 1966: round
         // wire as its equivalent foil with porosity η = n·a/b).
@@ -144,9 +170,7 @@ pub fn estimate(p: &Portion, c: &Conductor, parallel: u32, win: &Window) -> Opti
             }
         };
         if !dp_done {
-            for (n, x) in dp.iter_mut().enumerate().take(nh) {
-                *x = dpsi(delta1 * ((n + 1) as f64).sqrt());
-            }
+            dp[..nh].copy_from_slice(&memo.get(delta1)[..nh]);
             dp_done = true;
         }
         // Identical layers are one block of sub-layers: the closed-form
@@ -226,13 +250,29 @@ mod tests {
     }
 
     #[test]
+    fn the_memo_returns_dowells_functions_exactly() {
+        // The memo is a cache, not an approximation: every entry equals
+        // `dpsi` at Δ₁·√n bit for bit, first call or repeated, in any order.
+        let mut memo = DowellMemo::default();
+        for &d1 in [0.3, 2.0, 0.3, 7.5, 2.0, 0.0, 41.0].iter() {
+            let got = *memo.get(d1);
+            for (k, g) in got.iter().enumerate() {
+                let want = dpsi(d1 * ((k + 1) as f64).sqrt());
+                assert_eq!(g.0.to_bits(), want.0.to_bits(), "Δ₁ {d1}, n {}", k + 1);
+                assert_eq!(g.1.to_bits(), want.1.to_bits(), "Δ₁ {d1}, n {}", k + 1);
+            }
+        }
+        assert_eq!(memo.seen.len(), 5);
+    }
+
+    #[test]
     fn sinusoid_in_one_foil_layer_is_dowell() {
         // One foil turn, sinusoidal current: the estimate is Rdc·I²·Fr with
         // Dowell's m = 1 factor (Dowell 1966), the tail of a sinusoid being 0.
         let (rho, d1, win, own) = sinusoid();
         let p = portions(&[(0, 1)], &["w"], &[1], &own).remove(0);
         let c = Conductor::foil(0.2e-3, 20e-3).unwrap();
-        let (loss, build) = estimate(&p, &c, 1, &win).unwrap();
+        let (loss, build) = estimate(&p, &c, 1, &win, &mut DowellMemo::default()).unwrap();
         let rdc = rho * 0.05 / (0.2e-3 * 20e-3);
         let want = rdc * 0.5 * fr_dowell(0.2e-3 / d1, 1.0);
         assert!((loss - want).abs() < 2e-3 * want, "{loss} {want}");
@@ -249,7 +289,7 @@ mod tests {
         let p = portions(&[(0, 7)], &["w"], &[7], &own).remove(0);
         for h in [0.03e-3, 0.1e-3, 0.3e-3] {
             let c = Conductor::foil(h, 20e-3).unwrap();
-            let (loss, _) = estimate(&p, &c, 1, &win).unwrap();
+            let (loss, _) = estimate(&p, &c, 1, &win, &mut DowellMemo::default()).unwrap();
             let rdc = rho * 7.0 * 0.05 / (h * 20e-3);
             let want = rdc * 0.5 * fr_dowell(h / d1, 7.0);
             assert!((loss - want).abs() < 2e-3 * want, "h {h}: {loss} {want}");

@@ -25,16 +25,16 @@
 //!    tried in its place and kept where the total copper loss falls.
 
 use super::optima::{litz_low_frequency_loss, optimum_delta, waveform_factor};
-use super::screen::{estimate, phasors, portions, Window};
+use super::screen::{estimate, phasors, portions, DowellMemo, Window};
 use super::{awg_not_above, FOIL_FILM};
 use crate::core::Core;
 use crate::error::Result;
 use crate::waveform::Pwl;
 use crate::winding::conductor::{table_litz, Conductor, Grade, LITZ_STRAND_AWG, LITZ_STRAND_COUNTS};
-use crate::winding::fit::{fit, layout, FitReport};
+use crate::winding::fit::{fit, free_layout, FitReport};
 use crate::winding::loss::{LossModel, LossOptions, LossReport, WindingCurrent};
 use crate::winding::stackup::{
-    default_stackup, DefaultOptions, Direction, Item, Pattern, Section, Side, StackUp, Tape, WindingSpec,
+    default_stackup, DefaultOptions, Item, Pattern, StackUp, Tape, WindingSpec,
 };
 use crate::winding::wire::awg_diameter;
 use serde::Serialize;
@@ -192,25 +192,6 @@ fn sections_of(order: &[(usize, u32)], n: usize) -> Vec<Vec<(u32, f64)>> {
         .collect()
 }
 
-/// A section of `turns` of `c`, `parallel` in hand, no margins or
-/// interlayer tape, layout left to the fit (what the search compares).
-pub(super) fn section(c: &Conductor, turns: u32, parallel: u32) -> Section {
-    Section {
-        winding: String::new(),
-        turns,
-        conductor: c.clone(),
-        parallel,
-        layers: None,
-        turns_per_layer: None,
-        direction: Direction::Clockwise,
-        start: Side::Left,
-        finish: Side::Left,
-        margin_left: 0.0,
-        margin_right: 0.0,
-        interlayer: None,
-    }
-}
-
 /// The candidates of one winding (module docs, step 1), unranked.
 fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, u32)> {
     if let Some(f) = &need.fixed {
@@ -251,7 +232,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
         let mut d = (2.0 * s.delta1).clamp(d_min, d_max);
         for _ in 0..3 {
             let Some(c) = round_of(awg_not_above(d)) else { break };
-            let Ok((tpl, nl)) = layout(&section(&c, big, par), s.breadth, "") else {
+            let Some((tpl, nl)) = free_layout(&c, big, par, s.breadth) else {
                 d *= 0.7;
                 continue;
             };
@@ -301,7 +282,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
             let mut best: Option<(usize, f64)> = None;
             for (j, &n) in LITZ_STRAND_COUNTS.iter().enumerate() {
                 let Ok(c) = table_litz(n, g) else { continue };
-                let Ok((tpl, nl)) = layout(&section(&c, big, 1), s.breadth, "") else { break };
+                let Some((tpl, nl)) = free_layout(&c, big, 1, s.breadth) else { break };
                 let sk = (n as f64).sqrt();
                 let eta = (tpl as f64 * sk * sqrt_pi_2 * ds / s.breadth).min(1.0);
                 let delta_s = sqrt_pi_2 * ds / s.delta1 * eta.sqrt();
@@ -452,6 +433,7 @@ fn screen_patterns(
     let names: Vec<&str> = needs.iter().map(|n| n.name).collect();
     let own: Vec<(f64, Vec<(f64, f64)>)> = needs.iter().map(|n| (n.current.mean(), phasors(n.current))).collect();
     let mut screened = Vec::with_capacity(patterns.len());
+    let mut memo = DowellMemo::default();
     for pattern in patterns {
         let order = order_of(pattern, &turns);
         let secs = sections_of(&order, needs.len());
@@ -469,7 +451,7 @@ fn screen_patterns(
                         let mut loss = 0.0;
                         let mut build = 0.0;
                         for portion in portions.iter().copied() {
-                            let (a, b) = estimate(portion, &c, p, win)?;
+                            let (a, b) = estimate(portion, &c, p, win, &mut memo)?;
                             loss += a;
                             build += b;
                         }
