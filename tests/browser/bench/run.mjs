@@ -242,8 +242,8 @@ async function main() {
   const size = statSync(o.page).size;
   const gz = gzipSync(html, { level: 9 }).length;
 
-  const limits = { evaluate: 100e-6, sweep: 2e-3, optimise: 1 };
-  const targetText = { evaluate: '< 100 µs', sweep: '< 2 ms', optimise: '< 1 s' };
+  const limits = { evaluate: 100e-6, sweep: 1.5e-3, optimise: 1 };
+  const targetText = { evaluate: '< 100 µs', sweep: '< 1.5 ms', optimise: '< 1 s' };
   const label = { evaluate: 'evaluate', sweep: '200-point sweep', optimise: 'optimiser, library' };
   const rows = native.samples.map((n) => {
     const w = wasm.samples.find((x) => x.workload === n.workload && x.demo === n.demo);
