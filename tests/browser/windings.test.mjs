@@ -69,8 +69,9 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   await page.waitForSelector('[data-testid="windings-table"]');
   const start = await matchesCli(page, 'demo');
   assert.equal(start.design.choices.interleave, 'auto');
-  // The demo interleaves P-S-P: two primary sections.
-  assert.equal(start.want.stackup.items.filter((i) => i.Section?.winding === 'primary').length, 2);
+  // The demo interleaves by loss: its secondary split around the primary (S-P-S), the reset outside.
+  assert.equal(start.want.winding_choice.interleave, 'split_secondaries');
+  assert.equal(start.want.stackup.items.filter((i) => i.Section?.winding === 'secondary 1').length, 2);
 
   // Interleaving: Auto → Sequential with the arrow key on the drop-down.
   const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));
@@ -219,14 +220,14 @@ test('results at a glance: verdict, failing checks first and red, tight marked',
   await context.close();
 });
 
-test('a custom order by keyboard: seeded from the stack-up as wound, the secondary moved first, the CLI\'s losses', async () => {
+test('a custom order by keyboard: seeded from the stack-up as wound, the primary moved first, the CLI\'s losses', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   await page.waitForSelector('[data-testid="windings-table"]');
   const start = await matchesCli(page, 'demo');
   const wound = (want) => want.stackup.items.filter((i) => i.Section).map((i) => i.Section.winding);
   const order = (d) => d.choices.section_order.map((s) => ({ winding: s.winding, turns: s.turns ?? null }));
   const asWound = wound(start.want);
-  assert.deepEqual(asWound, ['primary', 'secondary 1', 'reset', 'primary'], 'the demo winds P-S-R-P');
+  assert.deepEqual(asWound, ['secondary 1', 'primary', 'secondary 1', 'reset'], 'the demo winds S-P-S-R');
   assert.equal(await page.isVisible('[data-testid="order-editor"]'), false, 'no order editor until Custom');
 
   // Custom: the list starts as the stack-up was wound, so nothing changes.
@@ -241,17 +242,17 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the seconda
     const now = seeded.want.operating.copper.windings.find((x) => x.name === w.name);
     assert.ok(close(now.total_loss, w.total_loss, 1e-12), `seeding changes nothing: ${w.name}`);
   }
-  assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move secondary 1 section 1 up');
-  assert.equal(await page.getAttribute('#order-split-3', 'aria-label'), 'Split primary section 2 in two');
+  assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move primary section 1 up');
+  assert.equal(await page.getAttribute('#order-split-2', 'aria-label'), 'Split secondary 1 section 2 in two');
 
-  // Secondary first (S-P-R-P) with the keyboard; the focus stays on it.
+  // The primary first (P-S-S-R) with the keyboard; the focus stays on it.
   const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));
   await page.focus('#order-up-1');
   await page.keyboard.press('Enter');
   await changed(page, 'fr-primary', fr0);
-  const moved = await matchesCli(page, 'secondary first');
+  const moved = await matchesCli(page, 'primary first');
   assert.equal(moved.design.choices.interleave, 'custom');
-  const want = ['secondary 1', 'primary', 'reset', 'primary'];
+  const want = ['primary', 'secondary 1', 'secondary 1', 'reset'];
   assert.deepEqual(order(moved.design), want.map((w) => ({ winding: w, turns: null })));
   assert.deepEqual(wound(moved.want), want, 'the engine winds the order given');
   const shown = await page.$$eval('[data-testid="stackup-order"] li.section .what', (e) => e.map((x) => x.textContent));
@@ -260,7 +261,7 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the seconda
   await page.locator('[data-testid="panel-windings"]').screenshot({ path: join(OUT, 'windings-custom-order.png') });
 
   // Without a reset section the engine refuses, at the editor; adding one back heals it.
-  await page.focus('#order-remove-2');
+  await page.focus('#order-remove-3');
   await page.keyboard.press('Enter');
   await page.waitForSelector('[data-testid="order-error"]');
   assert.match(await page.textContent('[data-testid="order-error"]'), /the winding "reset" has no section in the order/);
@@ -271,7 +272,7 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the seconda
   await page.waitForSelector('[data-testid="windings-table"]');
   assert.equal(await page.isVisible('[data-testid="order-error"]'), false);
   const healed = await matchesCli(page, 'reset added outside');
-  assert.deepEqual(wound(healed.want), ['secondary 1', 'primary', 'primary', 'reset']);
+  assert.deepEqual(wound(healed.want), ['primary', 'secondary 1', 'secondary 1', 'reset']);
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

@@ -442,8 +442,17 @@ fn flux_sweep_minimum_near_two_over_beta() {
         // The least-loss rule lands within one step of the sweep's minimum:
         // its turns between the minimum's neighbours, its loss no more than
         // the worse of them (the ideal curve is convex in ln N).
+        // (Neighbours in turns, not in B: a forward-type design's Bpk is set
+        // by the secondary turns, so two primary turn counts can share a B.)
         let least = evaluate(&d).unwrap();
-        let (pm, pp) = (s.points[i - 1].values.unwrap(), s.points[i + 1].values.unwrap());
+        let turns_of = |n: u32| s.points.iter().filter_map(|p| p.values).find(|x| x.primary_turns == n);
+        let n0 = v.primary_turns;
+        let below_n = s.points.iter().filter_map(|p| p.values).map(|x| x.primary_turns).filter(|&n| n < n0).max();
+        let above_n = s.points.iter().filter_map(|p| p.values).map(|x| x.primary_turns).filter(|&n| n > n0).min();
+        let (pm, pp) = (
+            turns_of(below_n.expect("a point with fewer turns")).unwrap(),
+            turns_of(above_n.expect("a point with more turns")).unwrap(),
+        );
         let (n_lo, n_hi) = (pm.primary_turns.min(pp.primary_turns), pm.primary_turns.max(pp.primary_turns));
         eprintln!(
             "{}: least-loss N {} ({:.4} W), sweep minimum N {} ({:.4} W), neighbours {n_lo}…{n_hi}",

@@ -72,7 +72,8 @@ pub enum TurnsRule {
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
 #[serde(rename_all = "snake_case")]
 pub enum Interleave {
-    /// P-S-P for single primaries, sequential for centre-tapped ones.
+    /// Chosen by loss: sequential, P-S-P or S-P-S for a single primary;
+    /// sequential or mirrored halves where windings are centre-tapped.
     Auto,
     /// Primary, then each other winding.
     Sequential,
@@ -80,6 +81,9 @@ pub enum Interleave {
     SplitPrimary,
     /// S-P-S: half of each other winding, the primary, the other halves.
     SplitSecondaries,
+    /// Centre-tapped halves mirrored about the primary: the secondaries'
+    /// A halves, the primary (A then B), the secondaries' B halves.
+    MirroredHalves,
     /// The sections in `Choices::section_order`, bobbin outward.
     Custom,
 }

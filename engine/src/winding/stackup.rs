@@ -306,9 +306,69 @@ pub enum Pattern {
     /// Split secondaries, S-P-S: half of each other winding, the primary,
     /// the other halves.
     SplitSecondaries,
+    /// Centre-tapped halves mirrored about the primary: each secondary's
+    /// "A" half (the last output innermost), the primary side (its "A" half
+    /// then its "B" half, or a bridge's one primary), each secondary's "B"
+    /// half (the first output innermost). Each half is then wound next to
+    /// the primary half it conducts with, and the idle halves of each half
+    /// cycle lie where the field is nil (common practice, no source).
+    MirroredHalves,
     /// Explicit order: `(winding index, turns)` per section, inner first.
     /// The turns of each winding must add up to its total.
     Custom(Vec<(usize, u32)>),
+}
+
+/// The name of the single-switch forward's reset winding. It carries only
+/// the magnetising current, so the split patterns wind it whole and
+/// outermost, beside the outer face of the primary and out of the field of
+/// the load current, where its proximity loss is nil (common practice, no
+/// source).
+pub const RESET_WINDING: &str = "reset";
+
+impl Pattern {
+    /// The sections `(winding index, turns)` bobbin outward for windings
+    /// `(name, turns)`, winding 0 the primary: what [`default_stackup`]
+    /// winds (sections of no turns included; a custom order as given).
+    pub fn order(&self, windings: &[(&str, u32)]) -> Vec<(usize, u32)> {
+        let half = |n: u32| (n.div_ceil(2), n / 2);
+        let reset = |i: usize| i > 0 && windings[i].0 == RESET_WINDING;
+        let others = || (1..windings.len()).filter(|&i| !reset(i));
+        let resets = || (1..windings.len()).filter(|&i| reset(i)).map(|i| (i, windings[i].1));
+        let Some(&(_, np)) = windings.first() else { return Vec::new() };
+        match self {
+            Pattern::Sequential => windings.iter().enumerate().map(|(i, w)| (i, w.1)).collect(),
+            Pattern::SplitPrimary => {
+                let (a, b) = half(np);
+                let mut v = vec![(0, a)];
+                v.extend(others().map(|i| (i, windings[i].1)));
+                v.push((0, b));
+                v.extend(resets());
+                v
+            }
+            Pattern::SplitSecondaries => {
+                let mut v: Vec<(usize, u32)> = others().map(|i| (i, half(windings[i].1).0)).collect();
+                v.push((0, np));
+                v.extend(others().map(|i| (i, half(windings[i].1).1)));
+                v.extend(resets());
+                v
+            }
+            Pattern::MirroredHalves => {
+                let all = || windings.iter().enumerate();
+                let primary = |n: &str| n.starts_with("primary");
+                let mut v: Vec<(usize, u32)> =
+                    all().rev().filter(|(_, w)| !primary(w.0) && w.0.ends_with(" A")).map(|(i, w)| (i, w.1)).collect();
+                v.extend(all().filter(|(_, w)| primary(w.0)).map(|(i, w)| (i, w.1)));
+                v.extend(all().filter(|(_, w)| !primary(w.0) && w.0.ends_with(" B")).map(|(i, w)| (i, w.1)));
+                v.extend(
+                    all()
+                        .filter(|(_, w)| !primary(w.0) && !w.0.ends_with(" A") && !w.0.ends_with(" B"))
+                        .map(|(i, w)| (i, w.1)),
+                );
+                v
+            }
+            Pattern::Custom(v) => v.clone(),
+        }
+    }
 }
 
 /// Insulation choices for [`default_stackup`].
@@ -351,48 +411,27 @@ pub fn default_stackup(
     if windings.is_empty() {
         return Err(Error::input("windings", "give at least one winding"));
     }
-    let half = |n: u32| (n.div_ceil(2), n / 2);
-    let order: Vec<(usize, u32)> = match pattern {
-        Pattern::Sequential => windings.iter().enumerate().map(|(i, w)| (i, w.turns)).collect(),
-        Pattern::SplitPrimary => {
-            let (a, b) = half(windings[0].turns);
-            let mut v = vec![(0, a)];
-            v.extend(windings.iter().enumerate().skip(1).map(|(i, w)| (i, w.turns)));
-            v.push((0, b));
-            v
-        }
-        Pattern::SplitSecondaries => {
-            let mut v: Vec<(usize, u32)> = windings
-                .iter()
-                .enumerate()
-                .skip(1)
-                .map(|(i, w)| (i, half(w.turns).0))
-                .collect();
-            v.push((0, windings[0].turns));
-            v.extend(windings.iter().enumerate().skip(1).map(|(i, w)| (i, half(w.turns).1)));
-            v
-        }
-        Pattern::Custom(v) => {
-            for (k, &(i, _)) in v.iter().enumerate() {
-                if i >= windings.len() {
-                    return Err(Error::input(
-                        &format!("pattern[{k}]"),
-                        format!("winding index {i} but only {} windings", windings.len()),
-                    ));
-                }
+    if let Pattern::Custom(v) = pattern {
+        for (k, &(i, _)) in v.iter().enumerate() {
+            if i >= windings.len() {
+                return Err(Error::input(
+                    &format!("pattern[{k}]"),
+                    format!("winding index {i} but only {} windings", windings.len()),
+                ));
             }
-            for (i, w) in windings.iter().enumerate() {
-                let sum: u64 = v.iter().filter(|(j, _)| *j == i).map(|(_, t)| *t as u64).sum();
-                if sum != w.turns as u64 {
-                    return Err(Error::input(
-                        "pattern",
-                        format!("the sections of \"{}\" add up to {sum} turns, not {}", w.name, w.turns),
-                    ));
-                }
-            }
-            v.clone()
         }
-    };
+        for (i, w) in windings.iter().enumerate() {
+            let sum: u64 = v.iter().filter(|(j, _)| *j == i).map(|(_, t)| *t as u64).sum();
+            if sum != w.turns as u64 {
+                return Err(Error::input(
+                    "pattern",
+                    format!("the sections of \"{}\" add up to {sum} turns, not {}", w.name, w.turns),
+                ));
+            }
+        }
+    }
+    let named: Vec<(&str, u32)> = windings.iter().map(|w| (w.name.as_str(), w.turns)).collect();
+    let order = pattern.order(&named);
     let mut items = Vec::new();
     let sections: Vec<&(usize, u32)> = order.iter().filter(|(_, t)| *t > 0).collect();
     for (k, &&(i, turns)) in sections.iter().enumerate() {
@@ -433,4 +472,62 @@ pub fn default_stackup(
     st.validate()?;
     super::fit::fit(core, &st)?;
     Ok(st)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn names(order: &[(usize, u32)], w: &[(&str, u32)]) -> Vec<(String, u32)> {
+        order.iter().map(|&(i, t)| (w[i].0.to_string(), t)).collect()
+    }
+    fn v(x: &[(&str, u32)]) -> Vec<(String, u32)> {
+        x.iter().map(|(a, b)| (a.to_string(), *b)).collect()
+    }
+
+    #[test]
+    fn the_split_patterns_wind_the_reset_whole_and_outermost() {
+        let w = [("primary", 7), ("secondary 1", 6), ("reset", 7)];
+        let o = |p: Pattern| names(&p.order(&w), &w);
+        assert_eq!(o(Pattern::Sequential), v(&[("primary", 7), ("secondary 1", 6), ("reset", 7)]));
+        assert_eq!(
+            o(Pattern::SplitPrimary),
+            v(&[("primary", 4), ("secondary 1", 6), ("primary", 3), ("reset", 7)])
+        );
+        assert_eq!(
+            o(Pattern::SplitSecondaries),
+            v(&[("secondary 1", 3), ("primary", 7), ("secondary 1", 3), ("reset", 7)])
+        );
+    }
+
+    #[test]
+    fn mirrored_halves_put_each_half_beside_its_primary_half() {
+        // Push-pull, two outputs: A halves inside (the last output innermost),
+        // the primary A then B, the B halves outside (the first innermost).
+        let w = [
+            ("primary A", 5),
+            ("primary B", 5),
+            ("secondary 1 A", 4),
+            ("secondary 1 B", 4),
+            ("secondary 2 A", 2),
+            ("secondary 2 B", 2),
+        ];
+        assert_eq!(
+            names(&Pattern::MirroredHalves.order(&w), &w),
+            v(&[
+                ("secondary 2 A", 2),
+                ("secondary 1 A", 4),
+                ("primary A", 5),
+                ("primary B", 5),
+                ("secondary 1 B", 4),
+                ("secondary 2 B", 2),
+            ])
+        );
+        // A bridge: one primary between its secondary's halves.
+        let w = [("primary", 9), ("secondary 1 A", 3), ("secondary 1 B", 3)];
+        assert_eq!(
+            names(&Pattern::MirroredHalves.order(&w), &w),
+            v(&[("secondary 1 A", 3), ("primary", 9), ("secondary 1 B", 3)])
+        );
+    }
 }

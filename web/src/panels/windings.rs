@@ -768,6 +768,7 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         (Interleave::Sequential, "Sequential (P-S)"),
         (Interleave::SplitPrimary, "Split primary (P-S-P)"),
         (Interleave::SplitSecondaries, "Split others (S-P-S)"),
+        (Interleave::MirroredHalves, "Mirrored halves (SA-P-SB)"),
         (Interleave::Custom, "Custom order"),
     ];
     // The sections as last wound (kept while the engine refuses an edit):

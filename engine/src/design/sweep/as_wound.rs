@@ -9,15 +9,16 @@
 //!
 //! How it holds the build: the solver is run with the wound primary turns
 //! (`TurnsRule::Primary`; the secondaries follow from the same ratio) and
-//! every winding's conductor fixed (`choices.wires`), so the default
-//! stack-up builder lays the same sections again; a flyback's Lp is
+//! every winding's conductor fixed (`choices.wires`) and the interleaving
+//! chosen held (`choices.interleave`), so the default stack-up builder
+//! lays the same sections again; a flyback's Lp is
 //! Vin²·D²/(r·f·Pin) (`topology::sizing::flyback_lp_from_ripple`), so the
 //! ripple ratio r is scaled by f₀/f to keep Lp, and with it the gap, as
 //! wound (the ripple itself then changes with f, as on the bench). An
 //! inductor (buck or boost) is given its wound inductance outright.
 
 use super::{Curve, Sweep};
-use crate::design::file::{Design, TurnsRule, WireChoice, WireOverride};
+use crate::design::file::{Design, Interleave, TurnsRule, WireChoice, WireOverride};
 use crate::design::solve::Report;
 use crate::error::{Error, Result};
 use crate::topology::Topology;
@@ -69,6 +70,18 @@ pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
     let mut d = design.clone();
     d.choices.turns = TurnsRule::Primary { turns: report.turns.primary };
     d.choices.wires = fixed_wires(&report.stackup)?;
+    // The interleaving chosen (by loss where automatic) is held too: with
+    // every conductor fixed the solver would otherwise wind its default
+    // order for "auto". A custom order is kept as the file gives it.
+    d.choices.interleave = serde_json::from_value::<Interleave>(serde_json::Value::String(
+        report.winding_choice.interleave.clone(),
+    ))
+    .map_err(|_| {
+        Error::infeasible(
+            Some("choices.interleave"),
+            format!("the interleaving \"{}\" cannot be held for the as-wound sweep", report.winding_choice.interleave),
+        )
+    })?;
     if design.spec.topology == Topology::Inductor {
         // The inductor as wound keeps its inductance (so its gap), not its
         // ripple ratio: L is given, the ripple then follows f.

@@ -98,11 +98,31 @@ fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Resul
     })
 }
 
-/// Interleaving can be chosen for two or more windings, none of them a
-/// centre-tapped half, with a primary of at least two turns.
+/// Some winding is a centre-tapped half ("X A" with its "X B").
+fn centre_tapped(windings: &[(String, u32, f64)]) -> bool {
+    windings.iter().any(|w| w.0.ends_with(" A"))
+}
+
+/// Splitting the primary or the secondaries can be chosen for two or more
+/// windings, none of them a centre-tapped half, with a primary of at least
+/// two turns; centre-tapped windings are mirrored instead
+/// ([`Pattern::MirroredHalves`]).
 fn can_interleave(windings: &[(String, u32, f64)]) -> bool {
-    let centre_tapped = windings.iter().any(|w| w.0.ends_with(" A"));
-    windings.len() >= 2 && !centre_tapped && windings[0].1 >= 2
+    windings.len() >= 2 && !centre_tapped(windings) && windings[0].1 >= 2
+}
+
+/// `choices.interleave = "mirrored_halves"`, refused where no winding is
+/// centre-tapped.
+fn mirrored_halves(windings: &[(String, u32, f64)]) -> Result<Pattern> {
+    if centre_tapped(windings) {
+        Ok(Pattern::MirroredHalves)
+    } else {
+        Err(Error::input(
+            "choices.interleave",
+            "\"mirrored_halves\" mirrors centre-tapped halves (push-pull, or a bridge's centre-tapped secondaries) \
+             and this design has none: choose \"sequential\", \"split_primary\", \"split_secondaries\" or \"custom\"",
+        ))
+    }
 }
 
 /// Step 5 in every turn-count trial: the conductors by window allocation
@@ -122,7 +142,9 @@ pub(super) fn choose_stackup(
         Interleave::SplitPrimary => Pattern::SplitPrimary,
         Interleave::SplitSecondaries => Pattern::SplitSecondaries,
         Interleave::Custom => Pattern::Custom(custom_order(&ch.section_order, windings)?),
+        Interleave::MirroredHalves => mirrored_halves(windings)?,
         Interleave::Auto if can_interleave(windings) => Pattern::SplitPrimary,
+        Interleave::Auto if centre_tapped(windings) => Pattern::MirroredHalves,
         Interleave::Auto => Pattern::Sequential,
     };
     let (st, f, wires) = by_area(design, core, windings, delta, &pattern, &fr.opts, fr.breadth, fr.tiw_secondaries)?;
@@ -158,9 +180,11 @@ pub(super) fn search_stackup(
         Interleave::SplitPrimary => vec![Pattern::SplitPrimary],
         Interleave::SplitSecondaries => vec![Pattern::SplitSecondaries],
         Interleave::Custom => vec![Pattern::Custom(custom_order(&ch.section_order, windings)?)],
+        Interleave::MirroredHalves => vec![mirrored_halves(windings)?],
         Interleave::Auto if can_interleave(windings) => {
             vec![Pattern::Sequential, Pattern::SplitPrimary, Pattern::SplitSecondaries]
         }
+        Interleave::Auto if centre_tapped(windings) => vec![Pattern::Sequential, Pattern::MirroredHalves],
         Interleave::Auto => vec![Pattern::Sequential],
     };
     // An automatic interleaving already chosen by loss on other turns of
@@ -244,6 +268,7 @@ pub(super) fn pattern_name(p: &Pattern) -> &'static str {
         Pattern::Sequential => "sequential",
         Pattern::SplitPrimary => "split_primary",
         Pattern::SplitSecondaries => "split_secondaries",
+        Pattern::MirroredHalves => "mirrored_halves",
         Pattern::Custom(_) => "custom",
     }
 }

@@ -148,28 +148,11 @@ struct Option1 {
     build: f64,
 }
 
-/// The section order `(winding, turns)` bobbin outward under `pattern`
-/// (as `default_stackup` builds it).
-fn order_of(pattern: &Pattern, turns: &[u32]) -> Vec<(usize, u32)> {
-    let half = |n: u32| (n.div_ceil(2), n / 2);
-    let v: Vec<(usize, u32)> = match pattern {
-        Pattern::Sequential => turns.iter().copied().enumerate().collect(),
-        Pattern::SplitPrimary => {
-            let (a, b) = half(turns[0]);
-            let mut v = vec![(0, a)];
-            v.extend(turns.iter().copied().enumerate().skip(1));
-            v.push((0, b));
-            v
-        }
-        Pattern::SplitSecondaries => {
-            let mut v: Vec<(usize, u32)> = turns.iter().enumerate().skip(1).map(|(i, &t)| (i, half(t).0)).collect();
-            v.push((0, turns[0]));
-            v.extend(turns.iter().enumerate().skip(1).map(|(i, &t)| (i, half(t).1)));
-            v
-        }
-        Pattern::Custom(v) => v.clone(),
-    };
-    v.into_iter().filter(|s| s.1 > 0).collect()
+/// The section order `(winding, turns)` bobbin outward under `pattern`,
+/// as `default_stackup` builds it, without its empty sections.
+fn order_of(pattern: &Pattern, names: &[&str], turns: &[u32]) -> Vec<(usize, u32)> {
+    let named: Vec<(&str, u32)> = names.iter().copied().zip(turns.iter().copied()).collect();
+    pattern.order(&named).into_iter().filter(|s| s.1 > 0).collect()
 }
 
 /// Each winding's sections (turns, layer factor) for the starting points:
@@ -435,7 +418,7 @@ fn screen_patterns(
     let mut screened = Vec::with_capacity(patterns.len());
     let mut memo = DowellMemo::default();
     for pattern in patterns {
-        let order = order_of(pattern, &turns);
+        let order = order_of(pattern, &names, &turns);
         let secs = sections_of(&order, needs.len());
         let nsec = order.len();
         let all = portions(&order, &names, &turns, &own);
@@ -584,7 +567,8 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
     }
     let (_, pattern, lists, pick, mut st, mut f, mut r) = best?;
     let mut set = expand(&pick, &lists);
-    let nsec = order_of(&pattern, &turns).len();
+    let names: Vec<&str> = needs.iter().map(|n| n.name).collect();
+    let nsec = order_of(&pattern, &names, &turns).len();
     let limit = limit_all - tape_build(s.opts, nsec);
     let group_loss = |r: &LossReport, g: usize| -> f64 { gr[g].iter().map(|&m| winding_loss(r, needs[m].name)).sum() };
     // Per group: (option index, the group's evaluated loss).
