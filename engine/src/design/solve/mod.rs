@@ -72,7 +72,7 @@ use candidate::*;
 pub use candidate::{core_sense, currents_of};
 pub use choke::{choke_design, choke_spec};
 use conductors::*;
-pub use conductors::{ConductorKind, ConductorTrial};
+pub use conductors::{ConductorKind, ConductorTrial, SIMPLER_SHARE};
 pub use report::*;
 
 /// Residual gap of a mated, ungapped core pair, m (common practice, from
@@ -503,6 +503,28 @@ mod tests {
                     assert!(!sec.conductor.is_foil());
                 }
             }
+        }
+    }
+
+    #[test]
+    fn a_winding_that_saves_next_to_nothing_gets_plain_round_wire() {
+        // The forward demo's reset winding carries only the magnetising
+        // current, outside the load current's field: its least-loss
+        // conductor (a thin foil) saves a few mW over one round wire, far
+        // below SIMPLER_SHARE of the copper loss, so one round wire is wound.
+        use super::conductors::search::SIMPLER_SHARE;
+        let r = evaluate(&Design::demo_forward()).unwrap();
+        let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
+        let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
+        assert_eq!((chosen.kind, chosen.parallel), (ConductorKind::Round, 1), "{}", reset.reason);
+        let least = reset.trials.iter().filter(|t| t.evaluated).map(|t| t.loss).fold(f64::INFINITY, f64::min);
+        assert!(least < chosen.loss, "a lower-loss conductor was weighed: {}", reset.reason);
+        let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
+        assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
+        assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
+        // The main windings keep their least-loss conductors.
+        for w in r.wires.iter().filter(|w| w.winding != "reset") {
+            assert!(w.reason.starts_with("least copper loss"), "{}: {}", w.winding, w.reason);
         }
     }
 

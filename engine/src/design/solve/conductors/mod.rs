@@ -7,7 +7,7 @@ pub mod optima;
 pub mod screen;
 pub mod search;
 
-pub use search::{ConductorTrial, Kind as ConductorKind};
+pub use search::{ConductorTrial, Kind as ConductorKind, SIMPLER_SHARE};
 
 /// What the search needs to evaluate copper loss: the currents at the
 /// selection corner (dot convention), the temperature and ρ there.

@@ -23,6 +23,12 @@
 //!    evaluated with its ranked set, the least-loss one kept; then each
 //!    winding's best candidate of every other kind (within [`KIND_BAND`]) is
 //!    tried in its place and kept where the total copper loss falls.
+//! 4. **Simplicity.** Per winding, the simplest candidate (round before
+//!    foil before litz, fewer in hand, less copper; common practice, no
+//!    source) whose set loses at most [`SIMPLER_SHARE`] more copper than
+//!    the least-loss set is wound instead: where the least-loss conductor
+//!    saves next to nothing (a reset winding outside the load current's
+//!    field), plain round wire.
 
 use super::optima::{litz_low_frequency_loss, optimum_delta, waveform_factor};
 use super::screen::{estimate, phasors, portions, DowellMemo, Window};
@@ -53,6 +59,13 @@ pub const SCREEN_BAND: f64 = 1.05;
 /// estimate leaves out how a conductor's build moves the other windings
 /// (our choice).
 pub const KIND_BAND: f64 = 1.15;
+/// A simpler conductor ([`simplicity`]) is wound where it adds at most this
+/// share to the set's copper loss: a winding whose least-loss conductor
+/// buys a negligible saving (a forward's reset winding, say) gets plain
+/// round wire (our choice).
+pub const SIMPLER_SHARE: f64 = 0.02;
+/// Simpler candidates of one winding the harmonic model weighs at most.
+pub const SIMPLER_TRIES: usize = 1;
 
 /// Kind of conductor.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -467,6 +480,7 @@ fn trial_report(
     lists: &[Vec<Option1>],
     chosen: &[usize],
     evaluated: &[Vec<(usize, f64)>],
+    simpler: &[bool],
     r: &LossReport,
     limit: f64,
 ) -> (Vec<Vec<ConductorTrial>>, Vec<String>) {
@@ -515,7 +529,7 @@ fn trial_report(
             if let Some(c) = tm.iter_mut().find(|x| x.chosen) {
                 c.loss = winding_loss(r, needs[m].name);
             }
-            reasons[m] = reason(&needs[m], &tm, lists[g].len());
+            reasons[m] = reason(&needs[m], &tm, lists[g].len(), simpler[g]);
             if members.len() > 1 {
                 reasons[m].push_str("; both halves wound alike");
             }
@@ -526,6 +540,87 @@ fn trial_report(
 }
 
 type Best = (f64, Pattern, Vec<Vec<Option1>>, Vec<usize>, StackUp, FitReport, LossReport);
+
+/// A set decided on: its conductors, stack-up, fit and copper loss.
+type Decided = (Vec<(Conductor, u32)>, StackUp, FitReport, LossReport);
+
+/// How simple a conductor is to wind and to buy, least first (common
+/// practice, no source): round wire (enamelled or triple-insulated) before
+/// foil before litz, fewer in hand before more, less copper before more.
+fn simplicity(o: &Option1) -> (u8, u32, f64) {
+    let rank = match Kind::of(&o.conductor) {
+        Kind::Round | Kind::TripleInsulated => 0,
+        Kind::Foil => 1,
+        Kind::Litz => 2,
+    };
+    (rank, o.parallel, o.conductor.copper_area() * o.parallel as f64)
+}
+
+fn simpler_than(a: &Option1, b: &Option1) -> bool {
+    let (x, y) = (simplicity(a), simplicity(b));
+    (x.0, x.1).cmp(&(y.0, y.1)).then(x.2.total_cmp(&y.2)).is_lt()
+}
+
+/// Step 4 (module docs): per winding group, the simplest conductor (by
+/// [`simplicity`]) whose set loses at most [`SIMPLER_SHARE`] more copper
+/// loss than the least-loss set `decided` holds, in the budget left by the
+/// groups before it. A candidate goes to the harmonic model only if its
+/// estimate is within the budget of the chosen one's, simplest first, at
+/// most [`SIMPLER_TRIES`] per group. Updates `chosen`, `evaluated` and
+/// `decided`; returns per group whether a simpler conductor was taken.
+#[allow(clippy::too_many_arguments)]
+fn simplify(
+    s: &Setting,
+    needs: &[Need],
+    gr: &[Vec<usize>],
+    lists: &[Vec<Option1>],
+    pattern: &Pattern,
+    limit: f64,
+    chosen: &mut [usize],
+    evaluated: &mut [Vec<(usize, f64)>],
+    decided: &mut Decided,
+) -> Vec<bool> {
+    let group_loss = |r: &LossReport, g: usize| -> f64 { gr[g].iter().map(|&m| winding_loss(r, needs[m].name)).sum() };
+    let ceiling = decided.3.total * (1.0 + SIMPLER_SHARE);
+    let mut taken = vec![false; gr.len()];
+    for g in 0..gr.len() {
+        if needs[gr[g][0]].fixed.is_some() {
+            continue;
+        }
+        let cur = &lists[g][chosen[g]];
+        let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
+        let room = ceiling - decided.3.total;
+        let mut js: Vec<usize> = (0..lists[g].len())
+            .filter(|&j| {
+                let o = &lists[g][j];
+                simpler_than(o, cur) && others + o.build <= limit && o.loss <= cur.loss + room
+            })
+            .collect();
+        js.sort_by(|&a, &b| {
+            let (x, y) = (simplicity(&lists[g][a]), simplicity(&lists[g][b]));
+            (x.0, x.1).cmp(&(y.0, y.1)).then(x.2.total_cmp(&y.2))
+        });
+        for j in js.into_iter().take(SIMPLER_TRIES) {
+            let mut trial = chosen.to_vec();
+            trial[g] = j;
+            let mut set = decided.0.clone();
+            for &m in &gr[g] {
+                set[m] = (lists[g][j].conductor.clone(), lists[g][j].parallel);
+            }
+            let Ok((st, f, r)) = evaluate_set(s, needs, &set, pattern) else { continue };
+            if !evaluated[g].iter().any(|e| e.0 == j) {
+                evaluated[g].push((j, group_loss(&r, g)));
+            }
+            if r.total <= ceiling {
+                chosen[g] = j;
+                *decided = (set, st, f, r);
+                taken[g] = true;
+                break;
+            }
+        }
+    }
+    taken
+}
 
 /// Steps 1–3 (module docs) over the `patterns` left open.
 pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found> {
@@ -614,6 +709,10 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
             }
         }
     }
+    // Step 4: the simplest conductor where the least-loss one buys little.
+    let mut decided = (set, st, f, r);
+    let simpler = simplify(s, needs, &gr, &lists, &pattern, limit, &mut chosen, &mut evaluated, &mut decided);
+    let (set, st, f, r) = decided;
     // The chosen conductors' losses as finally evaluated.
     for g in 0..gr.len() {
         let l = group_loss(&r, g);
@@ -621,7 +720,7 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
             e.1 = l;
         }
     }
-    let (trials, reasons) = trial_report(needs, &gr, &lists, &chosen, &evaluated, &r, limit);
+    let (trials, reasons) = trial_report(needs, &gr, &lists, &chosen, &evaluated, &simpler, &r, limit);
     Some(Found {
         pattern,
         stackup: st,
@@ -633,13 +732,23 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
     })
 }
 
-fn reason(n: &Need, t: &[ConductorTrial], screened: usize) -> String {
+fn reason(n: &Need, t: &[ConductorTrial], screened: usize, simpler: bool) -> String {
     if n.fixed.is_some() {
         return "fixed by the user".into();
     }
     let Some(w) = t.iter().find(|x| x.chosen) else {
         return String::new();
     };
+    if simpler {
+        let least = t.iter().filter(|x| x.evaluated && !x.chosen).min_by(|a, b| a.loss.total_cmp(&b.loss));
+        let than = least.map_or(String::new(), |x| format!("; {} would lose {:.3} W", x.conductor, x.loss));
+        return format!(
+            "the simplest of {screened} buildable conductors ranked whose set loses at most {:.0} % more copper than the \
+             least-loss set ({:.3} W here{than})",
+            SIMPLER_SHARE * 100.0,
+            w.loss
+        );
+    }
     let lower: Vec<&ConductorTrial> = t.iter().filter(|x| !x.chosen && x.loss < w.loss).collect();
     let mut s = format!(
         "least copper loss ({:.3} W) of {screened} buildable conductors ranked, {} checked by the harmonic model",
