@@ -11,7 +11,7 @@ use crate::finite::non_finite;
 use crate::{check_error, config};
 use magwright_engine::core::{library as cores, Effective};
 use magwright_engine::design::file::{
-    CoreChoice, Design, Insulation, Interleave, MaterialChoice, TurnsRule, WireChoice, WireOverride,
+    Construction, CoreChoice, Design, Insulation, Interleave, MaterialChoice, TurnsRule, WireChoice, WireOverride,
 };
 use magwright_engine::design::{evaluate, sweep, Report};
 use magwright_engine::gap::GapPlacement;
@@ -197,6 +197,12 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
         Just(Interleave::Sequential),
         Just(Interleave::SplitPrimary),
         Just(Interleave::SplitSecondaries),
+        Just(Interleave::MirroredHalves),
+    ];
+    let construction = prop_oneof![
+        Just(Construction::Auto),
+        Just(Construction::TripleInsulated),
+        Just(Construction::MarginWound),
     ];
     let insulation = (
         small_wraps(),
@@ -204,14 +210,16 @@ fn choices() -> impl Strategy<Value = magwright_engine::design::Choices> {
         small_wraps(),
         wild(10e-6, 100e-6),
         prop::option::of(wild(0.0, 5e-3)),
+        construction,
     )
         .prop_map(
-            |(section_wraps, outer_wraps, interlayer_wraps, tape_thickness, margin)| Insulation {
+            |(section_wraps, outer_wraps, interlayer_wraps, tape_thickness, margin, construction)| Insulation {
                 section_wraps,
                 outer_wraps,
                 interlayer_wraps,
                 tape_thickness,
                 margin,
+                construction,
             },
         );
     (
@@ -554,6 +562,7 @@ fn fr_at_least_one_with_long_edges() {
         interlayer_wraps: 0,
         tape_thickness: 1e-5,
         margin: None,
+        construction: Construction::Auto,
     };
     d.choices.edge_time = 144e-9;
     let r = evaluate(&d).unwrap();

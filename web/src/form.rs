@@ -10,7 +10,7 @@
 
 use crate::field::Field;
 use leptos::prelude::*;
-use magwright_engine::design::file::{Insulation, Interleave, SectionTurns, TurnsRule, WireOverride};
+use magwright_engine::design::file::{Construction, Insulation, Interleave, SectionTurns, TurnsRule, WireOverride};
 use magwright_engine::design::{self, Choices, CoreChoice, Design, MaterialChoice};
 use magwright_engine::gap::GapPlacement;
 use magwright_engine::notation;
@@ -328,6 +328,9 @@ pub struct Form {
     pub rule: RwSignal<RuleKind>,
     pub gap: RwSignal<GapPlacement>,
     pub interleave: RwSignal<Interleave>,
+    /// Reinforced insulation's construction (kept as loaded; the windings
+    /// panel sets it).
+    pub construction: RwSignal<Construction>,
     pub texts: [RwSignal<String>; ix::COUNT],
     /// How many outputs are in use (1 to 4).
     pub outputs: RwSignal<usize>,
@@ -448,6 +451,7 @@ impl Form {
             rule: RwSignal::new(RuleKind::LeastLoss),
             gap: RwSignal::new(d.choices.gap_placement),
             interleave: RwSignal::new(d.choices.interleave),
+            construction: RwSignal::new(d.choices.insulation.construction),
             texts: std::array::from_fn(|i| RwSignal::new(vals[i].map(|v| NUMS[i].text(v)).unwrap_or_default())),
             outputs: RwSignal::new(d.spec.outputs.len().clamp(1, 4)),
             out_texts: std::array::from_fn(|i| std::array::from_fn(|j| RwSignal::new(text_of(outs[i][j], false)))),
@@ -483,6 +487,7 @@ impl Form {
         });
         self.gap.set(d.choices.gap_placement);
         self.interleave.set(d.choices.interleave);
+        self.construction.set(d.choices.insulation.construction);
         self.outputs.set(d.spec.outputs.len().clamp(1, 4));
         self.core.set(d.core.clone());
         self.material.set(d.material.clone());
@@ -627,6 +632,7 @@ impl Form {
                 interlayer_wraps: whole(ix::LAYER_WRAPS),
                 tape_thickness: g(ix::TAPE),
                 margin: vals[ix::FLANGE],
+                construction: self.construction.get(),
             },
             edge_time: g(ix::EDGE),
             switch_voltage_rating: vals[ix::SW_RATING],

@@ -136,13 +136,53 @@ pub struct Insulation {
     /// Tape thickness, m.
     pub tape_thickness: f64,
     /// Margin tape width at each flange, m (`None`: chosen from the
-    /// isolation class and the input).
+    /// isolation class, the input and the construction).
     pub margin: Option<f64>,
+    /// How reinforced insulation between the primary and the secondaries is
+    /// built on a design with hazardous voltage (ignored otherwise).
+    #[serde(default)]
+    pub construction: Construction,
 }
 
 impl Default for Insulation {
     fn default() -> Self {
-        Insulation { section_wraps: 2, outer_wraps: 3, interlayer_wraps: 0, tape_thickness: 0.05e-3, margin: None }
+        Insulation {
+            section_wraps: 2,
+            outer_wraps: 3,
+            interlayer_wraps: 0,
+            tape_thickness: 0.05e-3,
+            margin: None,
+            construction: Construction::Auto,
+        }
+    }
+}
+
+/// The two usual ways to build reinforced insulation between the primary
+/// and the secondaries of a transformer with hazardous voltage (common
+/// practice, no source; the safety standard, IEC 62368-1 or IEC 61558,
+/// and the wire's and tape's approvals decide).
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Construction {
+    /// The one of the two below whose conductors lose least.
+    #[default]
+    Auto,
+    /// Triple-insulated wire on every secondary: its three layers are the
+    /// insulation, so no margin tapes (unless `margin` is given).
+    TripleInsulated,
+    /// Margin tapes at both flanges (3 mm unless `margin` is given) and at
+    /// least three wraps of tape between sections: any conductor.
+    MarginWound,
+}
+
+impl Construction {
+    /// As in the design file.
+    pub fn name(self) -> &'static str {
+        match self {
+            Construction::Auto => "auto",
+            Construction::TripleInsulated => "triple_insulated",
+            Construction::MarginWound => "margin_wound",
+        }
     }
 }
 

@@ -26,7 +26,7 @@ use super::results::gap_text;
 use crate::form::{self, Form, Group, Outcome, Problem, Report};
 use crate::ui::PlotCanvas;
 use leptos::prelude::*;
-use magwright_engine::design::file::{Interleave, SectionTurns, WireChoice, WireOverride};
+use magwright_engine::design::file::{Construction, Interleave, SectionTurns, WireChoice, WireOverride};
 use magwright_engine::notation;
 use magwright_engine::winding::conductor::Conductor;
 use magwright_engine::winding::stackup::{Direction, Item, Section, Side};
@@ -779,6 +779,28 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
             Err(_) => prev.cloned().unwrap_or_default(),
         })
     });
+    let constructions = [
+        (Construction::Auto, "Automatic (least loss)"),
+        (Construction::TripleInsulated, "Triple-insulated secondaries"),
+        (Construction::MarginWound, "Margin-wound, 3 wraps"),
+    ];
+    let pick_construction = move |ev: leptos::ev::Event| {
+        if let Some((v, _)) = event_target_value(&ev).parse::<usize>().ok().and_then(|i| constructions.get(i).copied()) {
+            form.construction.set(v);
+        }
+    };
+    // What the engine built, where it builds reinforced insulation.
+    let built = move || {
+        outcome.with(|o| match o {
+            Ok(r) => match r.winding_choice.construction.as_deref() {
+                Some("triple_insulated") => "built: triple-insulated secondaries, no margins".to_string(),
+                Some("margin_wound") => "built: margins at both flanges, 3 wraps between sections".to_string(),
+                Some(other) => format!("built: {other}"),
+                None => "not asked: no reinforced insulation with hazardous voltage".to_string(),
+            },
+            Err(_) => String::new(),
+        })
+    };
     let pick_interleave = move |ev: leptos::ev::Event| {
         let Some((v, _)) = event_target_value(&ev).parse::<usize>().ok().and_then(|i| interleave.get(i).copied()) else {
             return;
@@ -841,7 +863,19 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         </fieldset>
         <fieldset>
             <legend>"Insulation and window"</legend>
-            <div class="fields">{form::num_fields(form, outcome, Group::Winding)}</div>
+            <div class="fields">
+                <div class="field">
+                    <label for="f-construction" title="How reinforced insulation between primary and secondaries is built on a design with hazardous voltage (ignored otherwise); the safety standard and the wire's and tape's approvals decide">"Reinforced insulation"</label>
+                    <select id="f-construction" on:change=pick_construction>
+                        {constructions.iter().enumerate().map(|(i, (v, l))| {
+                            let v = *v;
+                            view! { <option value=i.to_string() prop:selected=move || form.construction.get() == v>{*l}</option> }
+                        }).collect_view()}
+                    </select>
+                    <div class="msg" data-testid="construction-built">{built}</div>
+                </div>
+                {form::num_fields(form, outcome, Group::Winding)}
+            </div>
         </fieldset>
     }
 }

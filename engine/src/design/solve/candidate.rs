@@ -270,9 +270,10 @@ fn selection_copper(spec: &topology::Spec, material: &Material) -> Result<(f64, 
 /// again with it (the core loss does not depend on the conductors). The
 /// conductors are chosen by their loss at the corner with the larger
 /// primary RMS current. A candidate whose every conductor is fixed, or for
-/// which no automatic set fits, is returned as it is. `interleave_as`: an
-/// automatic interleaving already chosen by loss on other turns, kept.
-pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, interleave_as: Option<&str>) -> Result<Candidate> {
+/// which no automatic set fits, is returned as it is. `keep`: a winding
+/// choice made by loss on other turns, whose automatic interleaving and
+/// construction are kept.
+pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Option<&WindingChoice>) -> Result<Candidate> {
     let spec = &cx.design.spec;
     let (t_sel, rho, delta) = selection_copper(spec, cx.material)?;
     let waves = &c.waves;
@@ -291,7 +292,7 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, interleave_
     };
     let names = winding_names(waves);
     let Some((stackup, fit, wires, winding_choice)) =
-        search_stackup(cx.design, cx.core, &names, delta, &setting, interleave_as)?
+        search_stackup(cx.design, cx.core, &names, delta, &setting, keep)?
     else {
         ensure_copper(cx, &mut c)?;
         return Ok(c);

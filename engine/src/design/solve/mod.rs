@@ -192,8 +192,8 @@ pub(super) fn solve(
     // copper loss scaled by what the search saved here (`k`), and the one
     // they choose is searched in its turn.
     let area_copper = first.selection_copper();
-    let search = |c: Candidate, interleave_as: Option<&str>| match conductors {
-        Conductors::LeastLoss => with_least_loss_conductors(&cx, c, interleave_as),
+    let search = |c: Candidate, keep: Option<&WindingChoice>| match conductors {
+        Conductors::LeastLoss => with_least_loss_conductors(&cx, c, keep),
         Conductors::ByArea => Ok(c),
     };
     let mut best = search(first, None)?;
@@ -224,8 +224,9 @@ pub(super) fn solve(
                 }
                 if let Some((estimate, c)) = pick {
                     if estimate < best.selection_total() {
-                        // The interleaving chosen on the first design is kept.
-                        let chosen = best.winding_choice.automatic.then(|| best.winding_choice.interleave.clone());
+                        // The interleaving and construction chosen on the
+                        // first design are kept.
+                        let chosen = best.winding_choice.clone();
                         // Both corners, as the design is then judged (the
                         // trial was built at the first's worst corner only).
                         // A trial that cannot be built at both corners is
@@ -236,7 +237,7 @@ pub(super) fn solve(
                             Conductors::LeastLoss => build_for_search(&cx, c.turns.primary),
                             Conductors::ByArea => build(&cx, c.turns.primary),
                         };
-                        let both = rebuilt.and_then(|c| search(c, chosen.as_deref()));
+                        let both = rebuilt.and_then(|c| search(c, Some(&chosen)));
                         if let Some(c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
                             best = c;
                             reason = format!(
@@ -504,6 +505,44 @@ mod tests {
                 }
             }
         }
+    }
+
+    #[test]
+    fn reinforced_insulation_is_built_one_way_or_the_other() {
+        // Two constructions of reinforced insulation (common practice, no
+        // source): triple-insulated secondaries carry it in the wire, so no
+        // margin tapes; margin-wound puts 3 mm margins at both flanges and at
+        // least three wraps between sections, any conductor. "auto" builds
+        // the one whose conductors lose least, and says which.
+        use crate::design::file::Construction;
+        use crate::winding::stackup::Item;
+        use crate::winding::Conductor;
+        let mut d = Design::demo_flyback();
+        d.choices.insulation.construction = Construction::TripleInsulated;
+        let t = evaluate(&d).unwrap();
+        assert_eq!(t.winding_choice.construction.as_deref(), Some("triple_insulated"));
+        for (_, s) in t.stackup.sections() {
+            assert_eq!((s.margin_left, s.margin_right), (0.0, 0.0), "{}", s.winding);
+            if s.winding.starts_with("secondary") {
+                assert!(matches!(s.conductor, Conductor::TripleInsulated(_)), "{}", s.winding);
+            }
+        }
+        d.choices.insulation.construction = Construction::MarginWound;
+        let m = evaluate(&d).unwrap();
+        assert_eq!(m.winding_choice.construction.as_deref(), Some("margin_wound"));
+        for (_, s) in m.stackup.sections() {
+            assert_eq!((s.margin_left, s.margin_right), (3e-3, 3e-3), "{}", s.winding);
+            assert!(!matches!(s.conductor, Conductor::TripleInsulated(_)), "{}", s.winding);
+        }
+        let tapes: Vec<u32> = m.stackup.items.iter().filter_map(|i| if let Item::Tape(t) = i { Some(t.wraps) } else { None }).collect();
+        assert!(tapes.len() >= 2 && tapes.iter().all(|&w| w >= 3), "{tapes:?}");
+        d.choices.insulation.construction = Construction::Auto;
+        let a = evaluate(&d).unwrap();
+        let same = |x: &Report| (x.losses.total - a.losses.total).abs() <= 1e-12 * a.losses.total;
+        assert!(same(&t) || same(&m), "auto is one of the two: {} {} {}", a.losses.total, t.losses.total, m.losses.total);
+        assert_eq!(a.winding_choice.construction.as_deref(), Some(if same(&t) { "triple_insulated" } else { "margin_wound" }));
+        // Not asked where there is no reinforced insulation with hazardous voltage.
+        assert_eq!(evaluate(&Design::demo_forward()).unwrap().winding_choice.construction, None);
     }
 
     #[test]

@@ -61,6 +61,9 @@ pub struct WireSummary {
 pub struct PatternTrial {
     /// As in `choices.interleave`: "sequential", "split_primary", ...
     pub interleave: String,
+    /// As in `choices.insulation.construction` where reinforced insulation
+    /// is built ("triple_insulated", "margin_wound"), else `None`.
+    pub construction: Option<String>,
     /// Copper loss with its least-loss conductors, W (selection temperature
     /// and corner).
     pub copper_loss: f64,
@@ -73,7 +76,11 @@ pub struct WindingChoice {
     pub interleave: String,
     /// Chosen by loss (`choices.interleave` = auto).
     pub automatic: bool,
-    /// The interleavings evaluated (one unless automatic).
+    /// The reinforced insulation's construction where it is built
+    /// ("triple_insulated", "margin_wound"; chosen by loss when
+    /// `choices.insulation.construction` = auto), else `None`.
+    pub construction: Option<String>,
+    /// The interleavings (and constructions) evaluated.
     pub tried: Vec<PatternTrial>,
 }
 

@@ -10,7 +10,8 @@
 //! How it holds the build: the solver is run with the wound primary turns
 //! (`TurnsRule::Primary`; the secondaries follow from the same ratio) and
 //! every winding's conductor fixed (`choices.wires`) and the interleaving
-//! chosen held (`choices.interleave`), so the default stack-up builder
+//! and insulation construction chosen held (`choices.interleave`,
+//! `choices.insulation.construction`), so the default stack-up builder
 //! lays the same sections again; a flyback's Lp is
 //! Vin²·D²/(r·f·Pin) (`topology::sizing::flyback_lp_from_ripple`), so the
 //! ripple ratio r is scaled by f₀/f to keep Lp, and with it the gap, as
@@ -18,7 +19,7 @@
 //! inductor (buck or boost) is given its wound inductance outright.
 
 use super::{Curve, Sweep};
-use crate::design::file::{Design, Interleave, TurnsRule, WireChoice, WireOverride};
+use crate::design::file::{Construction, Design, Interleave, TurnsRule, WireChoice, WireOverride};
 use crate::design::solve::Report;
 use crate::error::{Error, Result};
 use crate::topology::Topology;
@@ -82,6 +83,16 @@ pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
             format!("the interleaving \"{}\" cannot be held for the as-wound sweep", report.winding_choice.interleave),
         )
     })?;
+    // And the reinforced insulation's construction (margins and tapes).
+    if let Some(c) = &report.winding_choice.construction {
+        d.choices.insulation.construction = serde_json::from_value::<Construction>(serde_json::Value::String(c.clone()))
+            .map_err(|_| {
+                Error::infeasible(
+                    Some("choices.insulation.construction"),
+                    format!("the construction \"{c}\" cannot be held for the as-wound sweep"),
+                )
+            })?;
+    }
     if design.spec.topology == Topology::Inductor {
         // The inductor as wound keeps its inductance (so its gap), not its
         // ripple ratio: L is given, the ripple then follows f.

@@ -19,7 +19,7 @@ pub(super) struct LossSetting<'a> {
 
 use super::*;
 use crate::core::Core;
-use crate::design::file::{Design, Interleave, WireChoice};
+use crate::design::file::{Construction, Design, Interleave, WireChoice};
 use crate::error::{Error, Result};
 use crate::topology::Isolation;
 use crate::winding::conductor::{Conductor, Grade};
@@ -38,9 +38,35 @@ struct Frame {
     opts: DefaultOptions,
     breadth: f64,
     tiw_secondaries: bool,
+    /// The reinforced construction built, if any.
+    built: Option<Construction>,
 }
 
-fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Result<Frame> {
+/// The reinforced constructions to weigh: none where the design asks for
+/// no reinforced insulation or has no hazardous voltage; else the one the
+/// file names, or both for "auto".
+fn constructions(design: &Design) -> Vec<Option<Construction>> {
+    let reinforced = design.spec.isolation == Isolation::Reinforced && !design.spec.safety_cautions().is_empty();
+    match design.choices.insulation.construction {
+        _ if !reinforced => vec![None],
+        Construction::Auto => vec![Some(Construction::TripleInsulated), Some(Construction::MarginWound)],
+        c => vec![Some(c)],
+    }
+}
+
+/// The construction the turn-count trials' allocation by area builds: the
+/// one asked, or for "auto" the margin-wound one, which takes any
+/// conductor (the search then weighs both).
+fn trial_construction(design: &Design) -> Option<Construction> {
+    let all = constructions(design);
+    if all.len() == 1 {
+        all[0]
+    } else {
+        Some(Construction::MarginWound)
+    }
+}
+
+fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)], built: Option<Construction>) -> Result<Frame> {
     let spec = &design.spec;
     let ch = &design.choices;
     for (i, o) in ch.wires.iter().enumerate() {
@@ -58,12 +84,14 @@ fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Resul
     }
     let hazardous = !spec.safety_cautions().is_empty();
     let ins = &ch.insulation;
-    let margin = ins.margin.unwrap_or(match (spec.isolation, hazardous) {
+    let margin = ins.margin.unwrap_or(match (spec.isolation, hazardous, built) {
         // Margin tape at each flange so the creepage path between primary
         // and secondary crosses two margins (common practice, from memory;
         // the standard's creepage table for the working voltage decides).
-        (Isolation::Basic, true) => 2.0e-3,
-        (Isolation::Reinforced, true) => 3.0e-3,
+        // Triple-insulated secondaries need none: the wire is the insulation.
+        (Isolation::Basic, true, _) => 2.0e-3,
+        (Isolation::Reinforced, true, Some(Construction::TripleInsulated)) => 0.0,
+        (Isolation::Reinforced, true, _) => 3.0e-3,
         _ => 0.0,
     });
     let tape = |wraps: u32| Tape {
@@ -71,7 +99,10 @@ fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Resul
         thickness: ins.tape_thickness,
         wraps,
     };
-    let section_wraps = if spec.isolation == Isolation::Reinforced && hazardous {
+    // Margin-wound reinforced insulation: at least three wraps between
+    // sections (common practice, from memory: three layers of which any
+    // two pass the electric strength test).
+    let section_wraps = if built == Some(Construction::MarginWound) {
         ins.section_wraps.max(3)
     } else {
         ins.section_wraps
@@ -94,7 +125,8 @@ fn frame(design: &Design, core: &Core, windings: &[(String, u32, f64)]) -> Resul
     Ok(Frame {
         opts,
         breadth: core.winding_breadth - 2.0 * margin,
-        tiw_secondaries: spec.isolation == Isolation::Reinforced && hazardous,
+        tiw_secondaries: built == Some(Construction::TripleInsulated),
+        built,
     })
 }
 
@@ -136,7 +168,7 @@ pub(super) fn choose_stackup(
     delta: f64,
 ) -> Result<Chosen> {
     let ch = &design.choices;
-    let fr = frame(design, core, windings)?;
+    let fr = frame(design, core, windings, trial_construction(design))?;
     let pattern = match ch.interleave {
         Interleave::Sequential => Pattern::Sequential,
         Interleave::SplitPrimary => Pattern::SplitPrimary,
@@ -151,6 +183,7 @@ pub(super) fn choose_stackup(
     let choice = WindingChoice {
         interleave: pattern_name(&pattern).into(),
         automatic: false,
+        construction: fr.built.map(|c| c.name().to_string()),
         tried: Vec::new(),
     };
     Ok((st, f, wires, choice))
@@ -158,23 +191,77 @@ pub(super) fn choose_stackup(
 
 /// Step 5, once on the chosen turns: the least-loss conductors
 /// ([`search`]) for every winding the user left automatic, and the
-/// interleaving by loss when it is automatic. `None` when every conductor
-/// is fixed or no automatic set fits the window (the trials' allocation by
-/// area then stands).
+/// interleaving by loss when it is automatic, and where reinforced
+/// insulation is built its construction by loss when it is automatic.
+/// `None` when every conductor is fixed or no automatic set fits the
+/// window (the trials' allocation by area then stands). `keep`: a choice
+/// already made by loss on other turns of the same design, whose automatic
+/// interleaving and construction are kept.
 pub(super) fn search_stackup(
     design: &Design,
     core: &Core,
     windings: &[(String, u32, f64)],
     delta: f64,
     loss: &LossSetting,
-    interleave_as: Option<&str>,
+    keep: Option<&WindingChoice>,
 ) -> Result<Option<Chosen>> {
     let ch = &design.choices;
-    let automatic = |name: &str| !ch.wires.iter().any(|o| o.winding == name);
-    if !windings.iter().any(|w| automatic(&w.0)) {
+    if !windings.iter().any(|w| !ch.wires.iter().any(|o| o.winding == w.0)) {
         return Ok(None);
     }
-    let fr = frame(design, core, windings)?;
+    let mut builts = constructions(design);
+    if let Some(k) = keep.and_then(|k| k.construction.as_deref()) {
+        let kept: Vec<Option<Construction>> = builts.iter().copied().filter(|b| b.map(|c| c.name()) == Some(k)).collect();
+        if !kept.is_empty() {
+            builts = kept;
+        }
+    }
+    let interleave_as = keep.filter(|k| k.automatic).map(|k| k.interleave.as_str());
+    let patterns = patterns_of(ch, windings, interleave_as)?;
+    // Each construction's frame and windings; one that cannot be built
+    // (margins leaving no breadth, say) is left out unless none can.
+    let mut first_error = None;
+    let mut preps: Vec<Prep> = Vec::with_capacity(builts.len());
+    for built in builts {
+        match prepare(design, core, windings, loss, built) {
+            Ok(Some(p)) => preps.push(p),
+            Ok(None) => return Ok(None),
+            Err(e) => {
+                first_error.get_or_insert(e);
+            }
+        }
+    }
+    if preps.is_empty() {
+        return first_error.map_or(Ok(None), Err);
+    }
+    let setting = |p| setting(p, design, core, delta, loss);
+    // The quick screen of every construction; the harmonic model then
+    // weighs those whose estimate is within SCREEN_BAND of the least.
+    let screens: Vec<search::Screened> = preps.iter().map(|p| search::screen(&setting(p), &p.needs, &patterns)).collect();
+    let least = screens.iter().filter_map(|x| x.least()).fold(f64::INFINITY, f64::min);
+    let mut best: Option<(f64, Chosen)> = None;
+    let mut tried = Vec::new();
+    for (p, sc) in preps.iter().zip(screens) {
+        if !sc.least().is_some_and(|l| l <= least * search::SCREEN_BAND) {
+            continue;
+        }
+        let Some(found) = search::decide(&setting(p), &p.needs, sc) else { continue };
+        let copper = found.copper;
+        let chosen = summarise(design, windings, p.frame.built, found);
+        tried.extend(chosen.3.tried.iter().cloned());
+        if best.as_ref().is_none_or(|b| copper < b.0) {
+            best = Some((copper, chosen));
+        }
+    }
+    Ok(best.map(|(_, mut chosen)| {
+        chosen.3.tried = tried;
+        chosen
+    }))
+}
+
+/// The interleavings the search weighs: the one asked, or for "auto" those
+/// that suit the windings, less `interleave_as` where it names one of them.
+fn patterns_of(ch: &Choices, windings: &[(String, u32, f64)], interleave_as: Option<&str>) -> Result<Vec<Pattern>> {
     let patterns: Vec<Pattern> = match ch.interleave {
         Interleave::Sequential => vec![Pattern::Sequential],
         Interleave::SplitPrimary => vec![Pattern::SplitPrimary],
@@ -189,47 +276,74 @@ pub(super) fn search_stackup(
     };
     // An automatic interleaving already chosen by loss on other turns of
     // the same design is kept (the search then weighs conductors only).
-    let patterns: Vec<Pattern> = match interleave_as {
+    Ok(match interleave_as {
         Some(name) if patterns.len() > 1 => {
             let kept: Vec<Pattern> = patterns.iter().filter(|p| pattern_name(p) == name).cloned().collect();
             if kept.is_empty() { patterns } else { kept }
         }
         _ => patterns,
-    };
+    })
+}
+
+/// The search's fixed inputs for one construction.
+fn setting<'s>(p: &'s Prep, design: &Design, core: &'s Core, delta: f64, loss: &LossSetting<'s>) -> search::Setting<'s> {
+    let ch = &design.choices;
+    search::Setting {
+        core,
+        opts: &p.frame.opts,
+        breadth: p.frame.breadth,
+        delta1: delta,
+        rho: loss.rho,
+        temperature: loss.temperature,
+        edge_time: ch.edge_time,
+        ring: core.family.eq_ignore_ascii_case("R") || matches!(core.shape, Some(crate::core::Shape::Ring { .. })),
+        max_parallel: ch.max_parallel,
+        currents: loss.currents,
+    }
+}
+
+/// One construction as the search sees it: its frame and the windings.
+struct Prep<'a> {
+    frame: Frame,
+    needs: Vec<search::Need<'a>>,
+}
+
+/// The frame and the windings for `built`; `None` where a winding has no
+/// current at the selection corner.
+fn prepare<'a>(
+    design: &Design,
+    core: &Core,
+    windings: &'a [(String, u32, f64)],
+    loss: &LossSetting<'a>,
+    built: Option<Construction>,
+) -> Result<Option<Prep<'a>>> {
+    let ch = &design.choices;
+    let frame = frame(design, core, windings, built)?;
     let mut needs = Vec::with_capacity(windings.len());
     for (name, turns, _) in windings {
         let Some(current) = loss.currents.iter().find(|c| &c.name == name).map(|c| &c.current) else {
             return Ok(None);
         };
         let fixed = match ch.wires.iter().find(|o| &o.winding == name) {
-            Some(o) => Some(fixed_conductor(&o.wire, fr.breadth)?),
+            Some(o) => Some(fixed_conductor(&o.wire, frame.breadth)?),
             None => None,
         };
         needs.push(search::Need {
             name,
             turns: *turns,
             current,
-            tiw: fr.tiw_secondaries && name.starts_with("secondary"),
+            tiw: frame.tiw_secondaries && name.starts_with("secondary"),
             fixed,
         });
     }
-    let ring = core.family.eq_ignore_ascii_case("R")
-        || matches!(core.shape, Some(crate::core::Shape::Ring { .. }));
-    let setting = search::Setting {
-        core,
-        opts: &fr.opts,
-        breadth: fr.breadth,
-        delta1: delta,
-        rho: loss.rho,
-        temperature: loss.temperature,
-        edge_time: ch.edge_time,
-        ring,
-        max_parallel: ch.max_parallel,
-        currents: loss.currents,
-    };
-    let Some(found) = search::search(&setting, &needs, &patterns) else {
-        return Ok(None);
-    };
+    Ok(Some(Prep { frame, needs }))
+}
+
+/// What the search found, as the report's stack-up, wire table and
+/// winding choice.
+fn summarise(design: &Design, windings: &[(String, u32, f64)], built: Option<Construction>, found: search::Found) -> Chosen {
+    let ch = &design.choices;
+    let automatic = |name: &str| !ch.wires.iter().any(|o| o.winding == name);
     let wires = windings
         .iter()
         .zip(&found.conductors)
@@ -250,16 +364,22 @@ pub(super) fn search_stackup(
             }
         })
         .collect();
+    let construction = built.map(|c| c.name().to_string());
     let choice = WindingChoice {
         interleave: pattern_name(&found.pattern).into(),
         automatic: ch.interleave == Interleave::Auto,
+        construction: construction.clone(),
         tried: found
             .patterns
             .iter()
-            .map(|(p, w)| PatternTrial { interleave: pattern_name(p).into(), copper_loss: *w })
+            .map(|(p, w)| PatternTrial {
+                interleave: pattern_name(p).into(),
+                construction: construction.clone(),
+                copper_loss: *w,
+            })
             .collect(),
     };
-    Ok(Some((found.stackup, found.fit, wires, choice)))
+    (found.stackup, found.fit, wires, choice)
 }
 
 /// The name of a pattern as in `choices.interleave`.

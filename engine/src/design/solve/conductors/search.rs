@@ -151,6 +151,8 @@ pub struct Found {
     pub reasons: Vec<String>,
     /// Each pattern tried and its copper loss, W.
     pub patterns: Vec<(Pattern, f64)>,
+    /// The chosen set's copper loss at the selection corner, W.
+    pub copper: f64,
 }
 
 #[derive(Debug, Clone)]
@@ -413,6 +415,38 @@ fn groups(needs: &[Need]) -> Vec<Vec<usize>> {
     out.into_iter().map(|(_, g)| g).collect()
 }
 
+/// Steps 1–2 over every interleaving left open (see [`screen`]).
+pub struct Screened {
+    rows: Vec<(f64, Pattern, Vec<Vec<Option1>>, Vec<usize>)>,
+}
+
+impl Screened {
+    /// The least estimated copper loss of any interleaving's pick, W.
+    pub fn least(&self) -> Option<f64> {
+        self.rows.iter().map(|x| x.0).min_by(f64::total_cmp)
+    }
+}
+
+/// Steps 1–2 (module docs) over the `patterns` left open: what
+/// [`decide`] then weighs with the harmonic model.
+pub fn screen(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Screened {
+    let win = window(s);
+    let gr = groups(needs);
+    Screened {
+        rows: screen_patterns(s, needs, patterns, &gr, &win, BUILD_SHARE * s.core.winding_height),
+    }
+}
+
+fn window(s: &Setting) -> Window {
+    Window {
+        breadth: s.breadth,
+        delta1: s.delta1,
+        rho: s.rho,
+        mlt: s.core.mlt_mid(),
+        interlayer: s.opts.interlayer.clone(),
+    }
+}
+
 /// Step 1 over every interleaving: per group of windings wound alike, the
 /// candidate conductors with their estimated loss and build (sorted by
 /// loss), and the least-loss pick that fits the build `limit_all` less the
@@ -622,16 +656,10 @@ fn simplify(
     taken
 }
 
-/// Steps 1–3 (module docs) over the `patterns` left open.
-pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found> {
+/// Steps 3–4 (module docs) on what [`screen`] found with the same
+/// setting and windings.
+pub fn decide(s: &Setting, needs: &[Need], screened: Screened) -> Option<Found> {
     let turns: Vec<u32> = needs.iter().map(|n| n.turns).collect();
-    let win = Window {
-        breadth: s.breadth,
-        delta1: s.delta1,
-        rho: s.rho,
-        mlt: s.core.mlt_mid(),
-        interlayer: s.opts.interlayer.clone(),
-    };
     let gr = groups(needs);
     let expand = |pick: &[usize], lists: &[Vec<Option1>]| -> Vec<(Conductor, u32)> {
         let mut set = vec![(lists[0][pick[0]].conductor.clone(), 1); needs.len()];
@@ -644,12 +672,11 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
     };
     let limit_all = BUILD_SHARE * s.core.winding_height;
     let mut best: Option<Best> = None;
-    let mut tried = Vec::with_capacity(patterns.len());
-    let screened = screen_patterns(s, needs, patterns, &gr, &win, limit_all);
+    let mut tried = Vec::with_capacity(screened.rows.len());
     // The harmonic model decides between the interleavings whose estimate is
     // within SCREEN_BAND of the least.
-    let least = screened.iter().map(|x| x.0).fold(f64::INFINITY, f64::min);
-    for (estimated, pattern, lists, pick) in screened {
+    let least = screened.least().unwrap_or(f64::INFINITY);
+    for (estimated, pattern, lists, pick) in screened.rows {
         if estimated > least * SCREEN_BAND {
             continue;
         }
@@ -729,6 +756,7 @@ pub fn search(s: &Setting, needs: &[Need], patterns: &[Pattern]) -> Option<Found
         trials,
         reasons,
         patterns: tried,
+        copper: r.total,
     })
 }
 
