@@ -83,7 +83,7 @@ test('print build sheet of the forward demo: the sheet only, the engine\'s turns
   await context.close();
 });
 
-test('build sheet of the offline flyback: gap, margins and the safety cautions', async () => {
+test('build sheet of the offline flyback: gap, insulation and the safety cautions', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   const text = readFileSync(join(root, 'examples', 'flyback-offline-24w.json'), 'utf8');
   await chooseWithKeyboard(page, 'open', { name: 'flyback-offline-24w.json', mimeType: 'application/json', buffer: Buffer.from(text) });
@@ -92,7 +92,10 @@ test('build sheet of the offline flyback: gap, margins and the safety cautions',
   await page.waitForFunction((np) => document.querySelector('[data-testid="np"]')?.dataset.si === String(np), want.turns.primary);
   const sheet = await checkSheet(page, want, 'flyback');
   assert.match(await page.textContent('[data-testid="sheet-gap"]'), new RegExp(`${(want.gap.gap * 1e3).toFixed(3)} mm ground in the centre leg`));
-  assert.match(sheet, /3\.0 mm each flange/);
+  // Reinforced insulation as the engine built it: triple-insulated secondary, no margin tapes.
+  assert.equal(want.winding_choice.construction, 'triple_insulated');
+  assert.match(sheet, /secondary 1\t\d+\ttriple-insulated [\d.]+ mm/);
+  assert.doesNotMatch(sheet, /mm each flange/);
   assert.match(sheet, /IEC 62368-1/);
   assert.match(await page.textContent('[data-testid="sheet-name"]'), /Offline 24 W flyback/);
   assert.deepEqual(requests, []);

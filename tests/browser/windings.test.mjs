@@ -184,10 +184,21 @@ test('the offline flyback shows its safety cautions first and its stack-up', asy
   });
   assert.ok(before, 'cautions above the checks');
   await matchesCli(page, 'offline flyback');
+  // Reinforced insulation, built by loss: triple-insulated secondaries, no margins.
   assert.match(await page.textContent('[data-testid="wire-of-secondary-1"]'), /triple-insulated/);
-  assert.match(await page.textContent('[data-testid="stackup-order"]'), /margins 3\.0 mm each flange/);
+  assert.match(await page.textContent('[data-testid="stackup-order"]'), /margins none/);
+  assert.match(await page.textContent('[data-testid="construction-built"]'), /triple-insulated secondaries, no margins/);
   await page.locator('[data-testid="panel-results"]').screenshot({ path: join(OUT, 'results-offline-flyback.png') });
   await page.locator('[data-testid="panel-windings"]').screenshot({ path: join(OUT, 'windings-offline-flyback.png') });
+  // The other construction, by keyboard: margins at both flanges and any conductor, as the CLI builds it.
+  await page.focus('#f-construction');
+  await page.keyboard.press('End');
+  await page.waitForFunction(() => /margins at both flanges/.test(document.querySelector('[data-testid="construction-built"]')?.textContent ?? ''));
+  const margined = await matchesCli(page, 'offline flyback, margin-wound');
+  assert.equal(margined.design.choices.insulation.construction, 'margin_wound');
+  assert.equal(margined.want.winding_choice.construction, 'margin_wound');
+  assert.match(await page.textContent('[data-testid="stackup-order"]'), /margins 3\.0 mm each flange/);
+  assert.doesNotMatch(await page.textContent('[data-testid="wire-of-secondary-1"]'), /triple-insulated/);
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

@@ -872,7 +872,7 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
                             view! { <option value=i.to_string() prop:selected=move || form.construction.get() == v>{*l}</option> }
                         }).collect_view()}
                     </select>
-                    <div class="msg" data-testid="construction-built">{built}</div>
+                    <div class="built" data-testid="construction-built">{built}</div>
                 </div>
                 {form::num_fields(form, outcome, Group::Winding)}
             </div>

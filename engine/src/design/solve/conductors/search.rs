@@ -601,7 +601,8 @@ fn simpler_than(a: &Option1, b: &Option1) -> bool {
 /// groups before it. A candidate goes to the harmonic model only if its
 /// estimate is within the budget of the chosen one's, simplest first, at
 /// most [`SIMPLER_TRIES`] per group. Updates `chosen`, `evaluated` and
-/// `decided`; returns per group whether a simpler conductor was taken.
+/// `decided`; returns per group whether a simpler conductor was taken at
+/// the cost of some loss.
 #[allow(clippy::too_many_arguments)]
 fn simplify(
     s: &Setting,
@@ -646,9 +647,11 @@ fn simplify(
                 evaluated[g].push((j, group_loss(&r, g)));
             }
             if r.total <= ceiling {
+                // Simpler and no worse by the harmonic model (the estimate
+                // ranked it below) is simply the least loss.
+                taken[g] = r.total > decided.3.total;
                 chosen[g] = j;
                 *decided = (set, st, f, r);
-                taken[g] = true;
                 break;
             }
         }
