@@ -25,7 +25,15 @@ pub fn copper_resistivity(temp_c: f64) -> Result<f64> {
 /// n = −3, −2, −1. Accepts −3 ≤ n ≤ 56.
 pub fn awg_diameter(n: i32) -> Result<f64> {
     in_range("awg", n as f64, -3.0, 56.0, "AWG")?;
-    Ok(0.127e-3 * 92f64.powf((36.0 - n as f64) / 39.0))
+    Ok(awg_table()[(n + 3) as usize])
+}
+
+/// The diameters of AWG −3 to 56 by the formula of [`awg_diameter`],
+/// computed once: the conductor search asks for them thousands of times
+/// a design, and a table lookup is the same value without the power.
+fn awg_table() -> &'static [f64; 60] {
+    static TABLE: std::sync::OnceLock<[f64; 60]> = std::sync::OnceLock::new();
+    TABLE.get_or_init(|| std::array::from_fn(|i| 0.127e-3 * 92f64.powf((36.0 - (i as f64 - 3.0)) / 39.0)))
 }
 
 /// Copper cross-section of a round wire of bare diameter `d` (m), m².
@@ -41,6 +49,16 @@ pub fn dc_resistance(length: f64, area: f64, temp_c: f64) -> Result<f64> {
 
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn the_awg_table_is_the_formula() {
+        // ASTM B258: d = 0.127 mm · 92^((36 − n)/39); the table holds it bit for bit.
+        for n in -3..=56 {
+            let want = 0.127e-3 * 92f64.powf((36.0 - n as f64) / 39.0);
+            assert_eq!(awg_diameter(n).unwrap().to_bits(), want.to_bits(), "AWG {n}");
+        }
+        assert!(awg_diameter(-4).is_err() && awg_diameter(57).is_err());
+    }
+
     use super::*;
 
     #[test]
