@@ -32,7 +32,8 @@ commands:
   optimise FILE|-                   the optimiser: every library core x material for the
                                     design's spec, ranked, with the Pareto front (JSON)
   stackup FILE|-                    the design's winding stack-up in its JSON schema
-  demo [forward|flyback|push-pull]  print a demo design file (default forward)
+  demo [KIND]                       print a demo design file: forward (default), flyback,
+                                    push-pull or inductor
   cores                             the core library (effective parameters, provenance)
   materials                         the material library (loss model, provenance)
   help, -h, --help                  this text
