@@ -12,7 +12,9 @@
 //!   frequency sweep; its chart (both curves, the envelope, the data band)
 //!   in `sweep_chart`.
 //! * [`windings`]: the stack-up table and editor, the window to scale, the MMF;
-//!   [`conductor_choice`] why each conductor (the search's trials).
+//!   [`conductor_choice`] why each conductor (the search's trials);
+//!   `wire_editor` a winding's fixed conductor; `order_editor` the custom
+//!   winding order.
 //! * [`optimiser`]: the optimiser over the library, ranked, with its Pareto plot.
 //! * [`sheet`]: the printable build sheet.
 
@@ -24,7 +26,9 @@ pub mod results;
 pub mod sheet;
 pub mod sweep_run;
 pub mod optimiser;
+mod order_editor;
 mod sweep_chart;
+mod wire_editor;
 pub mod windings;
 
 use leptos::prelude::*;

@@ -107,9 +107,15 @@ pub(super) fn build_for_search(cx: &Ctx, np: u32) -> Result<Candidate> {
 /// Evaluates the copper loss [`build_for_search`] left out, at each corner
 /// the candidate holds, exactly as [`build`] would have.
 pub(super) fn ensure_copper(cx: &Ctx, c: &mut Candidate) -> Result<()> {
-    if !c.copper_pending {
-        return Ok(());
+    if c.copper_pending {
+        corner_copper(cx, c)?;
     }
+    Ok(())
+}
+
+/// The copper loss of the candidate's stack-up at each corner it holds, at
+/// the selection temperature (the core loss does not depend on it).
+fn corner_copper(cx: &Ctx, c: &mut Candidate) -> Result<()> {
     let spec = &cx.design.spec;
     let (t_sel, _, _) = selection_copper(spec, cx.material)?;
     let model = LossModel::from_fit(&c.stackup, &c.fit, t_sel)?;
@@ -297,24 +303,11 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Optio
         ensure_copper(cx, &mut c)?;
         return Ok(c);
     };
-    let model = LossModel::from_fit(&stackup, &fit, t_sel)?;
-    let opts = LossOptions {
-        edge_time: cx.design.choices.edge_time,
-        ..LossOptions::default()
-    };
-    for corner in &mut c.corners {
-        let op = match corner.corner {
-            Corner::VinMin => &c.waves.at_vin_min,
-            Corner::VinMax => &c.waves.at_vin_max,
-        };
-        corner.copper = model.evaluate(&currents_of(spec.topology, op), &opts)?;
-        corner.total = corner.copper.total + corner.core.watts;
-    }
     c.stackup = stackup;
     c.fit = fit;
     c.wires = wires;
     c.winding_choice = winding_choice;
-    c.copper_pending = false;
+    corner_copper(cx, &mut c)?;
     Ok(c)
 }
 
