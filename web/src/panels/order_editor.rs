@@ -241,3 +241,37 @@ pub(super) fn OrderEditor(form: Form, outcome: Memo<Outcome>, names: Memo<Vec<St
         </fieldset>
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn st(w: &str) -> SectionTurns {
+        SectionTurns {
+            winding: w.into(),
+            turns: None,
+        }
+    }
+
+    #[test]
+    fn order_edits_move_split_and_remove() {
+        let mut o = vec![st("primary"), st("secondary 1"), st("primary")];
+        assert_eq!(section_name(&o, 2), "primary section 2");
+        assert_eq!(apply(&mut o, Edit::Up(1)), Some(0));
+        assert_eq!(o, vec![st("secondary 1"), st("primary"), st("primary")]);
+        assert_eq!(apply(&mut o, Edit::Up(0)), None, "the first cannot go up");
+        assert_eq!(apply(&mut o, Edit::Down(2)), None, "the last cannot go down");
+        let mut fixed = st("secondary 1");
+        fixed.turns = Some(3);
+        o[0] = fixed;
+        assert_eq!(apply(&mut o, Edit::Split(0)), Some(0));
+        assert_eq!(o[..2], [st("secondary 1"), st("secondary 1")], "both halves share");
+        assert_eq!(apply(&mut o, Edit::Remove(3)), Some(2));
+        assert_eq!(o.len(), 3);
+        assert_eq!(apply(&mut o, Edit::Remove(9)), None);
+        let names = vec!["primary".to_string(), "secondary 1".to_string()];
+        assert!(order_suits(&o, &names));
+        assert!(!order_suits(&o[..2], &names), "no primary");
+        assert!(!order_suits(&[], &names));
+    }
+}

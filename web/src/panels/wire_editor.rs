@@ -197,3 +197,28 @@ pub(super) fn WireRow(form: Form, name: String, index: usize) -> impl IntoView {
         </div>
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn entries_read_back_as_the_override() {
+        for w in [
+            WireChoice::Round { awg: 22, parallel: 3 },
+            WireChoice::Litz {
+                strands: 120,
+                strand_awg: 40,
+            },
+            WireChoice::Foil { thickness: 0.15e-3 },
+            WireChoice::TripleInsulated { awg: 26, parallel: 2 },
+        ] {
+            let (a, b) = texts_of(&w);
+            assert_eq!(read(kind_of(Some(&w)), &a, &b), Ok(Some(w.clone())));
+        }
+        assert!(read(WireKind::Round, "22.5", "1").is_err());
+        assert!(read(WireKind::Round, "22", "-1").is_err());
+        assert_eq!(read(WireKind::Auto, "", ""), Ok(None));
+        assert_eq!(slug("secondary 1 B"), "secondary-1-b");
+    }
+}

@@ -439,8 +439,6 @@ pub fn Library(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use super::core_pick::*;
-    use super::material_pick::*;
 
     #[test]
     fn dims_read_units_and_prefixes() {
