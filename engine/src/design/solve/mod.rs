@@ -543,6 +543,17 @@ mod tests {
         assert_eq!(a.winding_choice.construction.as_deref(), Some(if same(&t) { "triple_insulated" } else { "margin_wound" }));
         // Not asked where there is no reinforced insulation with hazardous voltage.
         assert_eq!(evaluate(&Design::demo_forward()).unwrap().winding_choice.construction, None);
+        // A bobbin too narrow for two 3 mm margins: margin-wound is refused by
+        // field, "auto" builds the triple-insulated one (a 6 W flyback on P 18/11).
+        let mut small = Design::demo_flyback();
+        small.core = CoreChoice::Library { designation: "P 18/11".into() };
+        small.spec.outputs[0].current *= 0.25;
+        small.choices.insulation.construction = Construction::MarginWound;
+        assert_eq!(evaluate(&small).unwrap_err().field(), Some("choices.insulation.margin"));
+        small.choices.insulation.construction = Construction::Auto;
+        let r = evaluate(&small).unwrap();
+        assert_eq!(r.winding_choice.construction.as_deref(), Some("triple_insulated"));
+        assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
     }
 
     #[test]

@@ -54,15 +54,16 @@ fn constructions(design: &Design) -> Vec<Option<Construction>> {
     }
 }
 
-/// The construction the turn-count trials' allocation by area builds: the
-/// one asked, or for "auto" the margin-wound one, which takes any
-/// conductor (the search then weighs both).
-fn trial_construction(design: &Design) -> Option<Construction> {
+/// The constructions the turn-count trials' allocation by area tries, in
+/// turn: the one asked, or for "auto" the margin-wound one, which takes any
+/// conductor, then (where its margins leave no room) the triple-insulated
+/// one. The search then weighs both.
+fn trial_constructions(design: &Design) -> Vec<Option<Construction>> {
     let all = constructions(design);
     if all.len() == 1 {
-        all[0]
+        all
     } else {
-        Some(Construction::MarginWound)
+        vec![Some(Construction::MarginWound), Some(Construction::TripleInsulated)]
     }
 }
 
@@ -167,8 +168,27 @@ pub(super) fn choose_stackup(
     windings: &[(String, u32, f64)],
     delta: f64,
 ) -> Result<Chosen> {
+    let mut first_error = None;
+    for built in trial_constructions(design) {
+        match choose_stackup_built(design, core, windings, delta, built) {
+            Ok(c) => return Ok(c),
+            Err(e) => {
+                first_error.get_or_insert(e);
+            }
+        }
+    }
+    Err(first_error.unwrap_or_else(|| Error::infeasible(None, "no construction to build")))
+}
+
+fn choose_stackup_built(
+    design: &Design,
+    core: &Core,
+    windings: &[(String, u32, f64)],
+    delta: f64,
+    built: Option<Construction>,
+) -> Result<Chosen> {
     let ch = &design.choices;
-    let fr = frame(design, core, windings, trial_construction(design))?;
+    let fr = frame(design, core, windings, built)?;
     let pattern = match ch.interleave {
         Interleave::Sequential => Pattern::Sequential,
         Interleave::SplitPrimary => Pattern::SplitPrimary,
