@@ -175,16 +175,6 @@ pub enum Construction {
     MarginWound,
 }
 
-impl Construction {
-    /// As in the design file.
-    pub fn name(self) -> &'static str {
-        match self {
-            Construction::Auto => "auto",
-            Construction::TripleInsulated => "triple_insulated",
-            Construction::MarginWound => "margin_wound",
-        }
-    }
-}
 
 /// The designer's decisions; every one has a sensible default.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]

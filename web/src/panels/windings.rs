@@ -371,13 +371,13 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
     // What the engine built, where it builds reinforced insulation.
     let built = move || {
         outcome.with(|o| match o {
-            Ok(r) => match r.winding_choice.construction.as_deref() {
-                Some("triple_insulated") => "built: triple-insulated secondaries, no margins".to_string(),
-                Some("margin_wound") => "built: margins at both flanges, 3 wraps between sections".to_string(),
-                Some(other) => format!("built: {other}"),
-                None => "not asked: no reinforced insulation with hazardous voltage".to_string(),
+            Ok(r) => match r.winding_choice.construction {
+                Some(Construction::TripleInsulated) => "built: triple-insulated secondaries, no margins",
+                Some(Construction::MarginWound) => "built: margins at both flanges, 3 wraps between sections",
+                Some(Construction::Auto) => "built: chosen by loss",
+                None => "not asked: no reinforced insulation with hazardous voltage",
             },
-            Err(_) => String::new(),
+            Err(_) => "",
         })
     };
     let pick_interleave = move |ev: leptos::ev::Event| {

@@ -520,7 +520,7 @@ mod tests {
         let mut d = Design::demo_flyback();
         d.choices.insulation.construction = Construction::TripleInsulated;
         let t = evaluate(&d).unwrap();
-        assert_eq!(t.winding_choice.construction.as_deref(), Some("triple_insulated"));
+        assert_eq!(t.winding_choice.construction, Some(Construction::TripleInsulated));
         for (_, s) in t.stackup.sections() {
             assert_eq!((s.margin_left, s.margin_right), (0.0, 0.0), "{}", s.winding);
             if s.winding.starts_with("secondary") {
@@ -529,7 +529,7 @@ mod tests {
         }
         d.choices.insulation.construction = Construction::MarginWound;
         let m = evaluate(&d).unwrap();
-        assert_eq!(m.winding_choice.construction.as_deref(), Some("margin_wound"));
+        assert_eq!(m.winding_choice.construction, Some(Construction::MarginWound));
         for (_, s) in m.stackup.sections() {
             assert_eq!((s.margin_left, s.margin_right), (3e-3, 3e-3), "{}", s.winding);
             assert!(!matches!(s.conductor, Conductor::TripleInsulated(_)), "{}", s.winding);
@@ -540,7 +540,7 @@ mod tests {
         let a = evaluate(&d).unwrap();
         let same = |x: &Report| (x.losses.total - a.losses.total).abs() <= 1e-12 * a.losses.total;
         assert!(same(&t) || same(&m), "auto is one of the two: {} {} {}", a.losses.total, t.losses.total, m.losses.total);
-        assert_eq!(a.winding_choice.construction.as_deref(), Some(if same(&t) { "triple_insulated" } else { "margin_wound" }));
+        assert_eq!(a.winding_choice.construction, Some(if same(&t) { Construction::TripleInsulated } else { Construction::MarginWound }));
         // Not asked where there is no reinforced insulation with hazardous voltage.
         assert_eq!(evaluate(&Design::demo_forward()).unwrap().winding_choice.construction, None);
         // A bobbin too narrow for two 3 mm margins: margin-wound is refused by
@@ -552,7 +552,7 @@ mod tests {
         assert_eq!(evaluate(&small).unwrap_err().field(), Some("choices.insulation.margin"));
         small.choices.insulation.construction = Construction::Auto;
         let r = evaluate(&small).unwrap();
-        assert_eq!(r.winding_choice.construction.as_deref(), Some("triple_insulated"));
+        assert_eq!(r.winding_choice.construction, Some(Construction::TripleInsulated));
         assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
     }
 
@@ -562,7 +562,7 @@ mod tests {
         // current, outside the load current's field: its least-loss
         // conductor (a thin foil) saves a few mW over one round wire, far
         // below SIMPLER_SHARE of the copper loss, so one round wire is wound.
-        use super::conductors::search::SIMPLER_SHARE;
+        use super::conductors::SIMPLER_SHARE;
         let r = evaluate(&Design::demo_forward()).unwrap();
         let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
         let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();

@@ -1,5 +1,6 @@
 //! The report's types: what the solver found, every intermediate quantity included.
 
+use crate::design::file::Construction;
 use crate::core::Core;
 use crate::gap::{self, GapAl};
 use crate::loss::CoreLoss;
@@ -63,7 +64,7 @@ pub struct PatternTrial {
     pub interleave: String,
     /// As in `choices.insulation.construction` where reinforced insulation
     /// is built ("triple_insulated", "margin_wound"), else `None`.
-    pub construction: Option<String>,
+    pub construction: Option<Construction>,
     /// Copper loss with its least-loss conductors, W (selection temperature
     /// and corner).
     pub copper_loss: f64,
@@ -79,7 +80,7 @@ pub struct WindingChoice {
     /// The reinforced insulation's construction where it is built
     /// ("triple_insulated", "margin_wound"; chosen by loss when
     /// `choices.insulation.construction` = auto), else `None`.
-    pub construction: Option<String>,
+    pub construction: Option<Construction>,
     /// The interleavings (and constructions) evaluated.
     pub tried: Vec<PatternTrial>,
 }

@@ -19,7 +19,7 @@
 //! inductor (buck or boost) is given its wound inductance outright.
 
 use super::{Curve, Sweep};
-use crate::design::file::{Construction, Design, Interleave, TurnsRule, WireChoice, WireOverride};
+use crate::design::file::{Design, Interleave, TurnsRule, WireChoice, WireOverride};
 use crate::design::solve::Report;
 use crate::error::{Error, Result};
 use crate::topology::Topology;
@@ -84,14 +84,8 @@ pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
         )
     })?;
     // And the reinforced insulation's construction (margins and tapes).
-    if let Some(c) = &report.winding_choice.construction {
-        d.choices.insulation.construction = serde_json::from_value::<Construction>(serde_json::Value::String(c.clone()))
-            .map_err(|_| {
-                Error::infeasible(
-                    Some("choices.insulation.construction"),
-                    format!("the construction \"{c}\" cannot be held for the as-wound sweep"),
-                )
-            })?;
+    if let Some(c) = report.winding_choice.construction {
+        d.choices.insulation.construction = c;
     }
     if design.spec.topology == Topology::Inductor {
         // The inductor as wound keeps its inductance (so its gap), not its

@@ -6,8 +6,10 @@
 pub mod optima;
 pub mod screen;
 pub mod search;
+mod simplify;
 
-pub use search::{ConductorTrial, Kind as ConductorKind, SIMPLER_SHARE};
+pub use search::{ConductorTrial, Kind as ConductorKind};
+pub use simplify::SIMPLER_SHARE;
 
 /// What the search needs to evaluate copper loss: the currents at the
 /// selection corner (dot convention), the temperature and ρ there.
@@ -203,7 +205,7 @@ fn choose_stackup_built(
     let choice = WindingChoice {
         interleave: pattern_name(&pattern).into(),
         automatic: false,
-        construction: fr.built.map(|c| c.name().to_string()),
+        construction: fr.built,
         tried: Vec::new(),
     };
     Ok((st, f, wires, choice))
@@ -230,8 +232,8 @@ pub(super) fn search_stackup(
         return Ok(None);
     }
     let mut builts = constructions(design);
-    if let Some(k) = keep.and_then(|k| k.construction.as_deref()) {
-        let kept: Vec<Option<Construction>> = builts.iter().copied().filter(|b| b.map(|c| c.name()) == Some(k)).collect();
+    if let Some(k) = keep.and_then(|k| k.construction) {
+        let kept: Vec<Option<Construction>> = builts.iter().copied().filter(|&b| b == Some(k)).collect();
         if !kept.is_empty() {
             builts = kept;
         }
@@ -384,17 +386,16 @@ fn summarise(design: &Design, windings: &[(String, u32, f64)], built: Option<Con
             }
         })
         .collect();
-    let construction = built.map(|c| c.name().to_string());
     let choice = WindingChoice {
         interleave: pattern_name(&found.pattern).into(),
         automatic: ch.interleave == Interleave::Auto,
-        construction: construction.clone(),
+        construction: built,
         tried: found
             .patterns
             .iter()
             .map(|(p, w)| PatternTrial {
                 interleave: pattern_name(p).into(),
-                construction: construction.clone(),
+                construction: built,
                 copper_loss: *w,
             })
             .collect(),

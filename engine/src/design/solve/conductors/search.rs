@@ -25,13 +25,14 @@
 //!    tried in its place and kept where the total copper loss falls.
 //! 4. **Simplicity.** Per winding, the simplest candidate (round before
 //!    foil before litz, fewer in hand, less copper; common practice, no
-//!    source) whose set loses at most [`SIMPLER_SHARE`] more copper than
+//!    source) whose set loses at most `SIMPLER_SHARE` more copper than
 //!    the least-loss set is wound instead: where the least-loss conductor
 //!    saves next to nothing (a reset winding outside the load current's
 //!    field), plain round wire.
 
 use super::optima::{litz_low_frequency_loss, optimum_delta, waveform_factor};
 use super::screen::{estimate, phasors, portions, DowellMemo, Window};
+use super::simplify::{simplify, SIMPLER_SHARE};
 use super::{awg_not_above, FOIL_FILM};
 use crate::core::Core;
 use crate::error::Result;
@@ -59,13 +60,6 @@ pub const SCREEN_BAND: f64 = 1.05;
 /// estimate leaves out how a conductor's build moves the other windings
 /// (our choice).
 pub const KIND_BAND: f64 = 1.15;
-/// A simpler conductor ([`simplicity`]) is wound where it adds at most this
-/// share to the set's copper loss: a winding whose least-loss conductor
-/// buys a negligible saving (a forward's reset winding, say) gets plain
-/// round wire (our choice).
-pub const SIMPLER_SHARE: f64 = 0.02;
-/// Simpler candidates of one winding the harmonic model weighs at most.
-pub const SIMPLER_TRIES: usize = 1;
 
 /// Kind of conductor.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
@@ -155,12 +149,14 @@ pub struct Found {
     pub copper: f64,
 }
 
+/// One candidate conductor of a winding group, with its estimate.
 #[derive(Debug, Clone)]
-struct Option1 {
-    conductor: Conductor,
-    parallel: u32,
-    loss: f64,
-    build: f64,
+pub(super) struct Option1 {
+    pub(super) conductor: Conductor,
+    pub(super) parallel: u32,
+    /// Estimated loss, W, and radial build, m.
+    pub(super) loss: f64,
+    pub(super) build: f64,
 }
 
 /// The section order `(winding, turns)` bobbin outward under `pattern`,
@@ -398,6 +394,11 @@ fn winding_loss(r: &LossReport, name: &str) -> f64 {
     r.windings.iter().find(|w| w.name == name).map_or(0.0, |w| w.total_loss)
 }
 
+/// The copper loss of winding group `g` (its members' sum) in `r`.
+pub(super) fn group_loss(r: &LossReport, gr: &[Vec<usize>], needs: &[Need], g: usize) -> f64 {
+    gr[g].iter().map(|&m| winding_loss(r, needs[m].name)).sum()
+}
+
 /// The windings that share one conductor: the two halves "X A" and "X B"
 /// of a centre-tapped winding are wound alike (bifilar or mirrored; common
 /// practice, no source). Leaders first, by first appearance.
@@ -575,89 +576,6 @@ fn trial_report(
 
 type Best = (f64, Pattern, Vec<Vec<Option1>>, Vec<usize>, StackUp, FitReport, LossReport);
 
-/// A set decided on: its conductors, stack-up, fit and copper loss.
-type Decided = (Vec<(Conductor, u32)>, StackUp, FitReport, LossReport);
-
-/// How simple a conductor is to wind and to buy, least first (common
-/// practice, no source): round wire (enamelled or triple-insulated) before
-/// foil before litz, fewer in hand before more, less copper before more.
-fn simplicity(o: &Option1) -> (u8, u32, f64) {
-    let rank = match Kind::of(&o.conductor) {
-        Kind::Round | Kind::TripleInsulated => 0,
-        Kind::Foil => 1,
-        Kind::Litz => 2,
-    };
-    (rank, o.parallel, o.conductor.copper_area() * o.parallel as f64)
-}
-
-fn simpler_than(a: &Option1, b: &Option1) -> bool {
-    let (x, y) = (simplicity(a), simplicity(b));
-    (x.0, x.1).cmp(&(y.0, y.1)).then(x.2.total_cmp(&y.2)).is_lt()
-}
-
-/// Step 4 (module docs): per winding group, the simplest conductor (by
-/// [`simplicity`]) whose set loses at most [`SIMPLER_SHARE`] more copper
-/// loss than the least-loss set `decided` holds, in the budget left by the
-/// groups before it. A candidate goes to the harmonic model only if its
-/// estimate is within the budget of the chosen one's, simplest first, at
-/// most [`SIMPLER_TRIES`] per group. Updates `chosen`, `evaluated` and
-/// `decided`; returns per group whether a simpler conductor was taken at
-/// the cost of some loss.
-#[allow(clippy::too_many_arguments)]
-fn simplify(
-    s: &Setting,
-    needs: &[Need],
-    gr: &[Vec<usize>],
-    lists: &[Vec<Option1>],
-    pattern: &Pattern,
-    limit: f64,
-    chosen: &mut [usize],
-    evaluated: &mut [Vec<(usize, f64)>],
-    decided: &mut Decided,
-) -> Vec<bool> {
-    let group_loss = |r: &LossReport, g: usize| -> f64 { gr[g].iter().map(|&m| winding_loss(r, needs[m].name)).sum() };
-    let ceiling = decided.3.total * (1.0 + SIMPLER_SHARE);
-    let mut taken = vec![false; gr.len()];
-    for g in 0..gr.len() {
-        if needs[gr[g][0]].fixed.is_some() {
-            continue;
-        }
-        let cur = &lists[g][chosen[g]];
-        let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
-        let room = ceiling - decided.3.total;
-        let mut js: Vec<usize> = (0..lists[g].len())
-            .filter(|&j| {
-                let o = &lists[g][j];
-                simpler_than(o, cur) && others + o.build <= limit && o.loss <= cur.loss + room
-            })
-            .collect();
-        js.sort_by(|&a, &b| {
-            let (x, y) = (simplicity(&lists[g][a]), simplicity(&lists[g][b]));
-            (x.0, x.1).cmp(&(y.0, y.1)).then(x.2.total_cmp(&y.2))
-        });
-        for j in js.into_iter().take(SIMPLER_TRIES) {
-            let mut trial = chosen.to_vec();
-            trial[g] = j;
-            let mut set = decided.0.clone();
-            for &m in &gr[g] {
-                set[m] = (lists[g][j].conductor.clone(), lists[g][j].parallel);
-            }
-            let Ok((st, f, r)) = evaluate_set(s, needs, &set, pattern) else { continue };
-            if !evaluated[g].iter().any(|e| e.0 == j) {
-                evaluated[g].push((j, group_loss(&r, g)));
-            }
-            if r.total <= ceiling {
-                // Simpler and no worse by the harmonic model (the estimate
-                // ranked it below) is simply the least loss.
-                taken[g] = r.total > decided.3.total;
-                chosen[g] = j;
-                *decided = (set, st, f, r);
-                break;
-            }
-        }
-    }
-    taken
-}
 
 /// Steps 3–4 (module docs) on what [`screen`] found with the same
 /// setting and windings.
@@ -695,7 +613,7 @@ pub fn decide(s: &Setting, needs: &[Need], screened: Screened) -> Option<Found> 
     let names: Vec<&str> = needs.iter().map(|n| n.name).collect();
     let nsec = order_of(&pattern, &names, &turns).len();
     let limit = limit_all - tape_build(s.opts, nsec);
-    let group_loss = |r: &LossReport, g: usize| -> f64 { gr[g].iter().map(|&m| winding_loss(r, needs[m].name)).sum() };
+    let group_loss = |r: &LossReport, g: usize| group_loss(r, &gr, needs, g);
     // Per group: (option index, the group's evaluated loss).
     let mut evaluated: Vec<Vec<(usize, f64)>> = (0..gr.len()).map(|g| vec![(pick[g], group_loss(&r, g))]).collect();
     let mut chosen = pick.clone();

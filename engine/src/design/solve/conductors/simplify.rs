@@ -1,0 +1,94 @@
+//! Step 4 of the conductor search ([`super::search`]): where a winding's
+//! least-loss conductor saves next to nothing, the simplest one is wound.
+//! A forward's reset winding outside the load current's field, for one,
+//! would otherwise get the thinnest foil that saves a few milliwatts.
+
+use super::search::{evaluate_set, group_loss, Kind, Need, Option1, Setting};
+use crate::winding::conductor::Conductor;
+use crate::winding::fit::FitReport;
+use crate::winding::loss::LossReport;
+use crate::winding::stackup::{Pattern, StackUp};
+use std::cmp::Ordering;
+
+/// A simpler conductor (round before foil before litz, fewer in hand, less
+/// copper) is wound where it adds at most this
+/// share to the set's copper loss: a winding whose least-loss conductor
+/// buys a negligible saving (a forward's reset winding, say) gets plain
+/// round wire (our choice).
+pub const SIMPLER_SHARE: f64 = 0.02;
+/// Simpler candidates of one winding the harmonic model weighs at most.
+pub const SIMPLER_TRIES: usize = 1;
+
+/// A set decided on: its conductors, stack-up, fit and copper loss.
+pub(super) type Decided = (Vec<(Conductor, u32)>, StackUp, FitReport, LossReport);
+
+/// How simple a conductor is to wind and to buy, least first (common
+/// practice, no source): round wire (enamelled or triple-insulated) before
+/// foil before litz, fewer in hand before more, less copper before more.
+fn simplicity(a: &Option1, b: &Option1) -> Ordering {
+    let rank = |o: &Option1| match Kind::of(&o.conductor) {
+        Kind::Round | Kind::TripleInsulated => 0,
+        Kind::Foil => 1,
+        Kind::Litz => 2,
+    };
+    let copper = |o: &Option1| o.conductor.copper_area() * o.parallel as f64;
+    (rank(a), a.parallel).cmp(&(rank(b), b.parallel)).then(copper(a).total_cmp(&copper(b)))
+}
+
+/// Step 4 (module docs): per winding group, the simplest conductor (by
+/// [`simplicity`]) whose set loses at most [`SIMPLER_SHARE`] more copper
+/// loss than the least-loss set `decided` holds, in the budget left by the
+/// groups before it. A candidate goes to the harmonic model only if its
+/// estimate is within the budget of the chosen one's, simplest first, at
+/// most [`SIMPLER_TRIES`] per group. Updates `chosen`, `evaluated` and
+/// `decided`; returns per group whether a simpler conductor was taken at
+/// the cost of some loss.
+#[allow(clippy::too_many_arguments)]
+pub(super) fn simplify(
+    s: &Setting,
+    needs: &[Need],
+    gr: &[Vec<usize>],
+    lists: &[Vec<Option1>],
+    pattern: &Pattern,
+    limit: f64,
+    chosen: &mut [usize],
+    evaluated: &mut [Vec<(usize, f64)>],
+    decided: &mut Decided,
+) -> Vec<bool> {
+    let ceiling = decided.3.total * (1.0 + SIMPLER_SHARE);
+    let mut taken = vec![false; gr.len()];
+    for g in 0..gr.len() {
+        if needs[gr[g][0]].fixed.is_some() {
+            continue;
+        }
+        let cur = &lists[g][chosen[g]];
+        let others: f64 = (0..gr.len()).filter(|&x| x != g).map(|x| lists[x][chosen[x]].build).sum();
+        let room = ceiling - decided.3.total;
+        let mut js: Vec<usize> = (0..lists[g].len())
+            .filter(|&j| {
+                let o = &lists[g][j];
+                simplicity(o, cur).is_lt() && others + o.build <= limit && o.loss <= cur.loss + room
+            })
+            .collect();
+        js.sort_by(|&a, &b| simplicity(&lists[g][a], &lists[g][b]));
+        for j in js.into_iter().take(SIMPLER_TRIES) {
+            let mut set = decided.0.clone();
+            for &m in &gr[g] {
+                set[m] = (lists[g][j].conductor.clone(), lists[g][j].parallel);
+            }
+            let Ok((st, f, r)) = evaluate_set(s, needs, &set, pattern) else { continue };
+            if !evaluated[g].iter().any(|e| e.0 == j) {
+                evaluated[g].push((j, group_loss(&r, gr, needs, g)));
+            }
+            if r.total <= ceiling {
+                // Simpler and no worse by the harmonic model (the estimate
+                // ranked it below) is simply the least loss.
+                taken[g] = r.total > decided.3.total;
+                chosen[g] = j;
+                *decided = (set, st, f, r);
+                break;
+            }
+        }
+    }
+    taken
+}
