@@ -358,24 +358,14 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
             Err(_) => prev.cloned().unwrap_or_default(),
         })
     });
-    let constructions = [
-        (Construction::Auto, "Automatic (least loss)"),
-        (Construction::TripleInsulated, "Triple-insulated secondaries"),
-        (Construction::MarginWound, "Margin-wound, 3 wraps"),
-    ];
-    let pick_construction = move |ev: leptos::ev::Event| {
-        if let Some((v, _)) = event_target_value(&ev).parse::<usize>().ok().and_then(|i| constructions.get(i).copied()) {
-            form.construction.set(v);
-        }
-    };
     // What the engine built, where it builds reinforced insulation.
     let built = move || {
         outcome.with(|o| match o {
             Ok(r) => match r.winding_choice.construction {
-                Some(Construction::TripleInsulated) => "built: triple-insulated secondaries, no margins",
-                Some(Construction::MarginWound) => "built: margins at both flanges, 3 wraps between sections",
-                Some(Construction::Auto) => "built: chosen by loss",
-                None => "not asked: no reinforced insulation with hazardous voltage",
+                Some(Construction::TripleInsulated) => "Reinforced insulation as built: triple-insulated secondaries, no margins.",
+                Some(Construction::MarginWound) => "Reinforced insulation as built: margins at both flanges, 3 wraps between sections.",
+                Some(Construction::Auto) => "Reinforced insulation as built: chosen by loss.",
+                None => "No reinforced insulation with hazardous voltage is asked, so no construction is built for it.",
             },
             Err(_) => "",
         })
@@ -443,18 +433,16 @@ pub fn Windings(form: Form, outcome: Memo<Outcome>) -> impl IntoView {
         <fieldset>
             <legend>"Insulation and window"</legend>
             <div class="fields">
-                <div class="field">
-                    <label for="f-construction" title="How reinforced insulation between primary and secondaries is built on a design with hazardous voltage (ignored otherwise); the safety standard and the wire's and tape's approvals decide">"Reinforced insulation"</label>
-                    <select id="f-construction" on:change=pick_construction>
-                        {constructions.iter().enumerate().map(|(i, (v, l))| {
-                            let v = *v;
-                            view! { <option value=i.to_string() prop:selected=move || form.construction.get() == v>{*l}</option> }
-                        }).collect_view()}
-                    </select>
-                    <div class="built" data-testid="construction-built">{built}</div>
-                </div>
+                <form::Pick key="construction" label="Reinforced insulation" value=form.construction
+                    options=vec![
+                        (Construction::Auto, "Automatic (least loss)"),
+                        (Construction::TripleInsulated, "Triple-insulated secondaries"),
+                        (Construction::MarginWound, "Margin-wound, 3 wraps"),
+                    ]
+                    help="How reinforced insulation between primary and secondaries is built on a design with hazardous voltage (ignored otherwise); the safety standard and the wire's and tape's approvals decide" />
                 {form::num_fields(form, outcome, Group::Winding)}
             </div>
+            <p class="core-note" data-testid="construction-built">{built}</p>
         </fieldset>
     }
 }
