@@ -1,6 +1,7 @@
 // Names, units and cautions (issue 15): the first-visit demo shows the
 // hazardous-voltage caution box (its switch node is above ES1), the standing
-// caution is on the page; canvases are drawn at the device pixel ratio; the
+// caution is on the page; canvases are drawn at the device pixel ratio (and
+// redrawn when the layout changes their width); the
 // Pv–B chart is drawn from the engine's curves; the optimiser says it has not
 // run yet; an old (version-1) design file opens converted, with a note.
 import { test, before, after } from 'node:test';
@@ -71,6 +72,27 @@ test('at a 2x pixel ratio every canvas has backing size = CSS size x devicePixel
   }
   await page.locator('[data-testid="pv-b-figure"]').screenshot({ path: join(OUT, 'names-pv-b-2x.png') });
   await page.locator('[data-testid="flux-plot"]').screenshot({ path: join(OUT, 'names-flux-2x.png') });
+  assert.deepEqual(requests, []);
+  assert.deepEqual(errors, []);
+  await context.close();
+});
+
+test('a canvas whose laid-out width changes is redrawn at the new width (the page resized)', async () => {
+  const { context, page, requests, errors } = await open(2);
+  const drawnAtSize = () => [...document.querySelectorAll('canvas')]
+    .filter((c) => c.dataset.testid !== 'pareto-plot' && c.clientWidth > 0)
+    .every((c) => c.width === Math.round(c.clientWidth * 2));
+  await page.waitForFunction(drawnAtSize);
+  const before = await page.$eval('[data-testid="flux-plot"]', (c) => ({ cw: c.clientWidth, w: c.width }));
+  await page.setViewportSize({ width: 420, height: 900 });
+  // The layout narrows the canvas; its picture follows without any edit.
+  await page.waitForFunction((w0) => document.querySelector('[data-testid="flux-plot"]').clientWidth < w0, before.cw);
+  await page.waitForFunction(drawnAtSize);
+  const after = await page.$eval('[data-testid="flux-plot"]', (c) => ({ cw: c.clientWidth, w: c.width }));
+  assert.ok(after.cw < before.cw && after.w < before.w, `${JSON.stringify(before)} -> ${JSON.stringify(after)}`);
+  const ink = await canvasInk(page, 'flux-plot');
+  assert.ok(ink.ink > 0.01 && ink.colours > 3, `flux-plot drawn: ${JSON.stringify(ink)}`);
+  await page.locator('[data-testid="flux-plot"]').screenshot({ path: join(OUT, 'names-flux-narrow.png') });
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

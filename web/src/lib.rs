@@ -20,6 +20,7 @@
 
 pub mod app;
 pub mod browser;
+pub mod canvas_backend;
 pub mod field;
 pub mod files;
 pub mod form;

@@ -37,13 +37,20 @@ where
     F: Fn(&web_sys::HtmlCanvasElement) -> Result<(), String> + 'static,
 {
     let canvas = NodeRef::<leptos::html::Canvas>::new();
+    // Bumped when the canvas's laid-out width changes (a resize, a panel
+    // shown): the picture is redrawn at the new size.
+    let resized = RwSignal::new(0u32);
     Effect::new(move |_| {
+        resized.track();
         if let Some(c) = canvas.get() {
             if let Err(e) = draw(&c) {
                 leptos::logging::warn!("{testid}: {e}");
             }
         }
     });
+    let observer = StoredValue::new_local(None::<crate::hidpi::WidthWatch>);
+    canvas.on_load(move |c| observer.set_value(crate::hidpi::WidthWatch::new(&c, move || resized.update(|n| *n += 1))));
+    on_cleanup(move || observer.set_value(None));
     view! {
         <canvas node_ref=canvas width=width height=height data-w=width data-h=height data-testid=testid role="img" aria-label=label></canvas>
     }

@@ -31,12 +31,15 @@ fn main() -> ExitCode {
 fn run(wasm: &Path, template: &Path, out: &Path) -> Result<(), String> {
     let work: PathBuf = out.parent().unwrap_or(Path::new(".")).join(".bindgen");
     std::fs::create_dir_all(&work).map_err(|e| format!("{}: {e}", work.display()))?;
+    // MAGWRIGHT_KEEP_NAMES=1 keeps the function names, for a browser CPU
+    // profile that names Rust functions (a much bigger file; never shipped).
+    let keep_names = std::env::var_os("MAGWRIGHT_KEEP_NAMES").is_some();
     let mut b = wasm_bindgen_cli_support::Bindgen::new();
     b.input_path(wasm)
         .web(true)
         .map_err(|e| e.to_string())?
         .typescript(false)
-        .remove_name_section(true)
+        .remove_name_section(!keep_names)
         .remove_producers_section(true)
         .out_name("app");
     b.generate(&work).map_err(|e| format!("wasm-bindgen: {e:#}"))?;

@@ -122,9 +122,12 @@ pub struct Done<T> {
     pub ms: f64,
 }
 
-/// A run in progress.
+/// A run in progress: `work` is made in the run's first slice (not on the
+/// keystroke, whose frame is the design's own), `None` after that when
+/// there is nothing to compute.
 struct Job<J> {
     design: Design,
+    started: bool,
     work: Option<J>,
     ms: f64,
 }
@@ -173,10 +176,7 @@ impl<J: Sliced> SweepRun<J> {
         if self.shown.with_untracked(|s| s.as_ref().is_some_and(|s| s.design == design)) {
             return;
         }
-        let t0 = js_sys::Date::now();
-        let work = J::start(&design);
-        let ms = js_sys::Date::now() - t0;
-        self.job.set_value(Some(Job { design, work, ms }));
+        self.job.set_value(Some(Job { design, started: false, work: None, ms: 0.0 }));
         // The first slice waits one frame: the keystroke's own results and
         // pictures are painted first, undelayed by the sweep's budget.
         request_animation_frame(move || request_animation_frame(move || self.frame(generation)));
@@ -192,6 +192,10 @@ impl<J: Sliced> SweepRun<J> {
         let mut finished = true;
         self.job.update_value(|j| {
             let Some(j) = j else { return };
+            if !j.started {
+                j.work = J::start(&j.design);
+                j.started = true;
+            }
             if let Some(w) = j.work.as_mut() {
                 finished = false;
                 while !finished && js_sys::Date::now() - t0 <= BUDGET_MS {
