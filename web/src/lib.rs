@@ -30,6 +30,7 @@ pub mod panic;
 pub mod persist;
 pub mod plot;
 pub mod plot_log;
+pub mod tasks;
 pub mod ui;
 
 use wasm_bindgen::prelude::wasm_bindgen;

@@ -24,9 +24,9 @@
 //    minus the keystroke's timestamp: the main-thread work that must fit in
 //    one 16 ms frame. The first animation frame after it is shown too
 //    (informational: it includes waiting for the next vsync). The
-//    frequency sweep is not part of it: it runs in slices over the next
-//    frames, and the keystroke's own changes are those before its figure's
-//    data-sweep-ready turns "true" again;
+//    frequency sweep is not part of it: it runs in slices after the
+//    keystroke's frame, and the keystroke's own changes are those before its
+//    figure's data-sweep-ready turns "true" again;
 //  * keystroke to sweep drawn = the last change or draw once that run has
 //    ended (the sweep drawn for the value typed) minus the keystroke's
 //    timestamp (informational, median and worst);
@@ -143,10 +143,12 @@ async function openInstrumented(browser, url, o) {
   return { context, page, requests, watch, ready: t.ready };
 }
 
-// The page's frequency sweep runs in slices, in the animation frames after
-// the keystroke (web/src/panels/sweep_run.rs), and changes nothing in the
-// DOM until the frame in which it ends (its figure's data-sweep-ready turns
-// "true"): the changes before that frame belong to the keystroke itself.
+// The page's frequency sweep runs in slices after the keystroke
+// (web/src/panels/sweep_run.rs): the first in the second animation frame
+// after it, the rest as tasks of their own. It changes nothing in the DOM
+// until its last slice (its figure's data-sweep-ready turns "true"): the
+// changes before the last animation-frame callback that started before
+// then belong to the keystroke itself.
 
 const median = (xs) => { const s = [...xs].sort((a, b) => a - b); const m = s.length >> 1; return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2; };
 

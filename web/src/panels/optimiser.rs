@@ -9,14 +9,15 @@
 //! # Keeping the page responsive
 //!
 //! The optimiser evaluates one candidate per call, so the panel runs it in
-//! small chunks, one chunk per animation frame: at most [`CHUNK`]
-//! candidates, and fewer when a frame's share of time ([`BUDGET_MS`]) is
-//! used up, then it hands the thread back to the browser (input, painting)
-//! and asks for the next frame. No Web Worker is needed for a search of a
+//! small chunks: at most [`CHUNK`] candidates, and fewer when a chunk's
+//! share of time ([`BUDGET_MS`]) is used up, then it hands the thread back
+//! to the browser (input, painting) and queues the next chunk as a new task
+//! ([`crate::tasks::next_task`]), so it also uses the time between frames.
+//! No Web Worker is needed for a search of a
 //! few hundred designs, and the optimiser never leaves the main thread.
 //!
 //! Each run carries a number (`generation`); Cancel, or a new Run, bumps it
-//! and any frame of the old run that is still queued sees the change and
+//! and any chunk of the old run that is still queued sees the change and
 //! stops. Cancel keeps what was found so far, marked partial.
 //!
 //! The design is taken from the form when Run is pressed (untracked); a
@@ -35,9 +36,9 @@ use plotters::prelude::*;
 use plotters::style::text_anchor::{HPos, Pos, VPos};
 use web_sys::HtmlCanvasElement;
 
-/// Most candidates evaluated in one animation frame.
+/// Most candidates evaluated in one chunk.
 pub const CHUNK: usize = 8;
-/// Time a frame may spend on the search before yielding, ms.
+/// Time a chunk may spend on the search before yielding, ms.
 pub const BUDGET_MS: f64 = 10.0;
 /// Rows of the ranked list shown before "Show all".
 pub const SHORT_LIST: usize = 15;
@@ -149,7 +150,7 @@ impl Run {
                 self.ranking.set(None);
                 self.searched.set(Some(spec_only(&design)));
                 self.phase.set(Phase::Running);
-                request_animation_frame(move || self.frame(generation));
+                crate::tasks::next_task(move || self.chunk(generation));
             }
             Err(e) => {
                 self.optimiser.set_value(None);
@@ -162,9 +163,9 @@ impl Run {
         }
     }
 
-    /// One chunk of the search, then the next frame (unless finished or
-    /// superseded).
-    fn frame(self, generation: u64) {
+    /// One chunk of the search, then the next one queued (unless finished
+    /// or superseded).
+    fn chunk(self, generation: u64) {
         if self.generation.get_value() != generation {
             return;
         }
@@ -191,7 +192,7 @@ impl Run {
             self.ranking.set(Some(ranking));
             self.phase.set(Phase::Finished);
         } else {
-            request_animation_frame(move || self.frame(generation));
+            crate::tasks::next_task(move || self.chunk(generation));
         }
     }
 

@@ -28,7 +28,7 @@
 //!
 //! Speed: the sweep is the slow part (it redesigns at every point, 200
 //! designs for both curves), more than one frame's worth, so it is run in
-//! slices, one per animation frame ([`super::sweep_run`]): every edit
+//! slices that yield to the browser ([`super::sweep_run`]): every edit
 //! starts a new run at once and drops the one in progress; the results and
 //! the other pictures update on the keystroke, the sweep (both curves) when
 //! its run ends, a few frames later. Until then the figure shows the last
@@ -229,7 +229,7 @@ fn totals(s: &sweep::Sweep) -> String {
 pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl IntoView {
     let corner = RwSignal::new(Corner::VinMin);
 
-    // The sweep is run in slices, one per animation frame, started at once
+    // The sweep is run in slices that yield to the browser, started at once
     // by every change of the design (module docs, `sweep_run`).
     let run = SweepRun::<Curves>::new();
     Effect::new(move |_| run.start(design.get()));

@@ -3,11 +3,12 @@
 //!
 //! Every edit that changes the design starts a new run at once: both
 //! curves of the design (redesigned at each frequency, and as wound) as
-//! engine [`FrequencySweep`]s. A run computes points one at a time inside
-//! an animation frame until that frame's share of time ([`BUDGET_MS`]) is
-//! used up, then hands the thread back to the browser (input, painting)
-//! and asks for the next frame, as the optimiser does
-//! ([`super::optimiser`]). When every point is computed the run's sweeps
+//! engine [`FrequencySweep`]s. Its first slice waits for the keystroke's
+//! own frame to be painted; from then on a run computes points one at a
+//! time until a slice's share of time ([`BUDGET_MS`]) is used up, then
+//! hands the thread back to the browser (input, painting) and queues the
+//! next slice as a new task ([`crate::tasks::next_task`]), so it also uses
+//! the time between frames. When every point is computed the run's sweeps
 //! are finished (the engine's landmarks) and shown, with the design they
 //! are for.
 //!
@@ -30,8 +31,9 @@ use leptos::prelude::*;
 use magwright_engine::design::sweep::{Curve, Envelope, EnvelopeSweep, FrequencySweep, Sweep};
 use magwright_engine::design::Design;
 
-/// Time a frame may spend on the sweep before yielding, ms: well inside a
-/// 16 ms frame, so typing and drawing stay smooth.
+/// Time a slice may spend on the sweep before yielding, ms: well inside a
+/// 16 ms frame, so a keystroke waits at most this long and drawing stays
+/// smooth.
 pub const BUDGET_MS: f64 = 6.0;
 
 /// Work that can be done a point at a time: a run's job.
@@ -179,12 +181,12 @@ impl<J: Sliced> SweepRun<J> {
         self.job.set_value(Some(Job { design, started: false, work: None, ms: 0.0 }));
         // The first slice waits one frame: the keystroke's own results and
         // pictures are painted first, undelayed by the sweep's budget.
-        request_animation_frame(move || request_animation_frame(move || self.frame(generation)));
+        request_animation_frame(move || request_animation_frame(move || self.slice(generation)));
     }
 
-    /// One slice of the run, then the next frame (unless finished or
+    /// One slice of the run, then the next one queued (unless finished or
     /// superseded); when finished, the run is shown.
-    fn frame(self, generation: u64) {
+    fn slice(self, generation: u64) {
         if self.generation.get_value() != generation {
             return;
         }
@@ -205,7 +207,7 @@ impl<J: Sliced> SweepRun<J> {
             j.ms += js_sys::Date::now() - t0;
         });
         if !finished {
-            request_animation_frame(move || self.frame(generation));
+            crate::tasks::next_task(move || self.slice(generation));
             return;
         }
         let mut job = None;
