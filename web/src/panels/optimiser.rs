@@ -242,8 +242,15 @@ pub fn OptimiserPanel(form: Form) -> impl IntoView {
     let message = RwSignal::new(None::<String>);
 
     // The list is for an earlier specification once the form differs from
-    // the design searched in anything but core and material.
-    let current_spec = Memo::new(move |_| form.parse().ok().map(|d| spec_only(&d)));
+    // the design searched in anything but core and material. The form is
+    // read only once there is a search to compare with (not on every
+    // keystroke before the first run).
+    let current_spec = Memo::new(move |_| {
+        if run.searched.with(|s| s.is_none()) {
+            return None;
+        }
+        form.parse().ok().map(|d| spec_only(&d))
+    });
     let stale = move || match (run.searched.get(), current_spec.get()) {
         (Some(a), Some(b)) => a != b,
         (Some(_), None) => true,
