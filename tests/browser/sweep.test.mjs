@@ -109,9 +109,9 @@ test('sweep: live on every keystroke, never an earlier design\'s sweep shown as 
     const log = [];
     window.__sweepLog = log;
     const note = () => {
-      const e = { ready: fig.dataset.sweepReady, swept: fig.dataset.sweptHz, design: fig.dataset.designHz };
+      const e = { ready: fig.dataset.sweepReady, swept: fig.dataset.sweptHz, design: fig.dataset.designHz, legend: fig.dataset.legend };
       const last = log[log.length - 1];
-      if (!last || last.ready !== e.ready || last.swept !== e.swept || last.design !== e.design) log.push(e);
+      if (!last || last.ready !== e.ready || last.swept !== e.swept || last.design !== e.design || last.legend !== e.legend) log.push(e);
       if (!window.__sweepLogStop) requestAnimationFrame(note);
     };
     note();
@@ -131,6 +131,13 @@ test('sweep: live on every keystroke, never an earlier design\'s sweep shown as 
   const current = log.filter((e) => e.ready === 'true');
   for (const e of current) assert.equal(e.swept, e.design, `a sweep shown as current for another design: ${JSON.stringify(e)}`);
   assert.ok(log.some((e) => e.ready === 'false'), 'the figure was marked as being recomputed while typing');
+  // While it is being recomputed the figure stays one picture of the design
+  // swept: its legend ("this design: … W" included) is the last current one.
+  let lastCurrent = null;
+  for (const e of log) {
+    if (e.ready === 'true') lastCurrent = e;
+    else if (lastCurrent) assert.equal(e.legend, lastCurrent.legend, `the stale figure changed its legend: ${JSON.stringify(e)}`);
+  }
   const designs = [...new Set(log.map((e) => e.design))];
   assert.ok(designs.includes('12345'), `the intermediate designs were shown: ${designs}`);
   assert.equal(await attr(page, 'data-design-hz'), FINAL);

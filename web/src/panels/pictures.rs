@@ -283,8 +283,19 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
         })
     };
     // The sweep's chart: drawn, and its legend shown as `data-legend`.
-    let chart = Memo::new(move |_| {
-        sweep.with(|s| {
+    // The sweep figure is one picture of one design: while its curves are
+    // for an earlier design (a run in progress), "this design" stays that
+    // design's point too, and the figure is not redrawn on the keystroke;
+    // the curves and the point change together when the run ends.
+    // (The flag says "changed": the chart's gaps are NaN, so it is never
+    // equal to itself.)
+    let chart = Memo::new_owning(move |prev: Option<Option<LineChart>>| {
+        if let Some(prev) = prev {
+            if !swept.with(|s| design.with(|d| s == d)) {
+                return (prev, false);
+            }
+        }
+        let chart = sweep.with(|s| {
             wound.with(|w| {
                 envelope.with(|e| {
                     outcome.with(|o| match (o, s) {
@@ -293,7 +304,8 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
                     })
                 })
             })
-        })
+        });
+        (chart, true)
     });
     let draw_sweep = move |c: &web_sys::HtmlCanvasElement| {
         chart.with(|ch| match ch {
