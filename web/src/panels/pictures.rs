@@ -248,7 +248,8 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
     let envelope = Memo::new(move |_| env_run.shown.with(|s| s.as_ref().and_then(|s| s.out.clone())));
     // The sweep shown is for the design shown (and so is the envelope,
     // when asked for); else it is being recomputed.
-    let ready = move || swept.with(|s| design.with(|d| s == d)) && (!env_on.get() || env_for.with(|e| swept.with(|s| e == s)));
+    let swept_is_shown = move || swept.with(|s| design.with(|d| s == d));
+    let ready = move || swept_is_shown() && (!env_on.get() || env_for.with(|e| swept.with(|s| e == s)));
 
     let mmf = Memo::new(move |_| {
         let c = corner.get();
@@ -291,7 +292,7 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
     // equal to itself.)
     let chart = Memo::new_owning(move |prev: Option<Option<LineChart>>| {
         if let Some(prev) = prev {
-            if !swept.with(|s| design.with(|d| s == d)) {
+            if !swept_is_shown() {
                 return (prev, false);
             }
         }

@@ -124,14 +124,20 @@ pub struct Done<T> {
     pub ms: f64,
 }
 
-/// A run in progress: `work` is made in the run's first slice (not on the
-/// keystroke, whose frame is the design's own), `None` after that when
-/// there is nothing to compute.
+/// A run in progress.
 struct Job<J> {
     design: Design,
-    started: bool,
-    work: Option<J>,
+    work: Work<J>,
     ms: f64,
+}
+
+/// A run's work: made in its first slice (not on the keystroke, whose
+/// frame is the design's own).
+enum Work<J> {
+    NotStarted,
+    Running(J),
+    /// Nothing to compute ([`Sliced::empty`] is shown).
+    Nothing,
 }
 
 /// A run's state: `Copy` handles, so frame callbacks can carry it.
@@ -178,9 +184,10 @@ impl<J: Sliced> SweepRun<J> {
         if self.shown.with_untracked(|s| s.as_ref().is_some_and(|s| s.design == design)) {
             return;
         }
-        self.job.set_value(Some(Job { design, started: false, work: None, ms: 0.0 }));
-        // The first slice waits one frame: the keystroke's own results and
-        // pictures are painted first, undelayed by the sweep's budget.
+        self.job.set_value(Some(Job { design, work: Work::NotStarted, ms: 0.0 }));
+        // The first slice waits for the frame after the keystroke's own (two
+        // animation-frame callbacks): its results and pictures are painted
+        // first, undelayed by the sweep's budget.
         request_animation_frame(move || request_animation_frame(move || self.slice(generation)));
     }
 
@@ -194,11 +201,10 @@ impl<J: Sliced> SweepRun<J> {
         let mut finished = true;
         self.job.update_value(|j| {
             let Some(j) = j else { return };
-            if !j.started {
-                j.work = J::start(&j.design);
-                j.started = true;
+            if let Work::NotStarted = j.work {
+                j.work = J::start(&j.design).map_or(Work::Nothing, Work::Running);
             }
-            if let Some(w) = j.work.as_mut() {
+            if let Work::Running(w) = &mut j.work {
                 finished = false;
                 while !finished && js_sys::Date::now() - t0 <= BUDGET_MS {
                     finished = w.step();
@@ -213,7 +219,10 @@ impl<J: Sliced> SweepRun<J> {
         let mut job = None;
         self.job.update_value(|j| job = j.take());
         if let Some(j) = job {
-            let out = j.work.map_or_else(J::empty, J::finish);
+            let out = match j.work {
+                Work::Running(w) => J::finish(w),
+                Work::NotStarted | Work::Nothing => J::empty(),
+            };
             self.shown.set(Some(Done { design: j.design, out, ms: j.ms }));
         }
     }
