@@ -16,7 +16,9 @@ commands:
                                     prefixes (200k, 1M). The design redesigned at each
                                     frequency (turns, gap, wire, stack-up redone). Points where
                                     the material's loss data do not hold are marked
-                                    \"in_data\": false, never feasible, never the minimum.
+                                    \"in_data\": false, never feasible, never the minimum;
+                                    \"minimum_limits\" says when the minimum is held there
+                                    by the data's end, a check or the range swept.
     --as-wound                      also this transformer as wound (turns, conductors and
                                     stack-up fixed) at each frequency: what a bench shows
     --envelope                      also the least loss over every library material at each

@@ -53,6 +53,15 @@ test('sweep: both curves and the best-material envelope, named in the legend, = 
   assert.ok(legend.includes(`${s.redesigned.material} data`), legend);
   // No point outside the data is feasible (the engine's rule, as shown).
   for (const p of s.redesigned.points) assert.ok(p.in_data || !p.feasible, `${p.x} Hz`);
+  // What holds each least loss where it is: the engine's notes, shown as given.
+  const limits = await page.$$eval('[data-testid="sweep-limits"] li', (els) => els.map((e) => e.textContent));
+  const want = [
+    ...s.redesigned.minimum_limits.map((l) => `Least loss, redesigned: ${l.note}.`),
+    ...w.minimum_limits.map((l) => `Least loss, as wound: ${l.note}.`),
+  ];
+  assert.deepEqual(limits, want);
+  // The forward demo's redesigned loss still falls where its material's data end.
+  assert.ok(s.redesigned.minimum_limits.some((l) => l.by === 'data'), JSON.stringify(s.redesigned.minimum_limits));
 
   // The envelope, asked for with the keyboard.
   const toggle = '[data-testid="envelope-toggle"]';

@@ -470,6 +470,42 @@ fn plausible_designs_are_mostly_accepted() {
     assert!(accepted.get() >= 16, "{}", accepted.get());
 }
 
+/// The minimum's limits say what lies beside it: a side is listed when a
+/// point of the infeasible run next to it has less loss (the nearest one
+/// says why: outside the data, or a failing check), when the point next to
+/// it has no design, or when there is no point beyond it (an end).
+fn limits_agree(s: &sweep::Sweep, i: usize) -> Result<(), TestCaseError> {
+    use sweep::{LimitKind, Side};
+    let total = s.points[i].values.map(|v| v.total).unwrap_or(f64::NAN);
+    for side in [Side::Below, Side::Above] {
+        let beyond: Vec<&sweep::SweepPoint> = match side {
+            Side::Below => s.points[..i].iter().rev().collect(),
+            Side::Above => s.points[i + 1..].iter().collect(),
+        };
+        let got = s.minimum_limits.iter().find(|l| l.side == side).map(|l| (l.by, l.x));
+        let mut want = None;
+        if beyond.is_empty() {
+            let end = if s.curve == sweep::Curve::Flux && side == Side::Above {
+                LimitKind::Checks
+            } else {
+                LimitKind::SweepRange
+            };
+            want = Some((end, s.points[i].x));
+        }
+        for p in beyond.iter().take_while(|p| !p.feasible) {
+            if p.values.is_some_and(|v| v.total < total) {
+                want = Some((if p.in_data { LimitKind::Checks } else { LimitKind::Data }, p.x));
+                break;
+            }
+        }
+        if want.is_none() && beyond.first().is_some_and(|p| !p.feasible && p.values.is_none()) {
+            want = Some((LimitKind::NoDesign, beyond[0].x));
+        }
+        prop_assert_eq!(got, want, "{:?} side of point {}", side, i);
+    }
+    Ok(())
+}
+
 #[test]
 fn sweeps_never_panic_and_points_are_sound() {
     let mut runner = proptest::test_runner::TestRunner::new(config(256));
@@ -496,6 +532,9 @@ fn sweeps_never_panic_and_points_are_sound() {
                         }
                         if let Some(i) = s.minimum {
                             prop_assert!(s.points[i].feasible);
+                            limits_agree(&s, i)?;
+                        } else {
+                            prop_assert!(s.minimum_limits.is_empty());
                         }
                     }
                     Err(e) => check_error(&e).map_err(TestCaseError::fail)?,
@@ -505,6 +544,9 @@ fn sweeps_never_panic_and_points_are_sound() {
                         let (bad, _) = non_finite(&s);
                         prop_assert!(bad.is_empty(), "non-finite in flux sweep: {:?}", bad);
                         prop_assert!(s.ratio_at_minimum.is_none_or(|x| x >= 0.0));
+                        if let Some(i) = s.minimum {
+                            limits_agree(&s, i)?;
+                        }
                     }
                     Err(e) => check_error(&e).map_err(TestCaseError::fail)?,
                 }

@@ -65,6 +65,15 @@ fn forward_minimum_lies_inside_the_material_data() {
         .filter_map(|p| p.values.map(|v| v.total))
         .fold(f64::INFINITY, f64::min);
     assert!(best_beyond < s.points[i].values.unwrap().total, "{best_beyond}");
+    // And the sweep says so: the minimum is where the data end, not an
+    // optimum, when the next point up has less loss outside the band.
+    let next = &s.points[i + 1];
+    if next.values.is_some_and(|v| v.total < s.points[i].values.unwrap().total) {
+        let l = s.minimum_limits.iter().find(|l| l.side == sweep::Side::Above).expect("a limit above");
+        assert_eq!(l.by, sweep::LimitKind::Data, "{l:?}");
+        assert!(l.x > BAND * f_hi * (1.0 - 1e-9) || !next.in_data, "{l:?}");
+        assert!(l.note.contains("data do not hold"), "{}", l.note);
+    }
 }
 
 #[test]

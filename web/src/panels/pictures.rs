@@ -65,6 +65,7 @@ const CSS: &str = "
 .pictures .corner-pick select { font:inherit; padding:.15rem .3rem; border:1px solid #9aa4b1; border-radius:4px; background:#fff; }
 .pictures figure.stale canvas { opacity:.55; }
 .pictures ul.sweep-fails { margin:.15rem 0 0 1.1rem; padding:0; font-size:.82em; color:#5b6675; }
+.pictures ul.sweep-limits { margin:.3rem 0 0 1.1rem; padding:0; font-size:.86em; color:#3d4654; }
 ";
 
 /// The sweep range: a decade each side of the design's frequency, within 1 kHz–10 MHz.
@@ -346,6 +347,16 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
             })
         })
     };
+    // What holds each curve's least loss where it is (the engine's notes).
+    let limits = move || {
+        let line = |what: &str, ls: &[sweep::MinimumLimit]| -> Vec<String> {
+            ls.iter().map(|l| format!("{what}: {}.", l.note)).collect()
+        };
+        let mut v = sweep.with(|s| s.as_ref().map(|s| line("Least loss, redesigned", &s.minimum_limits)).unwrap_or_default());
+        v.extend(wound.with(|s| s.as_ref().map(|s| line("Least loss, as wound", &s.minimum_limits)).unwrap_or_default()));
+        v.extend(envelope.with(|e| e.as_ref().map(|e| line("Least loss, best material", &e.minimum_limits)).unwrap_or_default()));
+        v
+    };
     let wound_min = move || wound.with(|w| w.as_ref().and_then(|w| w.minimum.and_then(|i| w.points.get(i)).map(|p| p.x)));
 
     let hidden = move || outcome.with(|o| o.is_err());
@@ -489,6 +500,9 @@ pub fn Pictures(outcome: Memo<Outcome>, design: Memo<Option<Design>>) -> impl In
                 " "
                 <button type="button" class="small" data-testid="envelope-csv" class:hidden=move || envelope.with(|e| e.is_none()) on:click=save_env_csv>"Best material, as CSV"</button>
                 <span data-testid="envelope-materials" data-materials=env_materials>{move || env_materials().map(|m| format!(" Best material by frequency: {m}.")).unwrap_or_default()}</span>
+                <ul class="sweep-limits" data-testid="sweep-limits">
+                    {move || limits().into_iter().map(|t| view! { <li>{t}</li> }).collect_view()}
+                </ul>
                 <ul class="sweep-fails" data-testid="sweep-fails">
                     {move || fails().into_iter().map(|f| view! {
                         <li data-from-hz=f.from data-to-hz=f.to>

@@ -325,6 +325,7 @@ mod tests {
                 pt(256e3, false, "Core temperature (mean surface)", true),
             ],
             minimum: Some(2),
+            minimum_limits: Vec::new(),
             ratio_at_minimum: None,
             two_over_beta: 1.0,
         };
@@ -371,6 +372,7 @@ mod tests {
             band: Some(band),
             points: vec![pt(18e3, true, "", true), pt(1e6, false, "x", true)],
             minimum: None,
+            minimum_limits: Vec::new(),
             ratio_at_minimum: None,
             two_over_beta: 1.0,
         };

@@ -46,6 +46,10 @@ pub struct Envelope {
     pub changes: Vec<usize>,
     /// Index of the feasible point with the least total loss.
     pub minimum: Option<usize>,
+    /// What holds the minimum where it is ([`super::Sweep::minimum_limits`];
+    /// a point where nothing is feasible has no loss to compare, so it
+    /// counts as one where no design can be built).
+    pub minimum_limits: Vec<super::MinimumLimit>,
     /// Every material and core tried.
     pub materials: Vec<String>,
     pub cores: Vec<String>,
@@ -240,15 +244,33 @@ impl EnvelopeSweep {
             .filter_map(|(i, p)| p.values.filter(|_| p.feasible).map(|v| (i, v.total)))
             .min_by(|a, b| a.1.total_cmp(&b.1))
             .map(|(i, _)| i);
+        let minimum_limits = limits_of(&points, minimum);
         Envelope {
             x_axis: super::FREQUENCY_AXIS,
             points,
             changes,
             minimum,
+            minimum_limits,
             materials: self.mat_names,
             cores: self.core_names,
         }
     }
+}
+
+/// [`super::limit::minimum_limits`] of the envelope's points (an infeasible
+/// one has no values: nothing passes there).
+fn limits_of(points: &[EnvelopePoint], minimum: Option<usize>) -> Vec<super::MinimumLimit> {
+    let probes: Vec<super::limit::Probe> = points
+        .iter()
+        .map(|p| super::limit::Probe {
+            x: p.x,
+            feasible: p.feasible,
+            in_data: p.in_data,
+            total: p.values.filter(|_| p.feasible).map(|v| v.total),
+            reason: &p.reason,
+        })
+        .collect();
+    super::limit::minimum_limits(&probes, minimum, super::FREQUENCY_AXIS, &super::limit::FREQUENCY_ENDS)
 }
 
 /// The envelope as CSV: one row per frequency, SI units in the header.
@@ -367,7 +389,16 @@ mod tests {
             .filter_map(|(i, p)| p.values.filter(|_| p.feasible).map(|v| (i, v.total)))
             .min_by(|a, b| a.1.total_cmp(&b.1))
             .map(|(i, _)| i);
-        Ok(Envelope { x_axis: crate::design::sweep::FREQUENCY_AXIS, points, changes, minimum, materials: mat_names, cores: core_names })
+        let minimum_limits = limits_of(&points, minimum);
+        Ok(Envelope {
+            x_axis: crate::design::sweep::FREQUENCY_AXIS,
+            points,
+            changes,
+            minimum,
+            minimum_limits,
+            materials: mat_names,
+            cores: core_names,
+        })
     }
 
 

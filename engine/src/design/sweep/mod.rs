@@ -13,11 +13,13 @@
 
 mod as_wound;
 mod envelope;
+mod limit;
 pub mod range;
 mod run;
 
 pub use as_wound::{as_wound, as_wound_design};
 pub use envelope::{envelope, envelope_csv, Envelope, EnvelopePoint, EnvelopeSweep};
+pub use limit::{LimitKind, MinimumLimit, Side};
 pub use range::{frequency_band, Band};
 pub use run::FrequencySweep;
 
@@ -97,6 +99,11 @@ pub struct Sweep {
     /// Index of the feasible point (checks pass, inside the material's
     /// data) with the least total loss.
     pub minimum: Option<usize>,
+    /// What holds the minimum where it is, side by side: the next point has
+    /// less loss but lies outside the data or fails a check, no design can
+    /// be built there, or the minimum is an end of the sweep (empty where
+    /// the loss rises on both sides; [`limit`]).
+    pub minimum_limits: Vec<MinimumLimit>,
     /// Pcore/Pcu at the minimum, and 2/β for comparison (flux sweep).
     pub ratio_at_minimum: Option<f64>,
     pub two_over_beta: f64,
@@ -153,8 +160,42 @@ fn landmarks(curve: Curve, points: Vec<SweepPoint>, material: &Material) -> Swee
         .filter(|v| v.copper > 0.0)
         .map(|v| v.core / v.copper);
     let x_axis = if curve == Curve::Flux { FLUX_AXIS } else { FREQUENCY_AXIS };
-    Sweep { curve, x_axis, material: material.name.clone(), band, points, minimum, ratio_at_minimum, two_over_beta: 2.0 / beta }
+    let probes: Vec<limit::Probe> = points
+        .iter()
+        .map(|p| limit::Probe {
+            x: p.x,
+            feasible: p.feasible,
+            in_data: p.in_data,
+            total: p.values.map(|v| v.total),
+            reason: &p.reason,
+        })
+        .collect();
+    let minimum_limits = limit::minimum_limits(&probes, minimum, x_axis, if curve == Curve::Flux { &FLUX_ENDS } else { &limit::FREQUENCY_ENDS });
+    Sweep {
+        curve,
+        x_axis,
+        material: material.name.clone(),
+        band,
+        points,
+        minimum,
+        minimum_limits,
+        ratio_at_minimum,
+        two_over_beta: 2.0 / beta,
+    }
 }
+
+/// The flux sweep's ends ([`flux`]): the most turns it tries below, and
+/// above the flux-limited count, where the Bpk limit stops it.
+const FLUX_ENDS: limit::Ends = [
+    (
+        LimitKind::SweepRange,
+        "the least loss is at the most turns swept (four times the flux-limited count, {x}): it may lie at still more",
+    ),
+    (
+        LimitKind::Checks,
+        "the least loss is at the fewest turns within the Bpk limit ({x}): the saturation limit sets it, not the loss",
+    ),
+];
 
 /// Log-spaced frequencies from `f_min` to `f_max`, `n` ≥ 2 points.
 pub fn log_space(f_min: f64, f_max: f64, n: usize) -> Result<Vec<f64>> {
