@@ -275,8 +275,9 @@ fn selection_copper(spec: &topology::Spec, material: &Material) -> Result<(f64, 
 /// and the copper loss of each corner the candidate holds is evaluated
 /// again with it (the core loss does not depend on the conductors). The
 /// conductors are chosen by their loss at the corner with the larger
-/// primary RMS current. A candidate whose every conductor is fixed, or for
-/// which no automatic set fits, is returned as it is. `keep`: a winding
+/// primary RMS current. A candidate whose every conductor is fixed with no
+/// interleaving or construction left to choose, or for which no set fits,
+/// is returned as it is. `keep`: a winding
 /// choice made by loss on other turns, whose automatic interleaving and
 /// construction are kept.
 pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Option<&WindingChoice>) -> Result<Candidate> {

@@ -612,6 +612,31 @@ mod tests {
     }
 
     #[test]
+    fn fixed_wires_still_leave_an_automatic_interleaving_to_loss() {
+        // Every conductor fixed (the wires on the shelf), the interleaving
+        // left automatic: the interleavings are still weighed by loss with
+        // those conductors, not the default order wound unweighed.
+        use crate::design::file::Interleave;
+        for d in [Design::demo_forward(), Design::demo_push_pull()] {
+            let r = evaluate(&d).unwrap();
+            let mut f = crate::design::sweep::as_wound_design(&d, &r).unwrap();
+            f.choices.interleave = Interleave::Auto;
+            let a = evaluate(&f).unwrap();
+            let wc = &a.winding_choice;
+            assert!(wc.automatic, "{}: {wc:?}", d.name);
+            assert!(wc.tried.len() >= 2 || d.name.contains("push-pull"), "{}: {wc:?}", d.name);
+            let least = wc.tried.iter().map(|t| t.copper_loss).fold(f64::INFINITY, f64::min);
+            let own = wc.tried.iter().find(|t| t.interleave == wc.interleave).unwrap().copper_loss;
+            assert_eq!(own, least, "{}: {wc:?}", d.name);
+            // The conductors are the ones fixed.
+            for w in &f.choices.wires {
+                let got = a.wires.iter().find(|x| x.winding == w.winding).unwrap();
+                assert!(got.reason.starts_with("fixed by the user"), "{}: {}", w.winding, got.reason);
+            }
+        }
+    }
+
+    #[test]
     fn flyback_gap_gives_the_inductance() {
         let r = evaluate(&Design::demo_flyback()).unwrap();
         let g = r.gap.as_ref().expect("a flyback is gapped");

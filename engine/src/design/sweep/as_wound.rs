@@ -72,8 +72,9 @@ pub fn as_wound_design(design: &Design, report: &Report) -> Result<Design> {
     d.choices.turns = TurnsRule::Primary { turns: report.turns.primary };
     d.choices.wires = fixed_wires(&report.stackup)?;
     // The interleaving chosen (by loss where automatic) is held too: with
-    // every conductor fixed the solver would otherwise wind its default
-    // order for "auto". A custom order is kept as the file gives it.
+    // "auto" the solver would weigh the interleavings again with the fixed
+    // conductors, and at another frequency might wind another. A custom
+    // order is kept as the file gives it.
     d.choices.interleave = serde_json::from_value::<Interleave>(serde_json::Value::String(
         report.winding_choice.interleave.clone(),
     ))

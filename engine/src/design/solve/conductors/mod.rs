@@ -215,10 +215,12 @@ fn choose_stackup_built(
 /// ([`search`]) for every winding the user left automatic, and the
 /// interleaving by loss when it is automatic, and where reinforced
 /// insulation is built its construction by loss when it is automatic.
-/// `None` when every conductor is fixed or no automatic set fits the
-/// window (the trials' allocation by area then stands). `keep`: a choice
-/// already made by loss on other turns of the same design, whose automatic
-/// interleaving and construction are kept.
+/// With every conductor fixed the search still runs where something is
+/// left to choose (an automatic interleaving or construction): it weighs
+/// them with the fixed conductors. `None` when nothing is left to choose
+/// or no set fits the window (the trials' allocation by area then stands).
+/// `keep`: a choice already made by loss on other turns of the same
+/// design, whose automatic interleaving and construction are kept.
 pub(super) fn search_stackup(
     design: &Design,
     core: &Core,
@@ -228,9 +230,6 @@ pub(super) fn search_stackup(
     keep: Option<&WindingChoice>,
 ) -> Result<Option<Chosen>> {
     let ch = &design.choices;
-    if !windings.iter().any(|w| !ch.wires.iter().any(|o| o.winding == w.0)) {
-        return Ok(None);
-    }
     let mut builts = constructions(design);
     if let Some(k) = keep.and_then(|k| k.construction) {
         let kept: Vec<Option<Construction>> = builts.iter().copied().filter(|&b| b == Some(k)).collect();
@@ -240,6 +239,10 @@ pub(super) fn search_stackup(
     }
     let interleave_as = keep.filter(|k| k.automatic).map(|k| k.interleave.as_str());
     let patterns = patterns_of(ch, windings, interleave_as)?;
+    let all_fixed = windings.iter().all(|w| ch.wires.iter().any(|o| o.winding == w.0));
+    if all_fixed && patterns.len() <= 1 && builts.len() <= 1 {
+        return Ok(None);
+    }
     // Each construction's frame and windings; one that cannot be built
     // (margins leaving no breadth, say) is left out unless none can.
     let mut first_error = None;
@@ -416,7 +419,7 @@ pub(super) fn pattern_name(p: &Pattern) -> &'static str {
 
 /// The conductors by window allocation (step 5 of the solver's module
 /// docs): every turn-count trial's, and the design's when every conductor
-/// is fixed or no least-loss set fits.
+/// is fixed with nothing else left to choose, or no least-loss set fits.
 #[allow(clippy::too_many_arguments)]
 fn by_area(
     design: &Design,
