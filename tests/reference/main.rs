@@ -7,6 +7,7 @@ mod cores;
 mod design;
 mod inductor;
 mod materials;
+mod stackup;
 mod sweep;
 mod topologies;
 mod transformer;
