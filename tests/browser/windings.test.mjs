@@ -72,6 +72,16 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   // The demo interleaves by loss: its secondary split around the primary (S-P-S), the reset outside.
   assert.equal(start.want.winding_choice.interleave, 'split_secondaries');
   assert.equal(start.want.stackup.items.filter((i) => i.Section?.winding === 'secondary 1').length, 2);
+  // The line says what was weighed and at which turns: chosen at the flux
+  // limit's turns, kept for the design's (the engine's winding_choice.tried).
+  const why = await page.textContent('[data-testid="interleave-choice"]');
+  const np = start.want.turns.primary;
+  for (const t of start.want.winding_choice.tried) {
+    const at = t.primary_turns === np ? '' : ` at Np = ${t.primary_turns}`;
+    assert.ok(why.includes(`${t.interleave.replace(/_/g, ' ')} `) && (at === '' || why.includes(at)), `${JSON.stringify(t)} in "${why}"`);
+  }
+  assert.ok(start.want.winding_choice.tried.some((t) => t.primary_turns !== np), 'the demo kept its interleaving from the flux limit');
+  assert.ok(why.includes(`kept for Np = ${np}`), why);
 
   // Interleaving: Auto → Sequential with the arrow key on the drop-down.
   const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));

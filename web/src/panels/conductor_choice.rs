@@ -24,20 +24,31 @@ const CSS: &str = r#"
 "#;
 
 /// The interleaving line: the one used and, when chosen by loss, the
-/// copper loss of each one the harmonic model evaluated.
+/// copper loss of each one the harmonic model evaluated, with the primary
+/// turns it was weighed at where they are not the design's (chosen at the
+/// flux limit's turns, then kept).
 fn interleave_line(r: &Report) -> String {
     let c = &r.winding_choice;
     let name = |s: &str| s.replace('_', " ");
     if !c.automatic || c.tried.is_empty() {
         return format!("Interleaving: {} (as set).", name(&c.interleave));
     }
+    let np = r.turns.primary;
     let tried: Vec<String> = c
         .tried
         .iter()
-        .map(|t| format!("{} {}", name(&t.interleave), notation::format(t.copper_loss, "W", 3)))
+        .map(|t| {
+            let at = if t.primary_turns == np { String::new() } else { format!(" at Np = {}", t.primary_turns) };
+            format!("{} {}{at}", name(&t.interleave), notation::format(t.copper_loss, "W", 3))
+        })
         .collect();
+    let kept = if c.tried.iter().any(|t| t.primary_turns != np) {
+        format!("; chosen at the flux limit's turns and kept for Np = {np}")
+    } else {
+        String::new()
+    };
     format!(
-        "Interleaving: {}, least copper loss of those the harmonic model evaluated ({}).",
+        "Interleaving: {}, least copper loss of those the harmonic model evaluated ({}){kept}.",
         name(&c.interleave),
         tried.join(", ")
     )

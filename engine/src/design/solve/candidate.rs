@@ -308,6 +308,9 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Optio
     c.fit = fit;
     c.wires = wires;
     c.winding_choice = winding_choice;
+    for t in &mut c.winding_choice.tried {
+        t.primary_turns = c.turns.primary;
+    }
     corner_copper(cx, &mut c)?;
     Ok(c)
 }

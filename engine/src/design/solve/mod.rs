@@ -238,7 +238,11 @@ pub(super) fn solve(
                             Conductors::ByArea => build(&cx, c.turns.primary),
                         };
                         let both = rebuilt.and_then(|c| search(c, Some(&chosen)));
-                        if let Some(c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
+                        if let Some(mut c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
+                            // The report shows where the interleaving was
+                            // chosen: the first's trials, then the kept one's.
+                            let kept = std::mem::take(&mut c.winding_choice.tried);
+                            c.winding_choice.tried = chosen.tried.iter().cloned().chain(kept).collect();
                             best = c;
                             reason = format!(
                                 "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
@@ -625,6 +629,8 @@ mod tests {
             let wc = &a.winding_choice;
             assert!(wc.automatic, "{}: {wc:?}", d.name);
             assert!(wc.tried.len() >= 2 || d.name.contains("push-pull"), "{}: {wc:?}", d.name);
+            // Weighed at the design's turns (they are fixed here).
+            assert!(wc.tried.iter().all(|t| t.primary_turns == a.turns.primary), "{}: {wc:?}", d.name);
             let least = wc.tried.iter().map(|t| t.copper_loss).fold(f64::INFINITY, f64::min);
             let own = wc.tried.iter().find(|t| t.interleave == wc.interleave).unwrap().copper_loss;
             assert_eq!(own, least, "{}: {wc:?}", d.name);
@@ -634,6 +640,26 @@ mod tests {
                 assert!(got.reason.starts_with("fixed by the user"), "{}: {}", w.winding, got.reason);
             }
         }
+    }
+
+    #[test]
+    fn the_interleavings_weighed_say_at_which_turns() {
+        // The forward demo's least-loss turns are above the flux limit's:
+        // its interleaving was chosen by loss at the flux limit's turns and
+        // kept (solver step 3). The report lists those trials with their
+        // turns, then the kept one at the design's, so the choice shown is
+        // the comparison that was made.
+        let r = evaluate(&Design::demo_forward()).unwrap();
+        let wc = &r.winding_choice;
+        let np = r.turns.primary;
+        let first: Vec<_> = wc.tried.iter().filter(|t| t.primary_turns != np).collect();
+        let last: Vec<_> = wc.tried.iter().filter(|t| t.primary_turns == np).collect();
+        assert!(first.len() >= 2, "{wc:?}");
+        assert!(first.iter().all(|t| t.primary_turns < np && t.primary_turns == first[0].primary_turns), "{wc:?}");
+        let least = first.iter().min_by(|a, b| a.copper_loss.total_cmp(&b.copper_loss)).unwrap();
+        assert_eq!(least.interleave, wc.interleave, "{wc:?}");
+        assert_eq!(last.len(), 1, "{wc:?}");
+        assert_eq!(last[0].interleave, wc.interleave);
     }
 
     #[test]

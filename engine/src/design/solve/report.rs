@@ -68,6 +68,10 @@ pub struct PatternTrial {
     /// Copper loss with its least-loss conductors, W (selection temperature
     /// and corner).
     pub copper_loss: f64,
+    /// The primary turns it was weighed at: the design's, or the flux
+    /// limit's where the interleaving was chosen there and then kept for
+    /// the least-loss turn count (solver step 3).
+    pub primary_turns: u32,
 }
 
 /// How the windings were ordered.
@@ -81,7 +85,9 @@ pub struct WindingChoice {
     /// ("triple_insulated", "margin_wound"; chosen by loss when
     /// `choices.insulation.construction` = auto), else `None`.
     pub construction: Option<Construction>,
-    /// The interleavings (and constructions) evaluated.
+    /// The interleavings (and constructions) evaluated, each at the primary
+    /// turns it was weighed at (first those of the flux-limited turns where
+    /// the design has more).
     pub tried: Vec<PatternTrial>,
 }
 

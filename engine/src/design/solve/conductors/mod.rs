@@ -400,6 +400,8 @@ fn summarise(design: &Design, windings: &[(String, u32, f64)], built: Option<Con
                 interleave: pattern_name(p).into(),
                 construction: built,
                 copper_loss: *w,
+                // Set by the candidate that holds the choice (it knows its turns).
+                primary_turns: 0,
             })
             .collect(),
     };
