@@ -59,6 +59,7 @@ build_page() {
   need_wasm_target
   local profile="${MAGWRIGHT_WASM_PROFILE:-wasm}"
   local target="${CARGO_TARGET_DIR:-$ROOT/target}"
+  case "$target" in /*) ;; *) target="$ROOT/$target" ;; esac
   say "building the web client (wasm, profile $profile)"
   cargo build --quiet -p magwright-web --target wasm32-unknown-unknown --profile "$profile"
   say "bundling dist/magwright.html"
