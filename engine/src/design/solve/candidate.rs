@@ -299,7 +299,7 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Optio
     };
     let names = winding_names(waves);
     let Some((stackup, fit, wires, winding_choice)) =
-        search_stackup(cx.design, cx.core, &names, delta, &setting, keep)?
+        search_stackup(cx.design, cx.core, &names, delta, &setting, keep, c.turns.primary)?
     else {
         ensure_copper(cx, &mut c)?;
         return Ok(c);
@@ -308,9 +308,6 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Optio
     c.fit = fit;
     c.wires = wires;
     c.winding_choice = winding_choice;
-    for t in &mut c.winding_choice.tried {
-        t.primary_turns = c.turns.primary;
-    }
     corner_copper(cx, &mut c)?;
     Ok(c)
 }

@@ -260,16 +260,7 @@ impl EnvelopeSweep {
 /// [`super::limit::minimum_limits`] of the envelope's points (an infeasible
 /// one has no values: nothing passes there).
 fn limits_of(points: &[EnvelopePoint], minimum: Option<usize>) -> Vec<super::MinimumLimit> {
-    let probes: Vec<super::limit::Probe> = points
-        .iter()
-        .map(|p| super::limit::Probe {
-            x: p.x,
-            feasible: p.feasible,
-            in_data: p.in_data,
-            total: p.values.filter(|_| p.feasible).map(|v| v.total),
-            reason: &p.reason,
-        })
-        .collect();
+    let probes: Vec<super::limit::Probe> = points.iter().map(super::limit::Probe::from).collect();
     super::limit::minimum_limits(&probes, minimum, super::FREQUENCY_AXIS, &super::limit::FREQUENCY_ENDS)
 }
 

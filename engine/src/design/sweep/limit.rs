@@ -70,6 +70,19 @@ pub(super) struct Probe<'a> {
     pub reason: &'a str,
 }
 
+impl<'a> From<&'a super::SweepPoint> for Probe<'a> {
+    fn from(p: &'a super::SweepPoint) -> Self {
+        Probe { x: p.x, feasible: p.feasible, in_data: p.in_data, total: p.values.map(|v| v.total), reason: &p.reason }
+    }
+}
+
+/// An envelope point has values only where something passes.
+impl<'a> From<&'a super::EnvelopePoint> for Probe<'a> {
+    fn from(p: &'a super::EnvelopePoint) -> Self {
+        Probe { x: p.x, feasible: p.feasible, in_data: p.in_data, total: p.values.map(|v| v.total), reason: &p.reason }
+    }
+}
+
 /// What the sweep's ends mean: for the point at each end (below, above), the
 /// kind of limit it is and the note, `{x}` standing for the point's x.
 pub(super) type Ends = [(LimitKind, &'static str); 2];

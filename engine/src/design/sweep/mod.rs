@@ -160,16 +160,7 @@ fn landmarks(curve: Curve, points: Vec<SweepPoint>, material: &Material) -> Swee
         .filter(|v| v.copper > 0.0)
         .map(|v| v.core / v.copper);
     let x_axis = if curve == Curve::Flux { FLUX_AXIS } else { FREQUENCY_AXIS };
-    let probes: Vec<limit::Probe> = points
-        .iter()
-        .map(|p| limit::Probe {
-            x: p.x,
-            feasible: p.feasible,
-            in_data: p.in_data,
-            total: p.values.map(|v| v.total),
-            reason: &p.reason,
-        })
-        .collect();
+    let probes: Vec<limit::Probe> = points.iter().map(limit::Probe::from).collect();
     let minimum_limits = limit::minimum_limits(&probes, minimum, x_axis, if curve == Curve::Flux { &FLUX_ENDS } else { &limit::FREQUENCY_ENDS });
     Sweep {
         curve,

@@ -220,7 +220,8 @@ fn choose_stackup_built(
 /// them with the fixed conductors. `None` when nothing is left to choose
 /// or no set fits the window (the trials' allocation by area then stands).
 /// `keep`: a choice already made by loss on other turns of the same
-/// design, whose automatic interleaving and construction are kept.
+/// design, whose automatic interleaving and construction are kept;
+/// `primary_turns`: the design's, which the report gives each trial.
 pub(super) fn search_stackup(
     design: &Design,
     core: &Core,
@@ -228,6 +229,7 @@ pub(super) fn search_stackup(
     delta: f64,
     loss: &LossSetting,
     keep: Option<&WindingChoice>,
+    primary_turns: u32,
 ) -> Result<Option<Chosen>> {
     let ch = &design.choices;
     let mut builts = constructions(design);
@@ -272,7 +274,7 @@ pub(super) fn search_stackup(
         }
         let Some(found) = search::decide(&setting(p), &p.needs, sc) else { continue };
         let copper = found.copper;
-        let chosen = summarise(design, windings, p.frame.built, found);
+        let chosen = summarise(design, windings, p.frame.built, primary_turns, found);
         tried.extend(chosen.3.tried.iter().cloned());
         if best.as_ref().is_none_or(|b| copper < b.0) {
             best = Some((copper, chosen));
@@ -365,8 +367,14 @@ fn prepare<'a>(
 }
 
 /// What the search found, as the report's stack-up, wire table and
-/// winding choice.
-fn summarise(design: &Design, windings: &[(String, u32, f64)], built: Option<Construction>, found: search::Found) -> Chosen {
+/// winding choice (its trials weighed at `primary_turns`).
+fn summarise(
+    design: &Design,
+    windings: &[(String, u32, f64)],
+    built: Option<Construction>,
+    primary_turns: u32,
+    found: search::Found,
+) -> Chosen {
     let ch = &design.choices;
     let automatic = |name: &str| !ch.wires.iter().any(|o| o.winding == name);
     let wires = windings
@@ -400,8 +408,7 @@ fn summarise(design: &Design, windings: &[(String, u32, f64)], built: Option<Con
                 interleave: pattern_name(p).into(),
                 construction: built,
                 copper_loss: *w,
-                // Set by the candidate that holds the choice (it knows its turns).
-                primary_turns: 0,
+                primary_turns,
             })
             .collect(),
     };
