@@ -4,7 +4,8 @@
 //! quick look while working on the sweep and a target for `perf record`
 //! (the full report is `scripts/bench`).
 //!
-//! Run with `cargo bench -p magwright-engine --bench sweep [-- DEMO] [--seconds S]`.
+//! Run with `cargo bench -p magwright-engine --bench sweep [-- DEMO] [--seconds S] [--only KIND]`
+//! (KIND: redesign, as-wound or envelope; all three when not given).
 
 use magwright_engine::design::{sweep, Design};
 use std::hint::black_box;
@@ -19,7 +20,11 @@ fn main() {
         .and_then(|v| v.parse::<f64>().ok())
         .filter(|v| v.is_finite() && *v > 0.0)
         .unwrap_or(1.0);
-    let only: Vec<&String> = args.iter().filter(|a| !a.starts_with("--") && a.parse::<f64>().is_err()).collect();
+    let kind = args.iter().position(|a| a == "--only").and_then(|i| args.get(i + 1)).cloned();
+    let only: Vec<&String> = args
+        .iter()
+        .filter(|a| !a.starts_with("--") && a.parse::<f64>().is_err() && Some(*a) != kind.as_ref())
+        .collect();
     for (name, d) in [
         ("forward", Design::demo_forward()),
         ("flyback", Design::demo_flyback()),
@@ -35,6 +40,9 @@ fn main() {
             ("envelope", |d| sweep::envelope(d, 20e3, 1e6, 200, false).ok().map(|s| s.points.len() as f64)),
         ];
         for (what, run) in runs {
+            if kind.as_deref().is_some_and(|k| k != what) {
+                continue;
+            }
             let t0 = Instant::now();
             let mut calls = 0u32;
             let mut best = f64::INFINITY;

@@ -69,19 +69,20 @@ test('interleaving and a fixed conductor, by keyboard, give the CLI\'s losses; t
   await page.waitForSelector('[data-testid="windings-table"]');
   const start = await matchesCli(page, 'demo');
   assert.equal(start.design.choices.interleave, 'auto');
-  // The demo interleaves by loss: its secondary split around the primary (S-P-S), the reset outside.
-  assert.equal(start.want.winding_choice.interleave, 'split_secondaries');
-  assert.equal(start.want.stackup.items.filter((i) => i.Section?.winding === 'secondary 1').length, 2);
-  // The line says what was weighed and at which turns: chosen at the flux
-  // limit's turns, kept for the design's (the engine's winding_choice.tried).
+  // The demo interleaves by loss: its primary split around the secondary (P-S-P), the reset outside.
+  assert.equal(start.want.winding_choice.interleave, 'split_primary');
+  assert.equal(start.want.stackup.items.filter((i) => i.Section?.winding === 'primary').length, 2);
+  // The line says what was weighed and at which turns: at the flux limit's
+  // turns, then the close ones again at the design's (the engine's
+  // winding_choice.tried).
   const why = await page.textContent('[data-testid="interleave-choice"]');
   const np = start.want.turns.primary;
   for (const t of start.want.winding_choice.tried) {
     const at = t.primary_turns === np ? '' : ` at Np = ${t.primary_turns}`;
     assert.ok(why.includes(`${t.interleave.replace(/_/g, ' ')} `) && (at === '' || why.includes(at)), `${JSON.stringify(t)} in "${why}"`);
   }
-  assert.ok(start.want.winding_choice.tried.some((t) => t.primary_turns !== np), 'the demo kept its interleaving from the flux limit');
-  assert.ok(why.includes(`kept for Np = ${np}`), why);
+  assert.ok(start.want.winding_choice.tried.some((t) => t.primary_turns !== np), 'the demo weighed its interleavings at the flux limit first');
+  assert.ok(why.includes(`again at Np = ${np}`), why);
 
   // Interleaving: Auto → Sequential with the arrow key on the drop-down.
   const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));
@@ -241,14 +242,14 @@ test('results at a glance: verdict, failing checks first and red, tight marked',
   await context.close();
 });
 
-test('a custom order by keyboard: seeded from the stack-up as wound, the primary moved first, the CLI\'s losses', async () => {
+test('a custom order by keyboard: seeded from the stack-up as wound, the secondary moved first, the CLI\'s losses', async () => {
   const { context, page, requests, errors } = await openPage(browser);
   await page.waitForSelector('[data-testid="windings-table"]');
   const start = await matchesCli(page, 'demo');
   const wound = (want) => want.stackup.items.filter((i) => i.Section).map((i) => i.Section.winding);
   const order = (d) => d.choices.section_order.map((s) => ({ winding: s.winding, turns: s.turns ?? null }));
   const asWound = wound(start.want);
-  assert.deepEqual(asWound, ['secondary 1', 'primary', 'secondary 1', 'reset'], 'the demo winds S-P-S-R');
+  assert.deepEqual(asWound, ['primary', 'secondary 1', 'primary', 'reset'], 'the demo winds P-S-P-R');
   assert.equal(await page.isVisible('[data-testid="order-editor"]'), false, 'no order editor until Custom');
 
   // Custom: the list starts as the stack-up was wound, so nothing changes.
@@ -263,17 +264,17 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the primary
     const now = seeded.want.operating.copper.windings.find((x) => x.name === w.name);
     assert.ok(close(now.total_loss, w.total_loss, 1e-12), `seeding changes nothing: ${w.name}`);
   }
-  assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move primary section 1 up');
-  assert.equal(await page.getAttribute('#order-split-2', 'aria-label'), 'Split secondary 1 section 2 in two');
+  assert.equal(await page.getAttribute('#order-up-1', 'aria-label'), 'Move secondary 1 section 1 up');
+  assert.equal(await page.getAttribute('#order-split-2', 'aria-label'), 'Split primary section 2 in two');
 
-  // The primary first (P-S-S-R) with the keyboard; the focus stays on it.
+  // The secondary first (S-P-P-R) with the keyboard; the focus stays on it.
   const fr0 = Number(await page.getAttribute('[data-testid="fr-primary"]', 'data-si'));
   await page.focus('#order-up-1');
   await page.keyboard.press('Enter');
   await changed(page, 'fr-primary', fr0);
-  const moved = await matchesCli(page, 'primary first');
+  const moved = await matchesCli(page, 'secondary first');
   assert.equal(moved.design.choices.interleave, 'custom');
-  const want = ['primary', 'secondary 1', 'secondary 1', 'reset'];
+  const want = ['secondary 1', 'primary', 'primary', 'reset'];
   assert.deepEqual(order(moved.design), want.map((w) => ({ winding: w, turns: null })));
   assert.deepEqual(wound(moved.want), want, 'the engine winds the order given');
   const shown = await page.$$eval('[data-testid="stackup-order"] li.section .what', (e) => e.map((x) => x.textContent));
@@ -293,7 +294,7 @@ test('a custom order by keyboard: seeded from the stack-up as wound, the primary
   await page.waitForSelector('[data-testid="windings-table"]');
   assert.equal(await page.isVisible('[data-testid="order-error"]'), false);
   const healed = await matchesCli(page, 'reset added outside');
-  assert.deepEqual(wound(healed.want), ['primary', 'secondary 1', 'secondary 1', 'reset']);
+  assert.deepEqual(wound(healed.want), ['secondary 1', 'primary', 'primary', 'reset']);
   assert.deepEqual(requests, []);
   assert.deepEqual(errors, []);
   await context.close();

@@ -11,7 +11,7 @@
 use super::windings::{css_colour, mm, slug};
 use crate::form::Report;
 use leptos::prelude::*;
-use magwright_engine::design::solve::ConductorTrial;
+use magwright_engine::design::solve::{ConductorTrial, REWEIGH_BAND};
 use magwright_engine::notation;
 
 const CSS: &str = r#"
@@ -25,8 +25,9 @@ const CSS: &str = r#"
 
 /// The interleaving line: the one used and, when chosen by loss, the
 /// copper loss of each one the harmonic model evaluated, with the primary
-/// turns it was weighed at where they are not the design's (chosen at the
-/// flux limit's turns, then kept).
+/// turns it was weighed at where they are not the design's (weighed at the
+/// flux limit's turns, then the close ones again at the design's: solver
+/// step 3, `REWEIGH_BAND`).
 fn interleave_line(r: &Report) -> String {
     let c = &r.winding_choice;
     let name = |s: &str| s.replace('_', " ");
@@ -43,7 +44,8 @@ fn interleave_line(r: &Report) -> String {
         })
         .collect();
     let kept = if c.tried.iter().any(|t| t.primary_turns != np) {
-        format!("; chosen at the flux limit's turns and kept for Np = {np}")
+        let band = (REWEIGH_BAND - 1.0) * 100.0;
+        format!("; weighed at the flux limit's turns, then those within {band:.0} % of the least again at Np = {np}")
     } else {
         String::new()
     };

@@ -19,7 +19,9 @@
 //!    The first design has its least-loss conductors (step 5); the trials
 //!    keep the conductors allocated by area, their copper loss scaled by
 //!    what the search saved on the first, and the trial chosen is searched
-//!    in its turn (keeping the first's interleaving) before it is compared.
+//!    in its turn before it is compared, once for each interleaving and
+//!    construction within 5 % of the least at the flux limit's turns
+//!    (`least_loss`: the ranking can change with the turns).
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
@@ -57,6 +59,8 @@ mod choke;
 mod conductors;
 pub(crate) use conductors::fixed_conductor;
 mod finish;
+mod least_loss;
+pub use least_loss::REWEIGH_BAND;
 pub mod mode;
 mod report;
 mod warnings;
@@ -199,59 +203,7 @@ pub(super) fn solve(
     let mut best = search(first, None)?;
     let k = if area_copper > 0.0 { best.selection_copper() / area_copper } else { 1.0 };
     if ch.turns == TurnsRule::LeastLoss {
-        let (pc, pcu) = (best.selection_core(), best.selection_copper());
-        let beta = material.steinmetz.beta;
-        if pc > 0.0 && pcu > 0.0 {
-            // ΔB ∝ 1/N: N* = N·(β·Pcore/(2·Pcu))^(1/(β+2)).
-            let scale = (beta * pc / (2.0 * pcu)).powf(1.0 / (beta + 2.0));
-            let np0 = best.turns.primary;
-            let target = np0 as f64 * scale;
-            if target > np0 as f64 + 0.5 {
-                let lo = (target.floor() as u32).max(np0 + 1);
-                let corner = Some(best.worst_corner().corner);
-                let mut pick: Option<(f64, Candidate)> = None;
-                for np in [lo, lo + 1] {
-                    if np > topology::MAX_TURNS {
-                        continue;
-                    }
-                    if let Ok(c) = build_corners(&cx, np, corner) {
-                        let w = c.worst_corner();
-                        let estimate = w.core.watts + k * w.copper.total;
-                        if pick.as_ref().is_none_or(|p| estimate < p.0) {
-                            pick = Some((estimate, c));
-                        }
-                    }
-                }
-                if let Some((estimate, c)) = pick {
-                    if estimate < best.selection_total() {
-                        // The interleaving and construction chosen on the
-                        // first design are kept.
-                        let chosen = best.winding_choice.clone();
-                        // Both corners, as the design is then judged (the
-                        // trial was built at the first's worst corner only).
-                        // A trial that cannot be built at both corners is
-                        // not taken: it would be judged at one corner only.
-                        // (The search replaces the allocation by area, so
-                        // its copper is evaluated only where the search keeps it.)
-                        let rebuilt = match conductors {
-                            Conductors::LeastLoss => build_for_search(&cx, c.turns.primary),
-                            Conductors::ByArea => build(&cx, c.turns.primary),
-                        };
-                        let both = rebuilt.and_then(|c| search(c, Some(&chosen)));
-                        if let Some(mut c) = both.ok().filter(|c| c.selection_total() < best.selection_total()) {
-                            // The report shows where the interleaving was
-                            // chosen: the first's trials, then the kept one's.
-                            let kept = std::mem::take(&mut c.winding_choice.tried);
-                            c.winding_choice.tried = chosen.tried.iter().cloned().chain(kept).collect();
-                            best = c;
-                            reason = format!(
-                                "least loss: more turns than the flux limit's {np0} so Pcore/Pcu ≈ 2/β (β = {beta:.2})"
-                            );
-                        }
-                    }
-                }
-            }
-        }
+        best = least_loss::least_loss_turns(&cx, best, k, conductors, &mut reason)?;
     }
     finish::finish(design, core, material, prep, best, n, b_limit, reason)
 }
@@ -640,26 +592,6 @@ mod tests {
                 assert!(got.reason.starts_with("fixed by the user"), "{}: {}", w.winding, got.reason);
             }
         }
-    }
-
-    #[test]
-    fn the_interleavings_weighed_say_at_which_turns() {
-        // The forward demo's least-loss turns are above the flux limit's:
-        // its interleaving was chosen by loss at the flux limit's turns and
-        // kept (solver step 3). The report lists those trials with their
-        // turns, then the kept one at the design's, so the choice shown is
-        // the comparison that was made.
-        let r = evaluate(&Design::demo_forward()).unwrap();
-        let wc = &r.winding_choice;
-        let np = r.turns.primary;
-        let first: Vec<_> = wc.tried.iter().filter(|t| t.primary_turns != np).collect();
-        let last: Vec<_> = wc.tried.iter().filter(|t| t.primary_turns == np).collect();
-        assert!(first.len() >= 2, "{wc:?}");
-        assert!(first.iter().all(|t| t.primary_turns < np && t.primary_turns == first[0].primary_turns), "{wc:?}");
-        let least = first.iter().min_by(|a, b| a.copper_loss.total_cmp(&b.copper_loss)).unwrap();
-        assert_eq!(least.interleave, wc.interleave, "{wc:?}");
-        assert_eq!(last.len(), 1, "{wc:?}");
-        assert_eq!(last[0].interleave, wc.interleave);
     }
 
     #[test]

@@ -69,8 +69,9 @@ pub struct PatternTrial {
     /// and corner).
     pub copper_loss: f64,
     /// The primary turns it was weighed at: the design's, or the flux
-    /// limit's where the interleaving was chosen there and then kept for
-    /// the least-loss turn count (solver step 3).
+    /// limit's where the least-loss turns are more (solver step 3: the
+    /// interleavings are weighed there first, then those within
+    /// `REWEIGH_BAND` of the least again at the design's turns).
     pub primary_turns: u32,
 }
 
