@@ -18,7 +18,8 @@
 //! other layer counts). Every interleaving and construction whose copper
 //! loss at the flux limit's turns was within [`REWEIGH_BAND`] of the least
 //! is searched again at the new turns, each held in its turn, and the one
-//! of least total loss is taken (ties to the first choice). Those further
+//! of least total loss is taken (ties to the first choice); the report
+//! lists each with the copper loss of the design it gave. Those further
 //! apart are not: re-weighing every one would cost a full search each for
 //! rankings the harmonic model has already separated (common practice, no
 //! source: the band is our choice).
@@ -102,6 +103,12 @@ fn reweighed(cx: &Ctx, c: Candidate, first: &WindingChoice) -> Result<Candidate>
     for keep in rivals(first) {
         match with_least_loss_conductors(cx, c.clone(), Some(&keep)) {
             Ok(mut r) => {
+                // Each is listed with the copper of the design it gave (its
+                // conductors after the whole search), the loss compared.
+                let copper = r.selection_copper();
+                for t in &mut r.winding_choice.tried {
+                    t.copper_loss = copper;
+                }
                 tried.append(&mut r.winding_choice.tried);
                 if best.as_ref().is_none_or(|b| r.selection_total() < b.selection_total()) {
                     best = Some(r);
@@ -193,6 +200,10 @@ mod tests {
         assert_eq!(again.len(), close.len(), "{wc:?}");
         assert!(close.iter().all(|c| again.contains(c)), "{wc:?}");
         assert!(again.contains(&wc.interleave.as_str()), "{wc:?}");
+        // The one chosen lists the least copper of those weighed again (the
+        // same turns, so the same core loss: the comparison made).
+        let chosen = last.iter().find(|t| t.interleave == wc.interleave).unwrap();
+        assert!(last.iter().all(|t| chosen.copper_loss <= t.copper_loss), "{wc:?}");
     }
 
     #[test]

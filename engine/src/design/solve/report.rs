@@ -66,7 +66,8 @@ pub struct PatternTrial {
     /// is built ("triple_insulated", "margin_wound"), else `None`.
     pub construction: Option<Construction>,
     /// Copper loss with its least-loss conductors, W (selection temperature
-    /// and corner).
+    /// and corner; where weighed again at the least-loss turns, the copper
+    /// of the design it gave, at its worse corner).
     pub copper_loss: f64,
     /// The primary turns it was weighed at: the design's, or the flux
     /// limit's where the least-loss turns are more (solver step 3: the
