@@ -5,7 +5,8 @@
 //! the others as chosen, replaces that winding's conductor by every one of
 //! a wide scan: foil 0.02–1.00 mm in 0.01 mm steps (not on a ring core,
 //! not where the winding is triple-insulated), round wire AWG 10–44 with 1
-//! to 6 in hand (triple-insulated where the solver used it), and litz of
+//! to 6 in hand (triple-insulated where the solver used it, then AWG 18–44:
+//! the stock range the solver keeps to, `TIW_COARSEST_AWG`), and litz of
 //! every strand gauge × count of the engine's table. Each stack-up that
 //! fits within the solver's build share (90 % of the bobbin height, the
 //! rule the search states) is fitted and its copper loss computed by the
@@ -15,7 +16,7 @@
 //! optimality check of the search against brute force under one loss
 //! model, not a reference against a published source.
 
-use magwright_engine::design::solve::{currents_of, evaluate, Report};
+use magwright_engine::design::solve::{currents_of, evaluate, Report, TIW_COARSEST_AWG};
 use magwright_engine::design::Design;
 use magwright_engine::winding::conductor::{table_litz, Conductor, Grade, LITZ_STRAND_AWG, LITZ_STRAND_COUNTS};
 use magwright_engine::winding::fit::fit;
@@ -77,7 +78,8 @@ fn automatic_conductors_are_within_ten_percent_of_a_plain_scan() {
                     scan.push((Conductor::foil(k as f64 * 1e-5, r.fit.sections[0].breadth).unwrap(), 1));
                 }
             }
-            for g in 10..=44 {
+            let coarsest = if tiw { TIW_COARSEST_AWG } else { 10 };
+            for g in coarsest..=44 {
                 for p in 1..=6 {
                     let c = if tiw {
                         let dd = awg_diameter(g).unwrap();
@@ -113,4 +115,31 @@ fn automatic_conductors_are_within_ten_percent_of_a_plain_scan() {
         eprintln!("{}: automatic {auto:.4} W, best of the scan {best:.4} W ({best_what})", d.name);
         assert!(auto <= 1.10 * best, "{}: automatic {auto} W, scan finds {best} W with {best_what}", d.name);
     }
+}
+
+/// Every automatic triple-insulated conductor of the shared random sample
+/// (tests/property/invariants.rs) is within the stock range the solver
+/// keeps to: AWG 18 (1.02 mm bare) and finer, more copper as several in
+/// hand (`TIW_COARSEST_AWG`; the range from memory). Wires the user fixed
+/// are wound as given and not counted.
+#[test]
+fn automatic_triple_insulated_wire_is_within_the_stock_range() {
+    let s = crate::invariants::sample();
+    let limit = awg_diameter(TIW_COARSEST_AWG).unwrap() * (1.0 + 1e-12);
+    let mut seen = 0;
+    let mut fails = Vec::new();
+    for (d, r) in &s.accepted {
+        for (_, sec) in r.stackup.sections() {
+            let Conductor::TripleInsulated(w) = &sec.conductor else { continue };
+            if d.choices.wires.iter().any(|o| o.winding == sec.winding) {
+                continue;
+            }
+            seen += 1;
+            if w.bare_diameter > limit {
+                fails.push(format!("{}: {} bare {:.3} mm", d.name, sec.winding, w.bare_diameter * 1e3));
+            }
+        }
+    }
+    assert!(seen >= 50, "only {seen} automatic triple-insulated sections in the sample");
+    assert!(fails.is_empty(), "{} of {seen} above AWG {TIW_COARSEST_AWG}: {:?}", fails.len(), &fails[..fails.len().min(5)]);
 }

@@ -76,7 +76,7 @@ use candidate::*;
 pub use candidate::{core_sense, currents_of};
 pub use choke::{choke_design, choke_spec};
 use conductors::*;
-pub use conductors::{ConductorKind, ConductorTrial, SIMPLER_SHARE};
+pub use conductors::{ConductorKind, ConductorTrial, SIMPLER_SHARE, TIW_COARSEST_AWG};
 pub use report::*;
 
 /// Residual gap of a mated, ungapped core pair, m (common practice, from

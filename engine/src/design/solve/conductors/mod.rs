@@ -607,12 +607,14 @@ pub(super) fn auto_conductor(
     max_parallel: u32,
 ) -> Result<(Conductor, u32)> {
     let d_need = (4.0 * area / std::f64::consts::PI).sqrt();
-    let d_max = (2.0 * delta).max(0.1e-3);
+    let mut d_max = (2.0 * delta).max(0.1e-3);
+    if tiw {
+        // Beyond the stock range more copper is wound as several in hand.
+        d_max = d_max.min(awg_diameter(TIW_COARSEST_AWG)?);
+    }
     let round_of = |d: f64| -> Result<Conductor> {
-        let bare = awg_diameter(awg_not_above(d))?;
         if tiw {
-            // Triple-insulated: about 0.2 mm over the bare diameter (from memory).
-            Conductor::triple_insulated(bare, bare + 0.2e-3)
+            automatic_tiw(awg_not_above(d))
         } else {
             Conductor::awg(awg_not_above(d), Grade::G2)
         }
@@ -657,6 +659,19 @@ pub(super) fn auto_conductor(
         .into_iter()
         .min_by(|a, b| build(&a.0, a.1).total_cmp(&build(&b.0, b.1)))
         .ok_or_else(|| Error::infeasible(None, "no conductor realises the copper area"))
+}
+
+/// The coarsest triple-insulated gauge the automatic conductors use: AWG 18,
+/// 1.02 mm bare (from memory: stock triple-insulated wire ends near 1 mm
+/// bare; use your supplier's data). More copper is wound as several in
+/// hand. A wire the user fixes is wound as given.
+pub const TIW_COARSEST_AWG: i32 = 18;
+
+/// Triple-insulated wire of AWG `g`, or of [`TIW_COARSEST_AWG`] where `g`
+/// is coarser: about 0.2 mm over the bare diameter (from memory).
+pub(super) fn automatic_tiw(g: i32) -> Result<Conductor> {
+    let d = awg_diameter(g.max(TIW_COARSEST_AWG))?;
+    Conductor::triple_insulated(d, d + 0.2e-3)
 }
 
 /// Insulating film wound between foil turns, m (common practice, no source).

@@ -214,9 +214,8 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
     // the wire itself makes, found by three fixed-point steps.
     let round_of = |g: i32| -> Option<Conductor> {
         if need.tiw {
-            // Triple-insulated: about 0.2 mm over the bare diameter (from memory).
-            let d = awg_diameter(g).ok()?;
-            Conductor::triple_insulated(d, d + 0.2e-3).ok()
+            // No coarser than the stock range: several in hand instead.
+            super::automatic_tiw(g).ok()
         } else {
             Conductor::awg(g, Grade::G2).ok()
         }
