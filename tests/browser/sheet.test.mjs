@@ -94,7 +94,7 @@ test('build sheet of the offline flyback: gap, insulation and the safety caution
   assert.match(await page.textContent('[data-testid="sheet-gap"]'), new RegExp(`${(want.gap.gap * 1e3).toFixed(3)} mm ground in the centre leg`));
   // Reinforced insulation as the engine built it: triple-insulated secondary, no margin tapes.
   assert.equal(want.winding_choice.construction, 'triple_insulated');
-  assert.match(sheet, /secondary 1\t\d+\ttriple-insulated [\d.]+ mm/);
+  assert.match(sheet, /secondary 1\t\d+\t(\d+ × )?triple-insulated [\d.]+ mm/);
   assert.doesNotMatch(sheet, /mm each flange/);
   assert.match(sheet, /IEC 62368-1/);
   assert.match(await page.textContent('[data-testid="sheet-name"]'), /Offline 24 W flyback/);
