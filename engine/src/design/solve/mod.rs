@@ -13,15 +13,12 @@
 //! 3. **Least loss** (the default rule): with the window filled, copper loss
 //!    goes as N² ∝ ΔB⁻² and core loss as ΔB^β, so total loss is least where
 //!    Pcore/Pcu = 2/β (Erickson & Maksimovic 2nd ed. §15.3, the ΔB that
-//!    minimises total loss). From a first design at the flux limit the swing
-//!    is scaled by (2·Pcu/(β·Pcore))^(1/(β+2)); the nearest integer turns at
-//!    or above the flux-limited count are evaluated and the lower loss kept.
-//!    The first design has its least-loss conductors (step 5); the trials
-//!    keep the conductors allocated by area, their copper loss scaled by
-//!    what the search saved on the first, and the trial chosen is searched
-//!    in its turn before it is compared, once for each interleaving and
-//!    construction within 5 % of the least at the flux limit's turns
-//!    (`least_loss`: the ranking can change with the turns).
+//!    minimises total loss). From a first design at the flux limit (with its
+//!    least-loss conductors, step 5) the swing is scaled by
+//!    (2·Pcu/(β·Pcore))^(1/(β+2)) to a start; from there the turns move one
+//!    at a time to the neighbour whose searched design loses less, and the
+//!    least is kept where it beats the first; its interleavings within 5 %
+//!    at the flux limit's turns are weighed again (`least_loss`).
 //! 4. **Gap** (flyback): the gap that gives Lp with Np turns, fringing by
 //!    McLyman's factor (`gap::solve_gap_for_inductance`). Forward and
 //!    push-pull cores are ungapped: their magnetising inductance uses a
