@@ -37,30 +37,16 @@ pub(super) fn finish(
         ..LossOptions::default()
     };
     let sel = c.worst_corner();
-    let core_pv_ref = sel.core.pv_reference;
-    let core_at = |t: f64| core_pv_ref * material.temp_factor.at(t) * core.ve;
-    // Copper between exact evaluations: the DC part scales with ρ(T), the
-    // part above DC with √ρ(T) (Dowell's large-Δ limit, Rac ∝ ρ/δ ∝ √ρ).
-    // Anchored at an exact evaluation; re-anchored at the equilibrium until
-    // it moves less than 0.5 K (at most three anchors).
-    let ceiling = (material.curie_c).min(250.0).max(spec.ambient + 1.0);
-    let mut t_k = spec
-        .temperature_max
-        .min(material.curie_c - 5.0)
-        .clamp(-60.0, 250.0);
+    // Re-anchored at the equilibrium until it moves less than 0.5 K (at
+    // most three anchors).
+    let mut t_k = anchor_temperature(spec, material);
     let mut anchor = sel.copper.clone();
     let mut history = Vec::new();
     let mut iterations = 0;
     let mut thermal = None;
     let mut copper = anchor.clone();
     for pass in 0..3 {
-        let dc: f64 = anchor.windings.iter().map(|w| w.dc_loss).sum();
-        let extra = (anchor.total - dc).max(0.0);
-        let rho_k = copper_resistivity(t_k)?;
-        let e = thermal::equilibrium(spec.ambient, core.surface_area, ceiling, |t| {
-            let r = copper_resistivity(t.clamp(-60.0, 250.0))? / rho_k;
-            Ok(core_at(t) + dc * r + extra * r.sqrt())
-        })?;
+        let e = equilibrium_from(spec, core, material, sel.core.pv_reference, &anchor, t_k)?;
         iterations += e.iterations;
         history.extend_from_slice(&e.history);
         let moved = (e.temperature - t_k).abs();
@@ -229,5 +215,34 @@ pub(super) fn finish(
         cautions,
         warnings,
         choke: None,
+    })
+}
+
+/// The temperature the selection evaluates the copper at, °C: the first
+/// anchor of the thermal equilibrium.
+pub(super) fn anchor_temperature(spec: &crate::topology::Spec, material: &Material) -> f64 {
+    spec.temperature_max.min(material.curie_c - 5.0).clamp(-60.0, 250.0)
+}
+
+/// Step 7's equilibrium from one anchor: the core loss at its reference
+/// `pv_ref` (W/m³ before the temperature factor) following the material's
+/// temperature factor, the copper `anchor` evaluated at `t_k` °C scaled
+/// between exact evaluations, its DC part with ρ(T) and the part above DC
+/// with √ρ(T) (Dowell's large-Δ limit, Rac ∝ ρ/δ ∝ √ρ).
+pub(super) fn equilibrium_from(
+    spec: &crate::topology::Spec,
+    core: &Core,
+    material: &Material,
+    pv_ref: f64,
+    anchor: &crate::winding::loss::LossReport,
+    t_k: f64,
+) -> Result<thermal::Equilibrium> {
+    let ceiling = (material.curie_c).min(250.0).max(spec.ambient + 1.0);
+    let dc: f64 = anchor.windings.iter().map(|w| w.dc_loss).sum();
+    let extra = (anchor.total - dc).max(0.0);
+    let rho_k = copper_resistivity(t_k)?;
+    thermal::equilibrium(spec.ambient, core.surface_area, ceiling, |t| {
+        let r = copper_resistivity(t.clamp(-60.0, 250.0))? / rho_k;
+        Ok(pv_ref * material.temp_factor.at(t) * core.ve + dc * r + extra * r.sqrt())
     })
 }

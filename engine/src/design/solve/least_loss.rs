@@ -19,10 +19,14 @@
 //! [`MAX_MOVES`] moves, one search each); where the closed form asks for
 //! no more turns it still weighs one more than the flux limit's. The least
 //! of the counts searched is kept where it loses less than the first
-//! design. The total compared is the worse line corner's at the
-//! temperature limit, as everywhere in the selection, so the design never
-//! ends above the start's total, and its neighbours (searched with the
-//! same interleaving) lose no less.
+//! design. The total compared is the one the design will run at: the
+//! worse line corner's losses at the thermal equilibrium they reach, found
+//! by step 7's closed-form scaling from the selection's exact losses at the
+//! temperature limit (one anchor; the report's re-anchored loss differs by
+//! well under 1 %). Ranking at the temperature limit instead put a ferrite
+//! near its loss minimum and chose too few turns for the cooler part that
+//! is built. So the design never ends above the start's total, and its
+//! neighbours (searched with the same interleaving) lose no less.
 //!
 //! **Interleavings at the final turns.** The first search chose the
 //! interleaving (and the reinforced construction) at the flux limit's
@@ -128,24 +132,40 @@ fn by_area(cx: &Ctx, best: Candidate, k: f64, target: f64, beta: f64, reason: &m
 /// count cannot be built at both corners).
 type Searched = Vec<(u32, Option<Candidate>)>;
 
-/// The selection total of the design with `n` primary turns and its
+/// What the descent compares: the total loss at the thermal equilibrium
+/// its worse corner would reach, by step 7's closed-form scaling from the
+/// selection's exact losses (one anchor, no further copper evaluation).
+/// The design runs there, not at the temperature limit, and a ferrite's
+/// loss moves with its temperature, so the counts are ranked where they
+/// will work; `None` where it cannot be had.
+fn operating_total(cx: &Ctx, c: &Candidate) -> Option<f64> {
+    let spec = &cx.design.spec;
+    let sel = c.worst_corner();
+    let t_k = super::finish::anchor_temperature(spec, cx.material);
+    super::finish::equilibrium_from(spec, cx.core, cx.material, sel.core.pv_reference, &sel.copper, t_k)
+        .ok()
+        .map(|e| e.loss)
+        .filter(|l| l.is_finite())
+}
+
+/// The [`operating_total`] of the design with `n` primary turns and its
 /// least-loss conductors under the first design's interleaving `keep`
 /// (searched once, then looked up); the first design `best` at its own
 /// turns.
 fn total_at(cx: &Ctx, best: &Candidate, keep: &WindingChoice, seen: &mut Searched, n: u32) -> Option<f64> {
     if n == best.turns.primary {
-        return Some(best.selection_total());
+        return operating_total(cx, best);
     }
     if n < best.turns.primary || n > topology::MAX_TURNS {
         return None;
     }
     if let Some((_, c)) = seen.iter().find(|e| e.0 == n) {
-        return c.as_ref().map(|c| c.selection_total());
+        return c.as_ref().and_then(|c| operating_total(cx, c));
     }
     // Both corners, as the design is then judged; a turn count that cannot
     // be built at both is not taken (it would be judged at one only).
     let c = build_for_search(cx, n).and_then(|c| with_least_loss_conductors(cx, c, Some(keep))).ok();
-    let t = c.as_ref().map(|c| c.selection_total()).filter(|t| t.is_finite());
+    let t = c.as_ref().and_then(|c| operating_total(cx, c));
     seen.push((n, c));
     t
 }
@@ -186,7 +206,7 @@ fn descend(cx: &Ctx, best: Candidate, start: u32, target: f64, beta: f64, reason
             }
         }
         counts.extend(seen.iter().map(|e| e.0));
-        if n == np0 || !(t < best.selection_total()) {
+        if n == np0 || !operating_total(cx, &best).is_some_and(|b| t < b) {
             return Ok(best);
         }
         let Some(kept) = seen.iter_mut().find(|e| e.0 == n).and_then(|e| e.1.take()) else { return Ok(best) };
@@ -372,14 +392,15 @@ mod tests {
 
     #[test]
     fn no_neighbouring_turn_count_loses_less() {
-        // The turns chosen are a local least of the selection total (the
-        // worse corner at the temperature limit): with the interleaving and
-        // construction chosen held and the primary turns fixed one above
-        // (and one below, where that is still above the flux limit's), the
-        // least-loss search gives no lower total. (Without the descent 12
-        // neighbours of these cases lost less: the forward demo at 0.7× its
-        // frequency and 1.6× its load was left at the quick pick's 8 turns,
-        // where 7 lose 10 % less.)
+        // The turns chosen are a local least of the loss as reported (at
+        // the thermal equilibrium): with the interleaving and construction
+        // chosen held and the primary turns fixed one above (and one below,
+        // where that is still above the flux limit's), the design loses no
+        // less, within 1 % (the descent ranks on a one-anchor estimate of
+        // the equilibrium, the report re-anchors). (Without the descent,
+        // three of these cases had a neighbour losing 1.5–9 % less: the
+        // forward demo at 2× its frequency was left at 5 turns, where 6
+        // lose 8.6 % less.)
         use crate::design::file::{Construction, TurnsRule};
         let mut cases = vec![Design::demo_forward(), Design::demo_flyback(), Design::demo_push_pull()];
         for (f, i) in [(1.0, 1.6), (0.7, 1.6), (2.0, 1.0), (1.4, 0.5)] {
@@ -391,7 +412,7 @@ mod tests {
                 cases.push(d);
             }
         }
-        let worst = |r: &crate::design::solve::Report| r.corners.iter().map(|c| c.total).fold(0.0, f64::max);
+        let worst = |r: &crate::design::solve::Report| r.losses.total;
         for d in cases {
             let Ok(r) = evaluate(&d) else { continue };
             let mut few = d.clone();
@@ -414,7 +435,7 @@ mod tests {
                 h.choices.turns = TurnsRule::Primary { turns: m };
                 let Ok(q) = evaluate(&h) else { continue };
                 assert!(
-                    worst(&r) <= worst(&q) * (1.0 + 1e-9),
+                    worst(&r) <= worst(&q) * 1.01,
                     "{} ({} kHz): {np} turns {} W, {m} turns {} W ({})",
                     d.name,
                     d.spec.frequency / 1e3,

@@ -541,7 +541,9 @@ mod tests {
         // the field is nil: less copper loss and leakage, and the halves of
         // each winding lose about alike (1-D MMF picture, Dowell 1966).
         let loss = |r: &Report, n: &str| r.operating.copper.windings.iter().find(|w| w.name == n).unwrap().total_loss;
+        // The same turns for both (each order would otherwise get its own).
         let mut d = Design::demo_push_pull();
+        d.choices.turns = TurnsRule::Primary { turns: evaluate(&d).unwrap().turns.primary };
         d.choices.interleave = Interleave::Sequential;
         let seq = evaluate(&d).unwrap();
         d.choices.interleave = Interleave::MirroredHalves;
