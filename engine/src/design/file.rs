@@ -61,8 +61,10 @@ pub enum MaterialChoice {
 pub enum TurnsRule {
     /// The fewest primary turns that keep Bpk within the limit.
     FewestTurns,
-    /// Fewer core loss against more copper: the flux swing where
-    /// Pcore/Pcu = 2/β (see `design::solve`), never above the Bpk limit.
+    /// Fewer core loss against more copper: from the flux swing where
+    /// Pcore/Pcu = 2/β, the turn count whose searched design loses least at
+    /// its operating temperature (see `design::solve`), never above the Bpk
+    /// limit.
     LeastLoss,
     /// Exactly these primary turns (secondaries and reset follow).
     Primary { turns: u32 },
