@@ -90,7 +90,7 @@ pub(super) fn least_loss_turns(
 /// turns or neither can be built.
 fn area_pick(cx: &Ctx, best: &Candidate, k: f64, target: f64) -> Option<(f64, Candidate)> {
     let np0 = best.turns.primary;
-    if !(target > np0 as f64 + 0.5) {
+    if target.is_nan() || target <= np0 as f64 + 0.5 {
         return None;
     }
     let lo = (target.floor() as u32).max(np0 + 1);
