@@ -128,9 +128,10 @@ fn by_area(cx: &Ctx, best: Candidate, k: f64, target: f64, beta: f64, reason: &m
     Ok(c)
 }
 
-/// The searched designs of a descent, by primary turns (`None`: the turn
-/// count cannot be built at both corners).
-type Searched = Vec<(u32, Option<Candidate>)>;
+/// The searched designs of a descent with their [`operating_total`], by
+/// primary turns (`None`: the turn count cannot be built at both corners,
+/// or its total cannot be had).
+type Searched = Vec<(u32, Option<(f64, Candidate)>)>;
 
 /// What the descent compares: the total loss at the thermal equilibrium
 /// its worse corner would reach, by step 7's closed-form scaling from the
@@ -150,22 +151,23 @@ fn operating_total(cx: &Ctx, c: &Candidate) -> Option<f64> {
 
 /// The [`operating_total`] of the design with `n` primary turns and its
 /// least-loss conductors under the first design's interleaving `keep`
-/// (searched once, then looked up); the first design `best` at its own
-/// turns.
-fn total_at(cx: &Ctx, best: &Candidate, keep: &WindingChoice, seen: &mut Searched, n: u32) -> Option<f64> {
-    if n == best.turns.primary {
-        return operating_total(cx, best);
+/// (searched once, then looked up); at the first design's turns `np0` its
+/// total `first`.
+fn total_at(cx: &Ctx, (np0, first): (u32, f64), keep: &WindingChoice, seen: &mut Searched, n: u32) -> Option<f64> {
+    if n == np0 {
+        return Some(first);
     }
-    if n < best.turns.primary || n > topology::MAX_TURNS {
+    if n < np0 || n > topology::MAX_TURNS {
         return None;
     }
     if let Some((_, c)) = seen.iter().find(|e| e.0 == n) {
-        return c.as_ref().and_then(|c| operating_total(cx, c));
+        return c.as_ref().map(|c| c.0);
     }
     // Both corners, as the design is then judged; a turn count that cannot
     // be built at both is not taken (it would be judged at one only).
     let c = build_for_search(cx, n).and_then(|c| with_least_loss_conductors(cx, c, Some(keep))).ok();
-    let t = c.as_ref().and_then(|c| operating_total(cx, c));
+    let c = c.and_then(|c| operating_total(cx, &c).map(|t| (t, c)));
+    let t = c.as_ref().map(|c| c.0);
     seen.push((n, c));
     t
 }
@@ -176,6 +178,8 @@ fn total_at(cx: &Ctx, best: &Candidate, keep: &WindingChoice, seen: &mut Searche
 /// with its interleavings weighed again.
 fn descend(cx: &Ctx, best: Candidate, start: u32, target: f64, beta: f64, reason: &mut String) -> Result<Candidate> {
     let np0 = best.turns.primary;
+    let Some(best_total) = operating_total(cx, &best) else { return Ok(best) };
+    let at_first = (np0, best_total);
     let first = best.winding_choice.clone();
     let mut keep = WindingChoice { tried: Vec::new(), ..first.clone() };
     let mut n = start.max(np0 + 1);
@@ -188,37 +192,34 @@ fn descend(cx: &Ctx, best: Candidate, start: u32, target: f64, beta: f64, reason
     for round in 0..2 {
         let mut seen: Searched = Vec::new();
         if let Some(c) = carried.take() {
-            seen.push((n, Some(c)));
+            seen.push((n, operating_total(cx, &c).map(|t| (t, c))));
         }
-        let Some(mut t) = total_at(cx, &best, &keep, &mut seen, n) else { return Ok(best) };
+        let Some(mut t) = total_at(cx, at_first, &keep, &mut seen, n) else { return Ok(best) };
         // Fewer turns first (the flux limit's design is already known),
         // more only where fewer do not lose less: one search a move.
         for _ in 0..MAX_MOVES {
             if n > np0 {
-                if let Some(x) = total_at(cx, &best, &keep, &mut seen, n - 1).filter(|&x| x < t) {
+                if let Some(x) = total_at(cx, at_first, &keep, &mut seen, n - 1).filter(|&x| x < t) {
                     (n, t) = (n - 1, x);
                     continue;
                 }
             }
-            match total_at(cx, &best, &keep, &mut seen, n + 1) {
+            match total_at(cx, at_first, &keep, &mut seen, n + 1) {
                 Some(x) if x < t => (n, t) = (n + 1, x),
                 _ => break,
             }
         }
         counts.extend(seen.iter().map(|e| e.0));
-        if n == np0 || !operating_total(cx, &best).is_some_and(|b| t < b) {
+        if n == np0 || t >= best_total {
             return Ok(best);
         }
-        let Some(kept) = seen.iter_mut().find(|e| e.0 == n).and_then(|e| e.1.take()) else { return Ok(best) };
+        let Some((_, kept)) = seen.iter_mut().find(|e| e.0 == n).and_then(|e| e.1.take()) else { return Ok(best) };
         let c = match &history {
             None => reweighed(cx, n, &first, kept)?,
             // Moved in round 2: the trials so far, then this one's.
             Some(h) if kept.turns.primary != h.0 => {
                 let mut k = kept;
-                let copper = k.selection_copper();
-                for t in &mut k.winding_choice.tried {
-                    t.copper_loss = copper;
-                }
+                listed_with_own_copper(&mut k);
                 k.winding_choice.tried = h.1.iter().cloned().chain(k.winding_choice.tried).collect();
                 k
             }
@@ -250,27 +251,32 @@ fn descend(cx: &Ctx, best: Candidate, start: u32, target: f64, beta: f64, reason
 /// each with the copper of the design it gave.
 fn reweighed(cx: &Ctx, n: u32, first: &WindingChoice, kept: Candidate) -> Result<Candidate> {
     let mut tried = first.tried.clone();
-    let mut best: Option<Candidate> = None;
-    for (i, keep) in rivals(first).into_iter().enumerate() {
-        let found = if i == 0 {
-            Ok(kept.clone())
-        } else {
-            build_for_search(cx, n).and_then(|c| with_least_loss_conductors(cx, c, Some(&keep)))
-        };
+    let mut best = kept;
+    listed_with_own_copper(&mut best);
+    tried.append(&mut best.winding_choice.tried);
+    for keep in rivals(first).into_iter().skip(1) {
         // A rival that cannot be searched is left out.
-        let Ok(mut r) = found else { continue };
-        let copper = r.selection_copper();
-        for t in &mut r.winding_choice.tried {
-            t.copper_loss = copper;
-        }
+        let Ok(mut r) = build_for_search(cx, n).and_then(|c| with_least_loss_conductors(cx, c, Some(&keep))) else {
+            continue;
+        };
+        listed_with_own_copper(&mut r);
         tried.append(&mut r.winding_choice.tried);
-        if best.as_ref().is_none_or(|b| r.selection_total() < b.selection_total()) {
-            best = Some(r);
+        if r.selection_total() < best.selection_total() {
+            best = r;
         }
     }
-    let mut b = best.unwrap_or(kept);
-    b.winding_choice.tried = tried;
-    Ok(b)
+    best.winding_choice.tried = tried;
+    Ok(best)
+}
+
+/// `c`'s interleaving trials listed with the copper of the design `c` is
+/// (its conductors after the whole search), the loss compared, instead of
+/// their first set's.
+fn listed_with_own_copper(c: &mut Candidate) {
+    let copper = c.selection_copper();
+    for t in &mut c.winding_choice.tried {
+        t.copper_loss = copper;
+    }
 }
 
 /// The choices to hold in turn: `first` itself, then every other
