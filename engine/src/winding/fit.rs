@@ -267,11 +267,12 @@ pub fn fit(core: &Core, st: &StackUp) -> Result<FitReport> {
     let mut layers = Vec::new();
     let mut bottoms = Vec::with_capacity(st.items.len());
     let mut copper = 0.0;
-    let room = |h: f64, need: f64, i: usize, what: &str| -> Result<()> {
+    // `what` names the item in the message, formatted only for an error.
+    let room = |h: f64, need: f64, i: usize, what: &dyn Fn() -> String| -> Result<()> {
         if h + need > avail * (1.0 + 1e-9) {
             return Err(Error::infeasible(
                 Some(&format!("items[{i}]")),
-                format!("{what} needs {} of build, {} left", mm(need), mm((avail - h).max(0.0))),
+                format!("{} needs {} of build, {} left", what(), mm(need), mm((avail - h).max(0.0))),
             ));
         }
         Ok(())
@@ -280,27 +281,29 @@ pub fn fit(core: &Core, st: &StackUp) -> Result<FitReport> {
         bottoms.push(h);
         match it {
             Item::Tape(t) => {
-                room(h, t.build(), i, "the tape")?;
+                room(h, t.build(), i, &|| "the tape".into())?;
                 h += t.build();
             }
             Item::Screen(s) => {
-                room(h, s.thickness, i, "the screen")?;
+                room(h, s.thickness, i, &|| "the screen".into())?;
                 h += s.thickness;
             }
             Item::Section(sec) => {
-                let field = format!("items[{i}]");
+                let field = || format!("items[{i}]");
                 let breadth = core.winding_breadth - sec.margin_left - sec.margin_right;
-                let (tpl, nl) = layout(sec, breadth, &field)?;
+                // The field path is formatted only for a refusal (the same
+                // layout again, with it).
+                let (tpl, nl) = layout(sec, breadth, "").or_else(|_| layout(sec, breadth, &field()))?;
                 if layers.len() as u64 + nl as u64 > MAX_LAYERS {
                     return Err(Error::input(
-                        &field,
+                        &field(),
                         format!("more than {MAX_LAYERS} layers in the stack-up"),
                     ));
                 }
                 let lh = sec.conductor.outer_height();
                 let tape = sec.interlayer.as_ref().map_or(0.0, |t| t.build());
                 let build = nl as f64 * lh + (nl.saturating_sub(1)) as f64 * tape;
-                room(h, build, i, &format!("the {} section", sec.winding))?;
+                room(h, build, i, &|| format!("the {} section", sec.winding))?;
                 let w = st.winding_index(&sec.winding).unwrap_or(0);
                 let p = sec.parallel.max(1) as f64;
                 let a1 = sec.conductor.copper_area();
