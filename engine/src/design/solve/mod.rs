@@ -532,6 +532,37 @@ mod tests {
     }
 
     #[test]
+    fn a_thinner_foil_is_not_a_simplification() {
+        // The forward demo at half load: the reset winding's least-loss
+        // conductor is a 35 µm foil; one round wire costs under
+        // SIMPLER_SHARE of the copper more. The rule used to count a thinner
+        // foil (less copper) as simpler, spent its one try on 20 µm foil and
+        // wound that; a simplification is now a simpler kind or fewer in
+        // hand, and the round wire is wound.
+        use super::conductors::SIMPLER_SHARE;
+        let mut d = Design::demo_forward();
+        for o in &mut d.spec.outputs {
+            o.current *= 0.5;
+        }
+        let r = evaluate(&d).unwrap();
+        let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
+        let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
+        assert_eq!((chosen.kind, chosen.parallel), (ConductorKind::Round, 1), "{}", reset.reason);
+        let least = reset.trials.iter().filter(|t| t.evaluated).map(|t| t.loss).fold(f64::INFINITY, f64::min);
+        let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
+        assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
+        assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
+        // No automatic winding of the design is in foil thinner than the
+        // least-loss foil its search weighed.
+        for w in r.wires.iter().filter(|w| w.automatic) {
+            let chosen = w.trials.iter().find(|t| t.chosen).unwrap();
+            if chosen.kind == ConductorKind::Foil {
+                assert!(!w.reason.starts_with("the simplest of"), "{}: {}", w.winding, w.reason);
+            }
+        }
+    }
+
+    #[test]
     fn mirrored_halves_balance_a_push_pulls_halves() {
         use crate::design::file::Interleave;
         // Each half of a centre-tapped winding conducts for half a period

@@ -24,11 +24,11 @@
 //!    winding's best candidate of every other kind (within [`KIND_BAND`]) is
 //!    tried in its place and kept where the total copper loss falls.
 //! 4. **Simplicity.** Per winding, the simplest candidate (round before
-//!    foil before litz, fewer in hand, less copper; common practice, no
-//!    source) whose set loses at most `SIMPLER_SHARE` more copper than
-//!    the least-loss set is wound instead: where the least-loss conductor
-//!    saves next to nothing (a reset winding outside the load current's
-//!    field), plain round wire.
+//!    foil before litz, fewer in hand; common practice, no source) whose
+//!    set loses at most `SIMPLER_SHARE` more copper than the least-loss set
+//!    is wound instead: where the least-loss conductor saves next to
+//!    nothing (a reset winding outside the load current's field), plain
+//!    round wire.
 
 use super::optima::{litz_low_frequency_loss, optimum_delta, waveform_factor};
 use super::screen::{estimate, phasors, portions, DowellMemo, Window};
@@ -703,13 +703,16 @@ fn reason(n: &Need, t: &[ConductorTrial], screened: usize, simpler: bool) -> Str
         w.loss,
         t.iter().filter(|x| x.evaluated).count()
     );
+    // Each kind of "why not": one that would lose less but does not fit,
+    // and one the harmonic model weighed that loses less itself.
     if let Some(x) = lower.iter().find(|x| !x.fits) {
         s.push_str(&format!(
             "; {} would lose less ({:.3} W estimated) but does not fit the window",
             x.conductor,
             x.loss
         ));
-    } else if let Some(x) = lower.iter().find(|x| x.evaluated) {
+    }
+    if let Some(x) = lower.iter().find(|x| x.evaluated) {
         s.push_str(&format!(
             "; {} alone loses less ({:.3} W) but raises the others' loss more",
             x.conductor, x.loss

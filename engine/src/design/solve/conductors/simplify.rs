@@ -10,11 +10,10 @@ use crate::winding::loss::LossReport;
 use crate::winding::stackup::{Pattern, StackUp};
 use std::cmp::Ordering;
 
-/// A simpler conductor (round before foil before litz, fewer in hand, less
-/// copper) is wound where it adds at most this
-/// share to the set's copper loss: a winding whose least-loss conductor
-/// buys a negligible saving (a forward's reset winding, say) gets plain
-/// round wire (our choice).
+/// A simpler conductor (round before foil before litz, fewer in hand) is
+/// wound where it adds at most this share to the set's copper loss: a
+/// winding whose least-loss conductor buys a negligible saving (a
+/// forward's reset winding, say) gets plain round wire (our choice).
 pub const SIMPLER_SHARE: f64 = 0.02;
 /// Simpler candidates of one winding the harmonic model weighs at most.
 pub const SIMPLER_TRIES: usize = 1;
@@ -24,15 +23,18 @@ pub(super) type Decided = (Vec<(Conductor, u32)>, StackUp, FitReport, LossReport
 
 /// How simple a conductor is to wind and to buy, least first (common
 /// practice, no source): round wire (enamelled or triple-insulated) before
-/// foil before litz, fewer in hand before more, less copper before more.
+/// foil before litz, fewer in hand before more. Conductors of one kind and
+/// count in hand are equally simple to wind (a thinner foil is not a
+/// simplification of a thicker one: the least-loss search already chose
+/// among them); of those, the one with less copper is preferred (cheaper,
+/// a smaller build: [`simplify`]'s order).
 fn simplicity(a: &Option1, b: &Option1) -> Ordering {
     let rank = |o: &Option1| match Kind::of(&o.conductor) {
         Kind::Round | Kind::TripleInsulated => 0,
         Kind::Foil => 1,
         Kind::Litz => 2,
     };
-    let copper = |o: &Option1| o.conductor.copper_area() * o.parallel as f64;
-    (rank(a), a.parallel).cmp(&(rank(b), b.parallel)).then(copper(a).total_cmp(&copper(b)))
+    (rank(a), a.parallel).cmp(&(rank(b), b.parallel))
 }
 
 /// Step 4 (module docs): per winding group, the simplest conductor (by
@@ -40,7 +42,8 @@ fn simplicity(a: &Option1, b: &Option1) -> Ordering {
 /// loss than the least-loss set `decided` holds, in the budget left by the
 /// groups before it. A candidate goes to the harmonic model only if its
 /// estimate is within the budget of the chosen one's, simplest first, at
-/// most [`SIMPLER_TRIES`] per group. Updates `chosen`, `evaluated` and
+/// most [`SIMPLER_TRIES`] per group: of the simplest kind and count in hand
+/// admitted, the one with the least copper. Updates `chosen`, `evaluated` and
 /// `decided`; returns per group whether a simpler conductor was taken at
 /// the cost of some loss.
 #[allow(clippy::too_many_arguments)]
@@ -70,7 +73,11 @@ pub(super) fn simplify(
                 simplicity(o, cur).is_lt() && others + o.build <= limit && o.loss <= cur.loss + room
             })
             .collect();
-        js.sort_by(|&a, &b| simplicity(&lists[g][a], &lists[g][b]));
+        let copper = |o: &Option1| o.conductor.copper_area() * o.parallel as f64;
+        js.sort_by(|&a, &b| {
+            let (x, y) = (&lists[g][a], &lists[g][b]);
+            simplicity(x, y).then(copper(x).total_cmp(&copper(y)))
+        });
         for j in js.into_iter().take(SIMPLER_TRIES) {
             let mut set = decided.0.clone();
             for &m in &gr[g] {
