@@ -552,8 +552,8 @@ mod tests {
         let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
         assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
         assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
-        // No automatic winding of the design is in foil thinner than the
-        // least-loss foil its search weighed.
+        // Its foils are its least-loss conductors: none is there by the
+        // simplicity rule (which took a thinner foil for a simpler one).
         for w in r.wires.iter().filter(|w| w.automatic) {
             let chosen = w.trials.iter().find(|t| t.chosen).unwrap();
             if chosen.kind == ConductorKind::Foil {
