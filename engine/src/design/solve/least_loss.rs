@@ -418,7 +418,7 @@ mod tests {
                 cases.push(d);
             }
         }
-        let worst = |r: &crate::design::solve::Report| r.losses.total;
+        let total = |r: &crate::design::solve::Report| r.losses.total;
         for d in cases {
             let Ok(r) = evaluate(&d) else { continue };
             let mut few = d.clone();
@@ -441,12 +441,12 @@ mod tests {
                 h.choices.turns = TurnsRule::Primary { turns: m };
                 let Ok(q) = evaluate(&h) else { continue };
                 assert!(
-                    worst(&r) <= worst(&q) * 1.01,
+                    total(&r) <= total(&q) * 1.01,
                     "{} ({} kHz): {np} turns {} W, {m} turns {} W ({})",
                     d.name,
                     d.spec.frequency / 1e3,
-                    worst(&r),
-                    worst(&q),
+                    total(&r),
+                    total(&q),
                     r.turns_reason
                 );
             }

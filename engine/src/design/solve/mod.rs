@@ -509,14 +509,11 @@ mod tests {
         assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
     }
 
-    #[test]
-    fn a_winding_that_saves_next_to_nothing_gets_plain_round_wire() {
-        // The forward demo's reset winding carries only the magnetising
-        // current, outside the load current's field: its least-loss
-        // conductor (a thin foil) saves a few mW over one round wire, far
-        // below SIMPLER_SHARE of the copper loss, so one round wire is wound.
+    /// The reset winding of `r` is one round wire, wound by the simplicity
+    /// rule: a lower-loss conductor was weighed, and the round wire costs at
+    /// most SIMPLER_SHARE of the copper loss more.
+    fn reset_simplified_to_one_round_wire(r: &Report) {
         use super::conductors::SIMPLER_SHARE;
-        let r = evaluate(&Design::demo_forward()).unwrap();
         let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
         let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
         assert_eq!((chosen.kind, chosen.parallel), (ConductorKind::Round, 1), "{}", reset.reason);
@@ -525,6 +522,16 @@ mod tests {
         let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
         assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
         assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
+    }
+
+    #[test]
+    fn a_winding_that_saves_next_to_nothing_gets_plain_round_wire() {
+        // The forward demo's reset winding carries only the magnetising
+        // current, outside the load current's field: its least-loss
+        // conductor (a thin foil) saves a few mW over one round wire, far
+        // below SIMPLER_SHARE of the copper loss, so one round wire is wound.
+        let r = evaluate(&Design::demo_forward()).unwrap();
+        reset_simplified_to_one_round_wire(&r);
         // The main windings keep their least-loss conductors.
         for w in r.wires.iter().filter(|w| w.winding != "reset") {
             assert!(w.reason.starts_with("least copper loss"), "{}: {}", w.winding, w.reason);
@@ -539,19 +546,12 @@ mod tests {
         // foil (less copper) as simpler, spent its one try on 20 µm foil and
         // wound that; a simplification is now a simpler kind or fewer in
         // hand, and the round wire is wound.
-        use super::conductors::SIMPLER_SHARE;
         let mut d = Design::demo_forward();
         for o in &mut d.spec.outputs {
             o.current *= 0.5;
         }
         let r = evaluate(&d).unwrap();
-        let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
-        let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
-        assert_eq!((chosen.kind, chosen.parallel), (ConductorKind::Round, 1), "{}", reset.reason);
-        let least = reset.trials.iter().filter(|t| t.evaluated).map(|t| t.loss).fold(f64::INFINITY, f64::min);
-        let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
-        assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
-        assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
+        reset_simplified_to_one_round_wire(&r);
         // Its foils are its least-loss conductors: none is there by the
         // simplicity rule (which took a thinner foil for a simpler one).
         for w in r.wires.iter().filter(|w| w.automatic) {
