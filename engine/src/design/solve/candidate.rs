@@ -284,18 +284,22 @@ pub(super) fn with_least_loss_conductors(cx: &Ctx, mut c: Candidate, keep: Optio
     let spec = &cx.design.spec;
     let (t_sel, rho, delta) = selection_copper(spec, cx.material)?;
     let waves = &c.waves;
-    let sel_op = if waves.at_vin_max.windings.first().map_or(0.0, |w| w.rms)
+    let (sel_op, sel_corner) = if waves.at_vin_max.windings.first().map_or(0.0, |w| w.rms)
         > waves.at_vin_min.windings.first().map_or(0.0, |w| w.rms)
     {
-        &waves.at_vin_max
+        (&waves.at_vin_max, Corner::VinMax)
     } else {
-        &waves.at_vin_min
+        (&waves.at_vin_min, Corner::VinMin)
     };
     let sel_currents = currents_of(spec.topology, sel_op);
+    // The core loss of the corner the currents are taken at (the corners
+    // are evaluated at the selection temperature).
+    let other = c.corners.iter().find(|k| k.corner == sel_corner).map_or(0.0, |k| k.core.watts);
     let setting = LossSetting {
         currents: &sel_currents,
         temperature: t_sel,
         rho,
+        other,
     };
     let names = winding_names(waves);
     let Some((stackup, fit, wires, winding_choice)) =

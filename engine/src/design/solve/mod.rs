@@ -73,7 +73,7 @@ use candidate::*;
 pub use candidate::{core_sense, currents_of};
 pub use choke::{choke_design, choke_spec};
 use conductors::*;
-pub use conductors::{ConductorKind, ConductorTrial, SIMPLER_SHARE, TIW_COARSEST_AWG};
+pub use conductors::{ConductorKind, ConductorTrial, ROUND_COARSEST_AWG, SIMPLER_SHARE, SIMPLER_TOTAL_SHARE, TIW_COARSEST_AWG};
 pub use report::*;
 
 /// Residual gap of a mated, ungapped core pair, m (common practice, from
@@ -511,16 +511,19 @@ mod tests {
 
     /// The reset winding of `r` is one round wire, wound by the simplicity
     /// rule: a lower-loss conductor was weighed, and the round wire costs at
-    /// most SIMPLER_SHARE of the copper loss more.
+    /// most the allowance more (SIMPLER_SHARE of the copper loss or
+    /// SIMPLER_TOTAL_SHARE of the whole, the larger).
     fn reset_simplified_to_one_round_wire(r: &Report) {
-        use super::conductors::SIMPLER_SHARE;
+        use super::conductors::{SIMPLER_SHARE, SIMPLER_TOTAL_SHARE};
         let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
         let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
         assert_eq!((chosen.kind, chosen.parallel), (ConductorKind::Round, 1), "{}", reset.reason);
         let least = reset.trials.iter().filter(|t| t.evaluated).map(|t| t.loss).fold(f64::INFINITY, f64::min);
         assert!(least < chosen.loss, "a lower-loss conductor was weighed: {}", reset.reason);
         let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
-        assert!(chosen.loss - least <= SIMPLER_SHARE * copper, "{} {least} {copper}", chosen.loss);
+        let whole: f64 = r.corners.iter().map(|c| c.copper.total + c.core.watts).fold(0.0, f64::max);
+        let allowance = (SIMPLER_SHARE * copper).max(SIMPLER_TOTAL_SHARE * whole);
+        assert!(chosen.loss - least <= allowance, "{} {least} {allowance}", chosen.loss);
         assert!(reset.reason.starts_with("the simplest of"), "{}", reset.reason);
     }
 
@@ -560,6 +563,48 @@ mod tests {
                 assert!(!w.reason.starts_with("the simplest of"), "{}: {}", w.winding, w.reason);
             }
         }
+    }
+
+    #[test]
+    fn a_foil_that_saves_a_fraction_of_the_core_loss_is_not_wound() {
+        // An offline forward (our own scenario) on ETD 39 at 94 kHz whose
+        // core loses some 3 W and whose copper 0.2 W: the reset winding's
+        // least-loss conductor, a 30 µm foil of 24 turns, saves about 10 mW
+        // over one round wire, more than 2 % of the copper but 0.3 % of the
+        // whole loss. Such a saving is inside what the loss models can tell
+        // apart; one round wire is wound (the allowance is also
+        // SIMPLER_TOTAL_SHARE of the whole loss). Under the copper-only
+        // allowance it was the foil.
+        use crate::design::file::{Interleave, MaterialChoice};
+        use crate::topology::spec::{Input, Isolation};
+        let mut d = Design::demo_forward();
+        d.spec.input = Input::Dc { min: 190.0, nominal: 270.0, max: 370.0 };
+        for o in &mut d.spec.outputs {
+            (o.voltage, o.current, o.rectifier_drop) = (39.0, 2.0, 0.7);
+        }
+        d.spec.frequency = 94e3;
+        d.spec.duty_max = 0.44;
+        d.spec.efficiency = 0.8;
+        d.spec.ambient = 30.0;
+        d.spec.isolation = Isolation::Functional;
+        d.core = CoreChoice::Library { designation: "ETD 39".into() };
+        d.material = MaterialChoice::Library { name: "MnZn-200k-flat".into() };
+        d.choices.turns = TurnsRule::FewestTurns;
+        d.choices.interleave = Interleave::SplitPrimary;
+        let r = evaluate(&d).unwrap();
+        assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
+        let copper: f64 = r.corners.iter().map(|c| c.copper.total).fold(0.0, f64::max);
+        let core: f64 = r.corners.iter().map(|c| c.core.watts).fold(0.0, f64::max);
+        assert!(core > 10.0 * copper, "the core loss dominates: {core} W against {copper} W");
+        reset_simplified_to_one_round_wire(&r);
+        let reset = r.wires.iter().find(|w| w.winding == "reset").unwrap();
+        let chosen = reset.trials.iter().find(|t| t.chosen).unwrap();
+        let least = reset.trials.iter().filter(|t| t.evaluated).map(|t| t.loss).fold(f64::INFINITY, f64::min);
+        assert!(
+            chosen.loss - least > super::conductors::SIMPLER_SHARE * copper,
+            "beyond the copper-only allowance: {} − {least} against {copper}",
+            chosen.loss
+        );
     }
 
     #[test]

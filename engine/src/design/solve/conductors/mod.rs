@@ -9,7 +9,7 @@ pub mod search;
 mod simplify;
 
 pub use search::{ConductorTrial, Kind as ConductorKind};
-pub use simplify::SIMPLER_SHARE;
+pub use simplify::{SIMPLER_SHARE, SIMPLER_TOTAL_SHARE};
 
 /// What the search needs to evaluate copper loss: the currents at the
 /// selection corner (dot convention), the temperature and ρ there.
@@ -17,6 +17,10 @@ pub(super) struct LossSetting<'a> {
     pub currents: &'a [crate::winding::loss::WindingCurrent],
     pub temperature: f64,
     pub rho: f64,
+    /// The loss the conductors do not change (the core's at the selection
+    /// corner and temperature), W: the simplicity allowance's base with the
+    /// copper ([`simplify`]).
+    pub other: f64,
 }
 
 use super::*;
@@ -326,6 +330,7 @@ fn setting<'s>(p: &'s Prep, design: &Design, core: &'s Core, delta: f64, loss: &
         ring: core.family.eq_ignore_ascii_case("R") || matches!(core.shape, Some(crate::core::Shape::Ring { .. })),
         max_parallel: ch.max_parallel,
         currents: loss.currents,
+        other_loss: loss.other,
     }
 }
 
@@ -607,11 +612,10 @@ pub(super) fn auto_conductor(
     max_parallel: u32,
 ) -> Result<(Conductor, u32)> {
     let d_need = (4.0 * area / std::f64::consts::PI).sqrt();
-    let mut d_max = (2.0 * delta).max(0.1e-3);
-    if tiw {
-        // Beyond the stock range more copper is wound as several in hand.
-        d_max = d_max.min(awg_diameter(TIW_COARSEST_AWG)?);
-    }
+    // Beyond the coarsest automatic gauge (stock range, or what winds and
+    // terminates) more copper is wound as several in hand.
+    let coarsest = if tiw { TIW_COARSEST_AWG } else { ROUND_COARSEST_AWG };
+    let d_max = (2.0 * delta).max(0.1e-3).min(awg_diameter(coarsest)?);
     let round_of = |d: f64| -> Result<Conductor> {
         if tiw {
             automatic_tiw(awg_not_above(d))
@@ -660,6 +664,13 @@ pub(super) fn auto_conductor(
         .min_by(|a, b| build(&a.0, a.1).total_cmp(&build(&b.0, b.1)))
         .ok_or_else(|| Error::infeasible(None, "no conductor realises the copper area"))
 }
+
+/// The coarsest enamelled round wire the automatic conductors use: AWG 14,
+/// 1.63 mm bare. Thicker solid wire is too stiff to wind tightly round a
+/// small bobbin or a ring's edges and too thick to terminate on a bobbin's
+/// pins (common practice, no source); more copper is wound as several in
+/// hand, as foil or as litz. A wire the user fixes is wound as given.
+pub const ROUND_COARSEST_AWG: i32 = 14;
 
 /// The coarsest triple-insulated gauge the automatic conductors use: AWG 18,
 /// 1.02 mm bare (from memory: stock triple-insulated wire ends near 1 mm

@@ -7,7 +7,8 @@
 //!    isolation asks for it) with 1 to `max_parallel` in hand, each at the
 //!    gauge of Hurley's optimum diameter for its layer count and at the
 //!    thickest gauges that wind the largest section in one and in two
-//!    layers; litz of the table's two coarsest strand gauges not above δ,
+//!    layers, none coarser than AWG 14 (AWG 18 triple-insulated;
+//!    [`ROUND_COARSEST_AWG`], [`TIW_COARSEST_AWG`]); litz of the table's two coarsest strand gauges not above δ,
 //!    each at the count where the low-frequency loss is least (Sullivan's
 //!    trade) and its two neighbours in the table. Buildable only: no foil
 //!    on ring cores or in triple-insulated windings, foil for at most
@@ -23,17 +24,19 @@
 //!    evaluated with its ranked set, the least-loss one kept; then each
 //!    winding's best candidate of every other kind (within [`KIND_BAND`]) is
 //!    tried in its place and kept where the total copper loss falls.
-//! 4. **Simplicity.** Per winding, the simplest candidate (round before
-//!    foil before litz, fewer in hand; common practice, no source) whose
-//!    set loses at most `SIMPLER_SHARE` more copper than the least-loss set
-//!    is wound instead: where the least-loss conductor saves next to
-//!    nothing (a reset winding outside the load current's field), plain
+//! 4. **Simplicity.** Per winding, those that lose least first, the
+//!    simplest candidate (round before foil before litz, fewer in hand;
+//!    common practice, no source) whose set loses at most the allowance
+//!    more copper than the least-loss set (`SIMPLER_SHARE` of its copper
+//!    loss, or `SIMPLER_TOTAL_SHARE` of the design's whole loss where that
+//!    is more) is wound instead: where the least-loss conductor saves next
+//!    to nothing (a reset winding outside the load current's field), plain
 //!    round wire.
 
 use super::optima::{litz_low_frequency_loss, optimum_delta, waveform_factor};
 use super::screen::{estimate, phasors, portions, DowellMemo, Window};
-use super::simplify::{simplify, SIMPLER_SHARE};
-use super::{awg_not_above, FOIL_FILM};
+use super::simplify::{simplify, SIMPLER_SHARE, SIMPLER_TOTAL_SHARE};
+use super::{awg_not_above, FOIL_FILM, ROUND_COARSEST_AWG, TIW_COARSEST_AWG};
 use crate::core::Core;
 use crate::error::Result;
 use crate::waveform::Pwl;
@@ -132,6 +135,9 @@ pub struct Setting<'a> {
     pub ring: bool,
     pub max_parallel: u32,
     pub currents: &'a [WindingCurrent],
+    /// The design's loss the conductors do not change (its core loss at the
+    /// selection corner and temperature), W.
+    pub other_loss: f64,
 }
 
 /// What the search found.
@@ -220,7 +226,8 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
             Conductor::awg(g, Grade::G2).ok()
         }
     };
-    let (d_min, d_max) = (awg_diameter(46).unwrap_or(0.04e-3), awg_diameter(8).unwrap_or(3.26e-3));
+    let coarsest = if need.tiw { TIW_COARSEST_AWG } else { ROUND_COARSEST_AWG };
+    let (d_min, d_max) = (awg_diameter(46).unwrap_or(0.04e-3), awg_diameter(coarsest).unwrap_or(1.628e-3));
     for par in 1..=s.max_parallel.max(1) {
         let mut d = (2.0 * s.delta1).clamp(d_min, d_max);
         for _ in 0..3 {
@@ -242,7 +249,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
             let room = s.breadth / tpl as f64;
             // From the gauge whose bare diameter fits, thinner until the
             // insulated wire does (one or two steps).
-            let mut gg = awg_not_above(room);
+            let mut gg = awg_not_above(room).max(coarsest);
             while gg < 46 && !round_of(gg).is_some_and(|c| c.outer_width() <= room) {
                 gg += 1;
             }
@@ -251,7 +258,7 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
             }
         }
         for gg in gauges {
-            if let Some(c) = round_of(gg.clamp(8, 46)) {
+            if let Some(c) = round_of(gg.clamp(coarsest, 46)) {
                 if !out.iter().any(|(x, p)| *p == par && x == &c) {
                     out.push((c, par));
                 }
@@ -514,7 +521,7 @@ fn trial_report(
     lists: &[Vec<Option1>],
     chosen: &[usize],
     evaluated: &[Vec<(usize, f64)>],
-    simpler: &[bool],
+    simpler: &[Option<f64>],
     r: &LossReport,
     limit: f64,
 ) -> (Vec<Vec<ConductorTrial>>, Vec<String>) {
@@ -658,7 +665,7 @@ pub fn decide(s: &Setting, needs: &[Need], screened: Screened) -> Option<Found> 
     }
     // Step 4: the simplest conductor where the least-loss one buys little.
     let mut decided = (set, st, f, r);
-    let simpler = simplify(s, needs, &gr, &lists, &pattern, limit, &mut chosen, &mut evaluated, &mut decided);
+    let (simpler, allowance) = simplify(s, needs, &gr, &lists, &pattern, limit, &mut chosen, &mut evaluated, &mut decided);
     let (set, st, f, r) = decided;
     // The chosen conductors' losses as finally evaluated.
     for g in 0..gr.len() {
@@ -667,6 +674,7 @@ pub fn decide(s: &Setting, needs: &[Need], screened: Screened) -> Option<Found> 
             e.1 = l;
         }
     }
+    let simpler: Vec<Option<f64>> = simpler.iter().map(|&t| t.then_some(allowance)).collect();
     let (trials, reasons) = trial_report(needs, &gr, &lists, &chosen, &evaluated, &simpler, &r, limit);
     Some(Found {
         pattern,
@@ -680,20 +688,25 @@ pub fn decide(s: &Setting, needs: &[Need], screened: Screened) -> Option<Found> 
     })
 }
 
-fn reason(n: &Need, t: &[ConductorTrial], screened: usize, simpler: bool) -> String {
+/// Why the chosen conductor won; `simpler` is the simplicity allowance, W,
+/// where step 4 took a simpler conductor at some cost.
+fn reason(n: &Need, t: &[ConductorTrial], screened: usize, simpler: Option<f64>) -> String {
     if n.fixed.is_some() {
         return "fixed by the user".into();
     }
     let Some(w) = t.iter().find(|x| x.chosen) else {
         return String::new();
     };
-    if simpler {
+    if let Some(allowance) = simpler {
         let least = t.iter().filter(|x| x.evaluated && !x.chosen).min_by(|a, b| a.loss.total_cmp(&b.loss));
         let than = least.map_or(String::new(), |x| format!("; {} would lose {:.3} W", x.conductor, x.loss));
         return format!(
-            "the simplest of {screened} buildable conductors ranked whose set loses at most {:.0} % more copper than the \
-             least-loss set ({:.3} W here{than})",
+            "the simplest of {screened} buildable conductors ranked whose set loses at most {:.3} W more copper than \
+             the least-loss set (the larger of {:.0} % of its copper loss and {:.1} % of the design's whole loss; \
+             {:.3} W here{than})",
+            allowance,
             SIMPLER_SHARE * 100.0,
+            SIMPLER_TOTAL_SHARE * 100.0,
             w.loss
         );
     }

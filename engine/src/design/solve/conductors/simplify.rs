@@ -11,10 +11,19 @@ use crate::winding::stackup::{Pattern, StackUp};
 use std::cmp::Ordering;
 
 /// A simpler conductor (round before foil before litz, fewer in hand) is
-/// wound where it adds at most this share to the set's copper loss: a
-/// winding whose least-loss conductor buys a negligible saving (a
+/// wound where it adds at most this share to the set's copper loss, or
+/// [`SIMPLER_TOTAL_SHARE`] of the design's whole loss where that is more:
+/// a winding whose least-loss conductor buys a negligible saving (a
 /// forward's reset winding, say) gets plain round wire (our choice).
 pub const SIMPLER_SHARE: f64 = 0.02;
+/// The simplicity allowance as a share of the design's whole loss (copper
+/// and core at the selection corner and temperature): a saving of under
+/// half a per cent of what the magnetic loses is far inside what the loss
+/// models can tell apart (core-loss data and the one-dimensional copper
+/// model are good to several per cent), not worth a harder build (our
+/// choice). Where the core loss dominates, a few milliwatts of copper are
+/// not bought with a foil winding.
+pub const SIMPLER_TOTAL_SHARE: f64 = 0.005;
 /// Simpler candidates of one winding the harmonic model weighs at most.
 pub const SIMPLER_TRIES: usize = 1;
 
@@ -38,14 +47,15 @@ fn simplicity(a: &Option1, b: &Option1) -> Ordering {
 }
 
 /// Step 4 (module docs): per winding group, the simplest conductor (by
-/// [`simplicity`]) whose set loses at most [`SIMPLER_SHARE`] more copper
-/// loss than the least-loss set `decided` holds, in the budget left by the
+/// [`simplicity`]) whose set loses at most the allowance ([`SIMPLER_SHARE`]
+/// of the copper loss of the least-loss set `decided` holds, or
+/// [`SIMPLER_TOTAL_SHARE`] of the whole loss) more, in the budget left by the
 /// groups before it. A candidate goes to the harmonic model only if its
 /// estimate is within the budget of the chosen one's, simplest first, at
 /// most [`SIMPLER_TRIES`] per group: of the simplest kind and count in hand
 /// admitted, the one with the least copper. Updates `chosen`, `evaluated` and
 /// `decided`; returns per group whether a simpler conductor was taken at
-/// the cost of some loss.
+/// the cost of some loss, and the allowance, W.
 #[allow(clippy::too_many_arguments)]
 pub(super) fn simplify(
     s: &Setting,
@@ -57,10 +67,16 @@ pub(super) fn simplify(
     chosen: &mut [usize],
     evaluated: &mut [Vec<(usize, f64)>],
     decided: &mut Decided,
-) -> Vec<bool> {
-    let ceiling = decided.3.total * (1.0 + SIMPLER_SHARE);
+) -> (Vec<bool>, f64) {
+    let least = decided.3.total;
+    let ceiling = least + (SIMPLER_SHARE * least).max(SIMPLER_TOTAL_SHARE * (least + s.other_loss));
     let mut taken = vec![false; gr.len()];
-    for g in 0..gr.len() {
+    // The windings that lose least first: their simplification costs least
+    // and a forward's reset winding is not left without budget by the
+    // main windings before it.
+    let mut order: Vec<usize> = (0..gr.len()).collect();
+    order.sort_by(|&a, &b| lists[a][chosen[a]].loss.total_cmp(&lists[b][chosen[b]].loss));
+    for g in order {
         if needs[gr[g][0]].fixed.is_some() {
             continue;
         }
@@ -97,5 +113,5 @@ pub(super) fn simplify(
             }
         }
     }
-    taken
+    (taken, ceiling - least)
 }
