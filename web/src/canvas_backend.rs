@@ -11,6 +11,13 @@
 //! lines, same text anchors), which draws the rare primitives (single
 //! pixels) and after which the kept state is forgotten.
 //!
+//! Straight lines in one style, one after another (a chart's grid, its
+//! ticks, a window picture's layer lines), are gathered into one path and
+//! stroked once, when the style changes or anything else is drawn: one
+//! `stroke` for a grid instead of one per line. The lines are opaque or
+//! drawn once each, so the pixels are those of separate strokes but where
+//! two lines of a translucent colour cross.
+//!
 //! Text is measured on the canvas (`measureText`), never in the document:
 //! plotters' own web measurement appends a span to the page and reads its
 //! size, which forces a layout of the whole page for every label drawn.
@@ -62,6 +69,8 @@ struct Kept {
     /// Style, size (bits) and family: compared without building the string.
     font: Option<(String, u64, String)>,
     anchor: Option<(&'static str, &'static str)>,
+    /// Lines in the kept stroke style traced and not yet stroked.
+    lines: bool,
 }
 
 /// plotters' backend on a scaled 2-D context, `size` in CSS pixels.
@@ -78,6 +87,7 @@ impl Canvas2d {
     }
 
     fn stroke_style(&self, style: &impl BackendStyle) {
+        self.flush();
         let want = (key(style.color()), style.stroke_width());
         let mut k = self.kept.borrow_mut();
         if k.stroke != Some(want) {
@@ -88,6 +98,7 @@ impl Canvas2d {
     }
 
     fn fill_style(&self, color: BackendColor) {
+        self.flush();
         let want = key(color);
         let mut k = self.kept.borrow_mut();
         if k.fill != Some(want) {
@@ -98,6 +109,7 @@ impl Canvas2d {
 
     /// The font string plotters-canvas draws with.
     fn font(&self, style: &impl BackendTextStyle) {
+        self.flush();
         let (st, size, family) = (style.style(), style.size(), style.family());
         let mut k = self.kept.borrow_mut();
         let same = k.font.as_ref().is_some_and(|(s, z, f)| s == st.as_str() && *z == size.to_bits() && f == family.as_str());
@@ -107,7 +119,18 @@ impl Canvas2d {
         }
     }
 
+    /// Strokes the lines gathered so far (see the module docs); every
+    /// primitive but a line in the same style calls it first.
+    fn flush(&self) {
+        let mut k = self.kept.borrow_mut();
+        if k.lines {
+            self.ctx.stroke();
+            k.lines = false;
+        }
+    }
+
     fn forget(&self) {
+        self.flush();
         *self.kept.borrow_mut() = Kept::default();
     }
 
@@ -120,6 +143,7 @@ impl Canvas2d {
     }
 
     fn trace(&self, mut path: impl Iterator<Item = BackendCoord>) -> bool {
+        self.flush();
         self.ctx.begin_path();
         let Some(start) = path.next() else { return false };
         self.ctx.move_to(f64::from(start.0), f64::from(start.1));
@@ -127,6 +151,14 @@ impl Canvas2d {
             self.ctx.line_to(f64::from(p.0), f64::from(p.1));
         }
         true
+    }
+}
+
+/// The last lines gathered are stroked when the drawing ends, whether or
+/// not plotters presents it.
+impl Drop for Canvas2d {
+    fn drop(&mut self) {
+        self.flush();
     }
 }
 
@@ -156,9 +188,11 @@ impl DrawingBackend for Canvas2d {
         Ok(())
     }
     fn present(&mut self) -> Res {
+        self.flush();
         Ok(())
     }
     fn draw_pixel(&mut self, point: BackendCoord, color: BackendColor) -> Res {
+        self.flush();
         let r = self.inner.draw_pixel(point, color);
         self.delegated(r)
     }
@@ -167,11 +201,18 @@ impl DrawingBackend for Canvas2d {
             return Ok(());
         }
         let (a, b) = crisp(from, to);
-        self.stroke_style(style);
-        self.ctx.begin_path();
+        let want = (key(style.color()), style.stroke_width());
+        let more = {
+            let k = self.kept.borrow();
+            k.lines && k.stroke == Some(want)
+        };
+        if !more {
+            self.stroke_style(style);
+            self.ctx.begin_path();
+            self.kept.borrow_mut().lines = true;
+        }
         self.ctx.move_to(a.0, a.1);
         self.ctx.line_to(b.0, b.1);
-        self.ctx.stroke();
         Ok(())
     }
     fn draw_rect<S: BackendStyle>(&mut self, ul: BackendCoord, br: BackendCoord, style: &S, fill: bool) -> Res {
