@@ -155,6 +155,13 @@ pub(super) fn finish(
             warnings.push(w);
         }
     }
+    // The saturation check's limit, at the operating temperature.
+    let b_allowed = material.bsat_at(thermal.temperature) * (1.0 - ch.saturation_margin);
+    if let Some(w) =
+        super::warnings::transient_flux_warning(spec.topology, spec.duty_max, &c.waves, super::sat_scale(core), b_allowed)
+    {
+        warnings.push(w);
+    }
     if ch
         .bpk_limit
         .is_some_and(|b| b > material.bsat_at(spec.temperature_max) * (1.0 - ch.saturation_margin))
