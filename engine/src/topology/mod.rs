@@ -311,6 +311,9 @@ fn context<'a>(spec: &'a Spec, turns: &'a Turns, lp_h: Option<f64>, ae_m2: f64) 
     })
 }
 
+/// How a corner's warning that its switch node is above ES1 begins.
+pub const SWITCH_NODE_WARNING: &str = "the switch node reaches";
+
 fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     positive("vin", vin, "V")?;
     in_range("vin", vin, 0.0, 5000.0, "V")?;
@@ -324,7 +327,7 @@ fn at(ctx: &Ctx, vin: f64) -> Result<OperatingPoint> {
     };
     if op.switch_voltage > spec::ES1_DC_LIMIT {
         op.warnings.push(format!(
-            "the switch node reaches {:.0} V (plus the leakage spike), above the ES1 limit of 60 V DC of \
+            "{SWITCH_NODE_WARNING} {:.0} V (plus the leakage spike), above the ES1 limit of 60 V DC of \
              IEC 62368-1 (from memory): treat the primary side as hazardous",
             op.switch_voltage
         ));

@@ -130,13 +130,14 @@ pub(super) fn finish(
     let pass = checks.iter().all(|k| k.pass);
 
     let mut warnings: Vec<String> = Vec::new();
-    for w in c
-        .waves
-        .at_vin_min
-        .warnings
-        .iter()
-        .chain(c.waves.at_vin_max.warnings.iter())
-    {
+    // Both corners' warnings, once each; the switch node's only from the
+    // corner where it is highest (one line, the worst voltage).
+    let (lo, hi) = (&c.waves.at_vin_min, &c.waves.at_vin_max);
+    let worst_switch = if hi.switch_voltage >= lo.switch_voltage { hi } else { lo };
+    for (op, w) in lo.warnings.iter().map(|w| (lo, w)).chain(hi.warnings.iter().map(|w| (hi, w))) {
+        if w.starts_with(crate::topology::SWITCH_NODE_WARNING) && !std::ptr::eq(op, worst_switch) {
+            continue;
+        }
         if !warnings.contains(w) {
             warnings.push(w.clone());
         }

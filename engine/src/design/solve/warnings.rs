@@ -171,6 +171,20 @@ mod tests {
         assert!(w.contains(&format!("{:.0} mT", b * 1e3)) && w.contains(&format!("{:.0} mT", sat.limit * 1e3)), "{w}");
     }
 
+    #[test]
+    fn the_switch_node_is_warned_of_once_at_its_worst_corner() {
+        // The forward demo: the switch sees Vin·(1 + Np/Nr) (Erickson &
+        // Maksimovic 2nd ed. §6.3.2), 72 V at Vin min and 120 V at Vin max,
+        // both above ES1; one warning, with the higher.
+        let r = evaluate(&Design::demo_forward()).unwrap();
+        let (np, nr) = (r.turns.primary as f64, r.turns.reset.unwrap() as f64);
+        let hi = r.waveforms.at_vin_max.vin * (1.0 + np / nr);
+        let lines: Vec<&String> =
+            r.warnings.iter().filter(|w| w.starts_with(crate::topology::SWITCH_NODE_WARNING)).collect();
+        assert_eq!(lines.len(), 1, "{lines:?}");
+        assert!(lines[0].contains(&format!("{hi:.0} V")), "{} against {hi}", lines[0]);
+    }
+
     /// The demo flyback's loss corner is Vin max (DCM-leaning, larger swing)
     /// while at Vin min, in CCM, B(t) never comes within 25 mT of zero: the
     /// DC-bias warning (the rule of `loss::dc_bias_warning`, common practice,
