@@ -7,8 +7,10 @@
 //!    isolation asks for it) with 1 to `max_parallel` in hand, each at the
 //!    gauge of Hurley's optimum diameter for its layer count and at the
 //!    thickest gauges that wind the largest section in one and in two
-//!    layers, none coarser than AWG 14 (AWG 18 triple-insulated;
-//!    [`ROUND_COARSEST_AWG`], [`TIW_COARSEST_AWG`]); litz of the table's two coarsest strand gauges not above δ,
+//!    layers (one in hand: and the gauge midway between Hurley's and the
+//!    finer of those two where they are more than four gauges apart), none coarser
+//!    than AWG 14 (AWG 18 triple-insulated; [`ROUND_COARSEST_AWG`],
+//!    [`TIW_COARSEST_AWG`]); litz of the table's two coarsest strand gauges not above δ,
 //!    each at the count where the low-frequency loss is least (Sullivan's
 //!    trade) and its two neighbours in the table. Buildable only: no foil
 //!    on ring cores or in triple-insulated windings, foil for at most
@@ -255,6 +257,17 @@ fn candidates(need: &Need, secs: &[(u32, f64)], s: &Setting) -> Vec<(Conductor, 
             }
             if round_of(gg).is_some_and(|c| c.outer_width() <= room) {
                 gauges.push(gg);
+            }
+        }
+        // One in hand: also the gauge midway (in AWG, the geometric mean
+        // of the diameters) between Hurley's and the finer of the one- and
+        // two-layer gauges where they are more than four gauges apart, so
+        // that a winding whose loss barely depends on its wire (a reset
+        // winding) can be simplified to a wire of moderate size, not only to
+        // one that fills a layer (our choice).
+        if let Some(&thick) = gauges[1..].iter().max() {
+            if par == 1 && g - thick > 4 {
+                gauges.push((g + thick) / 2);
             }
         }
         for gg in gauges {
