@@ -565,6 +565,32 @@ mod tests {
         }
     }
 
+    /// A single-output forward of our own on a library core and material,
+    /// the fewest turns, functional isolation (the simplicity scenarios).
+    /// `input` is (min, nominal, max) V, `output` (V, A, rectifier drop V),
+    /// `converter` (frequency Hz, duty max, efficiency, ambient °C).
+    fn forward_scenario(
+        input: (f64, f64, f64),
+        output: (f64, f64, f64),
+        converter: (f64, f64, f64, f64),
+        core: &str,
+        material: &str,
+    ) -> Design {
+        use crate::design::file::MaterialChoice;
+        use crate::topology::spec::{Input, Isolation};
+        let mut d = Design::demo_forward();
+        d.spec.input = Input::Dc { min: input.0, nominal: input.1, max: input.2 };
+        for o in &mut d.spec.outputs {
+            (o.voltage, o.current, o.rectifier_drop) = output;
+        }
+        (d.spec.frequency, d.spec.duty_max, d.spec.efficiency, d.spec.ambient) = converter;
+        d.spec.isolation = Isolation::Functional;
+        d.core = CoreChoice::Library { designation: core.into() };
+        d.material = MaterialChoice::Library { name: material.into() };
+        d.choices.turns = TurnsRule::FewestTurns;
+        d
+    }
+
     #[test]
     fn a_foil_that_saves_a_fraction_of_the_core_loss_is_not_wound() {
         // An offline forward (our own scenario) on ETD 39 at 94 kHz whose
@@ -575,21 +601,8 @@ mod tests {
         // apart; one round wire is wound (the allowance is also
         // SIMPLER_TOTAL_SHARE of the whole loss). Under the copper-only
         // allowance it was the foil.
-        use crate::design::file::{Interleave, MaterialChoice};
-        use crate::topology::spec::{Input, Isolation};
-        let mut d = Design::demo_forward();
-        d.spec.input = Input::Dc { min: 190.0, nominal: 270.0, max: 370.0 };
-        for o in &mut d.spec.outputs {
-            (o.voltage, o.current, o.rectifier_drop) = (39.0, 2.0, 0.7);
-        }
-        d.spec.frequency = 94e3;
-        d.spec.duty_max = 0.44;
-        d.spec.efficiency = 0.8;
-        d.spec.ambient = 30.0;
-        d.spec.isolation = Isolation::Functional;
-        d.core = CoreChoice::Library { designation: "ETD 39".into() };
-        d.material = MaterialChoice::Library { name: "MnZn-200k-flat".into() };
-        d.choices.turns = TurnsRule::FewestTurns;
+        use crate::design::file::Interleave;
+        let mut d = forward_scenario((190.0, 270.0, 370.0), (39.0, 2.0, 0.7), (94e3, 0.44, 0.8, 30.0), "ETD 39", "MnZn-200k-flat");
         d.choices.interleave = Interleave::SplitPrimary;
         let r = evaluate(&d).unwrap();
         assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
@@ -616,21 +629,7 @@ mod tests {
         // Hurley's gauge (beyond the allowance) and the gauges that fill one
         // or two layers (1.45 mm here), so the reset went to 1.45 mm wire.
         // The gauge midway is a candidate too.
-        use crate::design::file::MaterialChoice;
-        use crate::topology::spec::{Input, Isolation};
-        let mut d = Design::demo_forward();
-        d.spec.input = Input::Dc { min: 58.0, nominal: 76.0, max: 83.0 };
-        for o in &mut d.spec.outputs {
-            (o.voltage, o.current, o.rectifier_drop) = (33.0, 2.0, 0.45);
-        }
-        d.spec.frequency = 150e3;
-        d.spec.duty_max = 0.4;
-        d.spec.efficiency = 0.9;
-        d.spec.ambient = 25.0;
-        d.spec.isolation = Isolation::Functional;
-        d.core = CoreChoice::Library { designation: "E 30/15/7".into() };
-        d.material = MaterialChoice::Library { name: "MnZn-200k-flat".into() };
-        d.choices.turns = TurnsRule::FewestTurns;
+        let d = forward_scenario((58.0, 76.0, 83.0), (33.0, 2.0, 0.45), (150e3, 0.4, 0.9, 25.0), "E 30/15/7", "MnZn-200k-flat");
         let r = evaluate(&d).unwrap();
         assert!(r.pass, "{:?}", r.checks.iter().filter(|c| !c.pass).collect::<Vec<_>>());
         reset_simplified_to_one_round_wire(&r);

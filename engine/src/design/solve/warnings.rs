@@ -76,7 +76,7 @@ pub(super) fn core_loss_warnings(
 pub(super) fn transient_b_peak(topology: Topology, duty_max: f64, waves: &WorstCase) -> Option<f64> {
     let lo = &waves.at_vin_min;
     let vs_lo = lo.vin * lo.duty;
-    if !(vs_lo > 0.0) {
+    if vs_lo.is_nan() || vs_lo <= 0.0 {
         return None;
     }
     let r = (waves.at_vin_max.vin * duty_max / vs_lo).max(1.0);
