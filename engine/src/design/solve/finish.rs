@@ -156,11 +156,12 @@ pub(super) fn finish(
             warnings.push(w);
         }
     }
-    // The saturation check's limit, at the operating temperature.
-    let b_allowed = material.bsat_at(thermal.temperature) * (1.0 - ch.saturation_margin);
-    if let Some(w) =
-        super::warnings::transient_flux_warning(spec.topology, spec.duty_max, &c.waves, super::sat_scale(core), b_allowed)
-    {
+    // Against the saturation check's own limit (Bsat at the operating
+    // temperature less the margin).
+    let b_allowed = checks.iter().find(|k| k.key == "saturation").map(|k| k.limit);
+    if let Some(w) = b_allowed.and_then(|b| {
+        super::warnings::transient_flux_warning(spec.topology, spec.duty_max, &c.waves, super::sat_scale(core), b)
+    }) {
         warnings.push(w);
     }
     if ch
